@@ -1,0 +1,153 @@
+"""The rule API: what a rule is, what it yields, and what it may ask of the design.
+
+Built-in rules and team rules use exactly this module (re-exported from ``packwarden``); if a
+built-in rule needs something that is not here, team rules need it too and it belongs here.
+"""
+
+from __future__ import annotations
+
+import hashlib
+from dataclasses import dataclass, field, replace
+from enum import Enum
+from typing import TYPE_CHECKING, Any, Callable, Iterable
+
+from pydantic import BaseModel, ConfigDict
+
+if TYPE_CHECKING:  # pragma: no cover
+    from .netlist import Netlist
+    from .schema import Design
+
+
+class Severity(str, Enum):
+    error = "error"
+    warning = "warning"
+    info = "info"
+
+    @property
+    def rank(self) -> int:
+        return {"info": 1, "warning": 2, "error": 3}[self.value]
+
+
+@dataclass(frozen=True)
+class Figure:
+    """A number a rule computed or compared, shown beside the finding so it can be checked."""
+
+    name: str
+    value: float
+    unit: str
+
+    def text(self) -> str:
+        from .quantities import format_quantity
+        return f"{self.name} = {format_quantity(self.value, self.unit)}"
+
+
+@dataclass(frozen=True)
+class Location:
+    file: str
+    path: tuple = ()  # YAML path, e.g. ("components", "Q1", "part")
+    line: int = 1
+    column: int = 1
+
+    @property
+    def dotted(self) -> str:
+        return ".".join(str(p) for p in self.path)
+
+
+@dataclass(frozen=True)
+class Finding:
+    rule: str
+    severity: Severity
+    message: str
+    location: Location
+    hint: str | None = None
+    element: str | None = None
+    figures: tuple[Figure, ...] = ()
+    #: Distinguishes several findings of one rule on one element (e.g. "overcharge-release").
+    key: str = ""
+    waived: str | None = None  # the waiver's reason when a waiver covers this finding
+    fingerprint: str = ""
+
+    def with_fingerprint(self, design_id: str) -> "Finding":
+        # Keyed on what the finding is about, never on line numbers, so baselines survive edits
+        # elsewhere in the file and re-ordering of components.
+        basis = "\x1f".join([self.rule, design_id, self.element or "", self.location.dotted, self.key])
+        return replace(self, fingerprint=hashlib.sha256(basis.encode()).hexdigest()[:20])
+
+
+class RuleOptions(BaseModel):
+    """Base for a rule's options; set per project under ``[tool.packwarden.rules.<id>]``."""
+
+    model_config = ConfigDict(extra="forbid", frozen=True)
+
+
+class NoOptions(RuleOptions):
+    pass
+
+
+@dataclass(frozen=True)
+class Example:
+    """A design fragment showing a rule's failing (``bad``) and passing (``good``) case."""
+
+    bad: str
+    good: str
+
+
+CheckFn = Callable[["RuleContext", Any], Iterable[Finding]]
+
+
+@dataclass(frozen=True)
+class Rule:
+    id: str
+    summary: str
+    rationale: str
+    severity: Severity
+    check: CheckFn
+    options: type[RuleOptions] = NoOptions
+    example: Example | None = None
+    #: Where the rule came from (entry point or folder), filled in by the registry.
+    origin: str = ""
+
+
+def rule(*, id: str, summary: str, severity: Severity | str = Severity.error,
+         options: type[RuleOptions] = NoOptions, example: Example | None = None
+         ) -> Callable[[CheckFn], Rule]:
+    """Turn a ``check(ctx, options)`` generator into a :class:`Rule`; its docstring is the rationale."""
+
+    def wrap(fn: CheckFn) -> Rule:
+        doc = (fn.__doc__ or "").strip()
+        return Rule(id=id, summary=summary, rationale=_dedent(doc), severity=Severity(severity),
+                    check=fn, options=options, example=example)
+    return wrap
+
+
+def _dedent(text: str) -> str:
+    import inspect
+    return inspect.cleandoc(text)
+
+
+@dataclass
+class RuleContext:
+    """What a rule sees: the validated design, its netlist, and the model's figures."""
+
+    file: str
+    design: "Design"
+    netlist: "Netlist"
+    model: Any  # packwarden.model.DesignModel
+    rule_id: str = ""
+    severity: Severity = Severity.error
+    _where: Callable[[tuple], tuple[int, int]] = field(default=lambda path: (1, 1), repr=False)
+
+    def finding(self, message: str, *, path: Iterable = (), hint: str | None = None,
+                element: str | None = None, figures: Iterable[Figure] = (), key: str = "",
+                severity: Severity | str | None = None) -> Finding:
+        """Make a finding of the running rule, located at ``path`` in the design file."""
+        path = tuple(path)
+        line, col = self._where(path)
+        return Finding(rule=self.rule_id, severity=Severity(severity) if severity else self.severity,
+                       message=message, location=Location(self.file, path, line, col), hint=hint,
+                       element=element, figures=tuple(figures), key=key)
+
+    def component_path(self, refdes: str, *rest: str) -> tuple:
+        return ("components", refdes, *rest)
+
+

@@ -1,0 +1,186 @@
+"""Project configuration: ``[tool.packwarden]`` in pyproject.toml, or packwarden.toml, found upward.
+
+Example::
+
+    [tool.packwarden]
+    fail_on = "warning"
+    ignore = ["storage-drain"]
+    rule_paths = ["team_rules"]          # folders of team rule modules, relative to this file
+
+    [tool.packwarden.severity]
+    switch-temperature = "error"
+
+    [tool.packwarden.rules.threshold-ladder]
+    charge_margin = "30 mV"
+"""
+
+from __future__ import annotations
+
+import difflib
+import re
+import sys
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+from pydantic import ValidationError
+
+from .api import Rule, RuleOptions, Severity
+from .loader import InputError
+
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover
+    import tomli as tomllib
+
+KNOWN_KEYS = ("select", "ignore", "fail_on", "severity", "rules", "rule_paths", "policy",
+              "require_plugins")
+
+
+@dataclass
+class Config:
+    file: str | None = None
+    folder: Path | None = None
+    select: list[str] | None = None  # None: every rule
+    ignore: list[str] = field(default_factory=list)
+    fail_on: Severity = Severity.error
+    severity: dict[str, Severity] = field(default_factory=dict)
+    rule_options: dict[str, dict[str, Any]] = field(default_factory=dict)
+    rule_paths: list[Path] = field(default_factory=list)
+    policy: Path | None = None
+    text: str = ""
+
+    def enabled(self, rule_id: str) -> bool:
+        if rule_id in self.ignore:
+            return False
+        return self.select is None or rule_id in self.select or "all" in self.select
+
+
+def find_config(start: Path) -> Path | None:
+    """The nearest packwarden.toml, or pyproject.toml with a [tool.packwarden] table, upward."""
+    folder = start.resolve()
+    if folder.is_file():
+        folder = folder.parent
+    for d in (folder, *folder.parents):
+        own = d / "packwarden.toml"
+        if own.is_file():
+            return own
+        py = d / "pyproject.toml"
+        if py.is_file():
+            try:
+                if re.search(r"^\[tool\.packwarden(\]|\.)", py.read_text(encoding="utf-8"), re.M):
+                    return py
+            except (OSError, UnicodeDecodeError):
+                continue
+    return None
+
+
+def _line_of(text: str, key: str) -> tuple[int, int]:
+    # tomllib keeps no positions; the first line naming the key is where a person would look.
+    for i, line in enumerate(text.splitlines(), 1):
+        col = line.find(key)
+        if col >= 0:
+            return i, col + 1
+    return 1, 1
+
+
+def load_config(path: Path | None, shown: str | None = None) -> Config:
+    """Read and check a config file; raise :class:`InputError` with file and line on any mistake."""
+    if path is None:
+        return Config()
+    shown = shown or str(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        line = getattr(exc, "lineno", None) or 1
+        col = getattr(exc, "colno", None) or 1
+        raise InputError(shown, line, col, f"TOML syntax error: {exc.args[0].split(' (at')[0]}") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise InputError(shown, 1, 1, f"cannot read config: {exc}") from None
+    table = data.get("tool", {}).get("packwarden", {}) if path.name == "pyproject.toml" else data
+
+    def fail(key: str, message: str) -> InputError:
+        line, col = _line_of(text, key)
+        return InputError(shown, line, col, message)
+
+    if not isinstance(table, dict):
+        raise fail("packwarden", "[tool.packwarden] must be a table")
+    for key in table:
+        if key not in KNOWN_KEYS:
+            close = difflib.get_close_matches(key, KNOWN_KEYS, n=1)
+            raise fail(key, f"unknown config key '{key}'" +
+                       (f" (did you mean '{close[0]}'?)" if close else ""))
+    cfg = Config(file=shown, folder=path.parent, text=text)
+    for key in ("select", "ignore", "rule_paths", "require_plugins"):
+        if key in table and not (isinstance(table[key], list) and
+                                 all(isinstance(v, str) for v in table[key])):
+            raise fail(key, f"'{key}' must be a list of strings")
+    cfg.select = table.get("select")
+    cfg.ignore = table.get("ignore", [])
+    cfg.rule_paths = [path.parent / p for p in table.get("rule_paths", [])]
+    if "policy" in table:
+        if not isinstance(table["policy"], str):
+            raise fail("policy", "'policy' must be a path (string)")
+        cfg.policy = path.parent / table["policy"]
+    if "fail_on" in table:
+        cfg.fail_on = _severity(table["fail_on"], lambda m: fail("fail_on", m))
+    sev = table.get("severity", {})
+    if not isinstance(sev, dict):
+        raise fail("severity", "'severity' must be a table of rule-id = level")
+    cfg.severity = {k: _severity(v, lambda m, k=k: fail(k, f"severity of '{k}': {m}"))
+                    for k, v in sev.items()}
+    rules = table.get("rules", {})
+    if not isinstance(rules, dict) or not all(isinstance(v, dict) for v in rules.values()):
+        raise fail("rules", "'rules' must hold one table per rule: [tool.packwarden.rules.<id>]")
+    cfg.rule_options = rules
+    return cfg
+
+
+def _severity(value: Any, fail) -> Severity:
+    try:
+        return Severity(value)
+    except ValueError:
+        raise fail(f"unknown severity {value!r}; use error, warning or info") from None
+
+
+def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOptions]:
+    """Check rule ids and options named in ``cfg``; return each rule's validated options."""
+    if cfg.file is None:
+        return {rid: r.options() for rid, r in rules.items()}
+
+    def fail(key: str, message: str) -> InputError:
+        line, col = _line_of(cfg.text, key)
+        return InputError(cfg.file or "", line, col, message)
+
+    def known(rid: str, where: str) -> None:
+        if rid != "all" and rid not in rules:
+            close = difflib.get_close_matches(rid, list(rules), n=1)
+            raise fail(rid, f"unknown rule '{rid}' in {where}" +
+                       (f" (did you mean '{close[0]}'?)" if close else ""))
+
+    for rid in cfg.select or []:
+        known(rid, "select")
+    for rid in cfg.ignore:
+        known(rid, "ignore")
+    for rid in cfg.severity:
+        known(rid, "severity")
+    out: dict[str, RuleOptions] = {}
+    for rid, r in rules.items():
+        given = cfg.rule_options.get(rid, {})
+        try:
+            out[rid] = r.options.model_validate(given)
+        except ValidationError as exc:
+            err = exc.errors(include_url=False)[0]
+            name = ".".join(str(p) for p in err["loc"])
+            if err["type"] == "extra_forbidden":
+                fields = list(r.options.model_fields)
+                close = difflib.get_close_matches(name, fields, n=1)
+                raise fail(name, f"unknown option '{name}' for rule '{rid}'" +
+                           (f" (did you mean '{close[0]}'?)" if close else
+                            f"; its options are: {', '.join(fields) or 'none'}")) from None
+            msg = err["msg"].removeprefix("Value error, ")
+            raise fail(name, f"option '{name}' of rule '{rid}': {msg}") from None
+    for rid in cfg.rule_options:
+        known(rid, "[tool.packwarden.rules]")
+    return out

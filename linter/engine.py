@@ -1,0 +1,322 @@
+"""The engine: rule registry, and the path of one design from file to findings.
+
+load -> validate -> resolve libraries -> netlist -> model -> rules (each isolated) -> waivers.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import importlib.util
+import os
+import sys
+import traceback
+from dataclasses import dataclass, field, replace
+from pathlib import Path
+from typing import Any, Iterable
+
+from .api import Finding, Location, Rule, RuleContext, Severity
+from .config import Config, check_against_rules, find_config, load_config
+from .library import LibraryCache, repository_root, resolve_libraries, shown_path
+from .loader import Document, InputError, load_file
+from .netlist import Netlist, build_netlist
+from .schema import Design
+from .validate import validate
+
+ENTRY_POINT_GROUP = "packwarden.rules"
+
+
+# --- registry -----------------------------------------------------------------------------------
+
+@dataclass
+class Registry:
+    rules: dict[str, Rule] = field(default_factory=dict)
+    #: Plugins that failed to load: (name, message). Reported; the rest still run.
+    broken: list[tuple[str, str]] = field(default_factory=list)
+    plugins: set[str] = field(default_factory=set)
+
+    def add(self, obj: Any, origin: str, plugin: str) -> None:
+        items = obj if isinstance(obj, (list, tuple)) else [obj]
+        for item in items:
+            if not isinstance(item, Rule):
+                self.broken.append((origin, f"{origin} is not a packwarden Rule "
+                                            f"(got {type(item).__name__})"))
+                continue
+            if item.id in self.rules:
+                other = self.rules[item.id].origin
+                self.broken.append((origin, f"duplicate rule id '{item.id}': defined by {other} "
+                                            f"and by {origin}"))
+                continue
+            self.rules[item.id] = replace(item, origin=origin)
+        self.plugins.add(plugin)
+
+
+def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
+    """Every rule from installed entry points, then from the config's rule folders."""
+    from importlib.metadata import entry_points
+
+    reg = Registry()
+    eps = sorted(entry_points(group=ENTRY_POINT_GROUP), key=lambda e: (e.dist.name if e.dist else "", e.name))
+    for ep in eps:
+        plugin = ep.dist.name if ep.dist else ep.module
+        origin = f"{plugin}:{ep.name}"
+        try:
+            obj = ep.load()
+        except Exception as exc:  # a broken plugin must not stop the others
+            reg.broken.append((origin, f"plugin {origin} failed to load: "
+                                       f"{type(exc).__name__}: {exc}"))
+            reg.plugins.add(plugin)
+            continue
+        reg.add(obj, origin, plugin)
+    for folder in rule_paths:
+        load_folder(reg, folder)
+    return reg
+
+
+def load_folder(reg: Registry, folder: Path) -> None:
+    """Load every ``*.py`` module in a folder the project's config names; take its ``RULES``."""
+    if not folder.is_dir():
+        reg.broken.append((str(folder), f"rule folder {shown_path(folder)} does not exist"))
+        return
+    for path in sorted(folder.glob("*.py")):
+        if path.name.startswith("_"):
+            continue
+        name = f"packwarden_team_rules.{folder.name}.{path.stem}"
+        origin = shown_path(path)
+        try:
+            spec = importlib.util.spec_from_file_location(name, path)
+            assert spec and spec.loader
+            module = importlib.util.module_from_spec(spec)
+            sys.modules[name] = module
+            spec.loader.exec_module(module)
+            rules = getattr(module, "RULES", None)
+            if rules is None:
+                rules = [v for v in vars(module).values() if isinstance(v, Rule)]
+        except Exception as exc:
+            reg.broken.append((origin, f"rule module {origin} failed to load: "
+                                       f"{type(exc).__name__}: {exc}"))
+            continue
+        reg.add(list(rules), origin, origin)
+
+
+# --- results ------------------------------------------------------------------------------------
+
+@dataclass
+class InternalError:
+    rule: str
+    file: str
+    message: str
+
+
+@dataclass
+class DesignResult:
+    file: str
+    name: str | None = None
+    findings: list[Finding] = field(default_factory=list)
+    figures: dict[str, Any] = field(default_factory=dict)
+    errors: list[InputError] = field(default_factory=list)
+    internal: list[InternalError] = field(default_factory=list)
+    model: Any = None
+
+
+@dataclass
+class RunResult:
+    designs: list[DesignResult] = field(default_factory=list)
+    errors: list[InputError] = field(default_factory=list)  # errors outside any design (config)
+    broken_plugins: list[tuple[str, str]] = field(default_factory=list)
+    rules: dict[str, Rule] = field(default_factory=dict)
+    fail_on: Severity = Severity.error
+
+    def all_findings(self) -> list[Finding]:
+        return [f for d in self.designs for f in d.findings]
+
+    def input_errors(self) -> list[InputError]:
+        return self.errors + [e for d in self.designs for e in d.errors]
+
+    def exit_code(self) -> int:
+        if self.input_errors() or self.broken_plugins or any(d.internal for d in self.designs):
+            return 2
+        level = self.fail_on.rank
+        if any(f.severity.rank >= level and not f.waived for f in self.all_findings()):
+            return 1
+        return 0
+
+
+# --- discovery ----------------------------------------------------------------------------------
+
+def is_design_text(head: str) -> bool:
+    for line in head.splitlines():
+        stripped = line.strip()
+        if stripped.startswith("format:"):
+            return stripped.split(":", 1)[1].strip().strip("'\"") == "packwarden/1"
+    return False
+
+
+def discover(paths: Iterable[str]) -> list[tuple[Path, str]]:
+    """Files named directly, and design files (``format: packwarden/1``) inside named folders."""
+    out: list[tuple[Path, str]] = []
+    for raw in paths:
+        p = Path(raw)
+        if p.is_dir():
+            for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
+                try:
+                    with open(f, encoding="utf-8", errors="replace") as fh:
+                        head = fh.read(4096)
+                except OSError:
+                    continue
+                if is_design_text(head):
+                    out.append((f, shown_path(f)))
+        else:
+            out.append((p, raw))
+    return out
+
+
+# --- running ------------------------------------------------------------------------------------
+
+@dataclass
+class Session:
+    """State shared across the designs of one run: libraries, configs and the registry."""
+
+    registry: Registry
+    libraries: LibraryCache = field(default_factory=LibraryCache)
+    configs: dict[Path | None, tuple[Config | None, dict, InputError | None]] = field(default_factory=dict)
+    config_override: Path | None = None
+    today: _dt.date = field(default_factory=_dt.date.today)
+
+    def config_for(self, design: Path) -> tuple[Config | None, dict, InputError | None]:
+        path = self.config_override or find_config(design.parent)
+        if path not in self.configs:
+            try:
+                cfg = load_config(path, shown_path(path) if path else None)
+                options = check_against_rules(cfg, self.registry.rules)
+                self.configs[path] = (cfg, options, None)
+            except InputError as exc:
+                self.configs[path] = (None, {}, exc)
+        return self.configs[path]
+
+
+def lint_file(session: Session, path: Path, shown: str) -> DesignResult:
+    result = DesignResult(file=shown)
+    cfg, options, cfg_error = session.config_for(path)
+    if cfg_error is not None:
+        result.errors.append(cfg_error)
+        return result
+    assert cfg is not None
+    try:
+        doc = load_file(path, shown)
+    except InputError as exc:
+        result.errors.append(exc)
+        return result
+    design, errors = validate(doc, Design)
+    if errors:
+        result.errors.extend(errors)
+        return result
+    result.name = design.design.name
+    root = repository_root(path.parent)
+    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root)
+    if resolved.errors:
+        result.errors.extend(resolved.errors)
+        return result
+    netlist = build_netlist(design, resolved.parts)
+    model = make_model(design, netlist)
+    result.model = model
+    result.figures = model_figures(model, result)
+    run_rules(session, cfg, options, doc, design, netlist, model, result)
+    return result
+
+
+def make_model(design: Design, netlist: Netlist) -> Any:
+    from .model.design import DesignModel
+    return DesignModel(design, netlist)
+
+
+def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
+    try:
+        return model.figures()
+    except Exception as exc:  # the model must not take the run down; say where it broke
+        result.internal.append(InternalError("model", result.file, _describe(exc)))
+        return {}
+
+
+def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
+              netlist: Netlist, model: Any, result: DesignResult) -> None:
+    def where(p: tuple) -> tuple[int, int]:
+        pos = doc.where(p)
+        return pos.line, pos.column
+
+    design_id = Path(result.file).as_posix()
+    findings: list[Finding] = []
+    for rid in sorted(session.registry.rules):
+        rule = session.registry.rules[rid]
+        if not cfg.enabled(rid):
+            continue
+        ctx = RuleContext(file=result.file, design=design, netlist=netlist, model=model,
+                          rule_id=rid, severity=cfg.severity.get(rid, rule.severity), _where=where)
+        try:
+            for f in rule.check(ctx, options[rid]) or ():
+                findings.append(f)
+        except Exception as exc:  # isolate: one broken rule must not hide the others' findings
+            result.internal.append(InternalError(rid, result.file, _describe(exc)))
+    findings = [f.with_fingerprint(design_id) for f in findings]
+    from .waivers import apply_waivers
+    findings = apply_waivers(findings, design, doc, session.today)
+    findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
+    result.findings = findings
+
+
+def _describe(exc: BaseException) -> str:
+    tb = traceback.extract_tb(exc.__traceback__)
+    last = tb[-1] if tb else None
+    where = f" (at {os.path.basename(last.filename)}:{last.lineno})" if last else ""
+    return f"{type(exc).__name__}: {exc}{where}"
+
+
+def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | None = None,
+         fail_on: Severity | None = None) -> RunResult:
+    found = discover(paths)
+    reg = registry
+    cfg_error: InputError | None = None
+    if reg is None:
+        # Team rule folders come from the config of the first design's project (or --config).
+        first_cfg_path = config or (find_config(found[0][0].parent) if found else None)
+        rule_paths: list[Path] = []
+        try:
+            rule_paths = load_config(first_cfg_path, shown_path(first_cfg_path) if first_cfg_path else None).rule_paths
+        except InputError as exc:
+            cfg_error = exc
+        reg = load_registry(rule_paths)
+    session = Session(registry=reg, config_override=config)
+    run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken))
+    for path, shown in found:
+        try:
+            run.designs.append(lint_file(session, path, shown))
+        except Exception as exc:  # last resort: no input may end the run with a traceback
+            run.designs.append(DesignResult(file=shown, internal=[
+                InternalError("engine", shown, _describe(exc))]))
+    # a bad config is reported once, not once per design
+    seen: set[str] = set()
+    for d in run.designs:
+        kept = []
+        for e in d.errors:
+            if _is_config(e, session):
+                if str(e) in seen:
+                    continue
+                seen.add(str(e))
+            kept.append(e)
+        d.errors = kept
+    if cfg_error is not None and str(cfg_error) not in seen:
+        run.errors.append(cfg_error)
+    if fail_on is not None:
+        run.fail_on = fail_on
+    else:
+        cfgs = [c for c, _, _ in session.configs.values() if c is not None]
+        run.fail_on = cfgs[0].fail_on if cfgs else Severity.error
+    return run
+
+
+def _is_config(err: InputError, session: Session) -> bool:
+    return any(e is err for _, _, e in session.configs.values())
+
+
+def location_of(doc: Document, path: tuple) -> Location:
+    pos = doc.where(path)
+    return Location(doc.file, path, pos.line, pos.column)

@@ -1,0 +1,124 @@
+"""Part libraries: found relative to the design, confined to the repository, parsed once per run."""
+
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+from .loader import Document, InputError, load_file
+from .schema import PartLibrary
+from .validate import validate
+
+ROOT_MARKERS = (".git", "pyproject.toml", "packwarden.toml")
+
+
+def repository_root(start: Path) -> Path:
+    """The nearest folder at or above ``start`` that holds a repository or project marker."""
+    start = start.resolve()
+    for folder in (start, *start.parents):
+        if any((folder / m).exists() for m in ROOT_MARKERS):
+            return folder
+    return start
+
+
+def shown_path(path: Path) -> str:
+    """A path as the user should see it: relative to the working folder when inside it."""
+    try:
+        return os.path.relpath(path) if not os.path.relpath(path).startswith("..") else str(path)
+    except ValueError:  # pragma: no cover - other drive on Windows
+        return str(path)
+
+
+@dataclass(frozen=True)
+class PartSource:
+    """Where a part was defined, for messages."""
+
+    library: str
+    line: int
+    column: int
+
+
+@dataclass
+class LibraryCache:
+    """Parsed libraries of a run, keyed by resolved path: each file is read and validated once."""
+
+    loaded: dict[Path, tuple[PartLibrary | None, Document | None, list[InputError]]] = field(
+        default_factory=dict)
+
+    def load(self, path: Path) -> tuple[PartLibrary | None, Document | None, list[InputError]]:
+        key = path.resolve()
+        if key not in self.loaded:
+            shown = shown_path(path)
+            try:
+                doc = load_file(path, shown)
+            except InputError as exc:
+                self.loaded[key] = (None, None, [exc])
+            else:
+                lib, errors = validate(doc, PartLibrary)
+                self.loaded[key] = (lib, doc, errors)
+        return self.loaded[key]
+
+
+@dataclass
+class ResolvedParts:
+    parts: dict[str, Any]
+    sources: dict[str, PartSource]
+    errors: list[InputError]
+
+
+def resolve_libraries(design_doc: Document, libraries: list[str], design_path: Path,
+                      cache: LibraryCache, root: Path) -> ResolvedParts:
+    """Load the design's libraries and their includes; refuse paths outside ``root``."""
+    parts: dict[str, Any] = {}
+    sources: dict[str, PartSource] = {}
+    errors: list[InputError] = []
+    root = root.resolve()
+
+    def visit(entry: str, base: Path, owner: Document, where: tuple, stack: tuple[Path, ...]):
+        candidate = (base / entry)
+        try:
+            real = candidate.resolve()
+        except (OSError, RuntimeError):
+            errors.append(owner.error(where, f"library '{entry}' cannot be resolved"))
+            return
+        if Path(entry).is_absolute() or not _inside(real, root):
+            what = "links outside" if candidate.is_symlink() or _inside(candidate.absolute(), root) \
+                else "escapes"
+            errors.append(owner.error(where, f"library path '{entry}' {what} the repository "
+                                             f"({shown_path(root) or '.'}); libraries must live "
+                                             f"inside it"))
+            return
+        if real in stack:
+            chain = " -> ".join(shown_path(p) for p in (*stack, real))
+            errors.append(owner.error(where, f"libraries include each other in a cycle: {chain}"))
+            return
+        lib, doc, lib_errors = cache.load(candidate)
+        errors.extend(lib_errors)
+        if lib is None or doc is None:
+            return
+        for i, inc in enumerate(lib.include):
+            visit(inc, real.parent, doc, ("include", i), (*stack, real))
+        for name, part in lib.parts.items():
+            pos = doc.where(("parts", name), key=True)
+            if name in parts and sources[name].library != doc.file:
+                first = sources[name]
+                errors.append(InputError(doc.file, pos.line, pos.column,
+                                         f"part '{name}' is also defined in {first.library}:"
+                                         f"{first.line}; part names must be unique"))
+                continue
+            parts[name] = part
+            sources[name] = PartSource(doc.file, pos.line, pos.column)
+
+    for i, entry in enumerate(libraries):
+        visit(entry, design_path.parent, design_doc, ("libraries", i), ())
+    return ResolvedParts(parts, sources, errors)
+
+
+def _inside(path: Path, root: Path) -> bool:
+    try:
+        path.relative_to(root)
+        return True
+    except ValueError:
+        return False

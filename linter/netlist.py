@@ -1,0 +1,158 @@
+"""The resolved design: components with their part data, pins and nets.
+
+Resolution never fails on a netlist mistake: an unknown part or a stray pin is recorded as a
+:class:`Problem` for the integrity rules to report, and the rest of the design still resolves, so one
+typo does not hide every other finding.
+"""
+
+from __future__ import annotations
+
+import difflib
+from dataclasses import dataclass, field
+from typing import Any
+
+from .schema import INLINE_KINDS, PART_KINDS, Design, PartRef
+
+TWO_TERMINAL = ("1", "2")
+
+#: Pins every part kind has: (required, optional). Lists of nets fill these in order.
+PIN_NAMES: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
+    "cell": (("pos", "neg"), ()),
+    "protector": (("supply", "ground", "sense", "discharge_gate", "charge_gate"), ("temperature",)),
+    "fet": (("d", "g", "s"), ()),
+    # The common drain of a pair is internal to the package; bringing it out is optional.
+    "fet_pair_common_drain": (("s1", "g1", "s2", "g2"), ("d",)),
+    "fuse": (TWO_TERMINAL, ()),
+    "ptc": (TWO_TERMINAL, ()),
+    "resistor": (TWO_TERMINAL, ()),
+    "capacitor": (TWO_TERMINAL, ()),
+    "trace": (TWO_TERMINAL, ()),
+    "wire": (TWO_TERMINAL, ()),
+    "diode": (("anode", "cathode"), ()),
+}
+
+#: Kinds whose pins may be written as a list, in this order.
+LIST_PINS = {k: req for k, (req, opt) in PIN_NAMES.items() if len(req) == 2 and not opt}
+
+
+def pin_names(kind: str, part: Any) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    required, optional = PIN_NAMES[kind]
+    if kind == "protector" and getattr(part, "cells", 1) > 1:
+        # A multi-cell protector senses each cell's top: cell1 (bottom cell) ... cellN.
+        required = required + tuple(f"cell{i}" for i in range(1, part.cells + 1))
+        optional = optional + tuple(f"balance{i}" for i in range(1, part.cells + 1))
+    return required, optional
+
+
+@dataclass(frozen=True)
+class PinRef:
+    component: str
+    pin: str
+
+
+@dataclass(frozen=True)
+class Problem:
+    """A netlist mistake found while resolving; the integrity rules turn these into findings."""
+
+    kind: str  # unknown-part | unknown-pin | unconnected-pin | pin-form
+    component: str
+    path: tuple
+    message: str
+    hint: str | None = None
+
+
+@dataclass(frozen=True)
+class Component:
+    refdes: str
+    kind: str | None  # None when the part could not be found
+    part_name: str | None  # library part name, None for inline parts
+    part: Any  # the validated part model (schema.Cell, schema.Fet, ...), None if unknown
+    pins: dict  # pin name -> net name, only pins the part has
+    path: tuple  # YAML path of the component in the design
+
+    def net(self, pin: str) -> str | None:
+        return self.pins.get(pin)
+
+
+@dataclass
+class Netlist:
+    components: dict[str, Component]
+    nets: dict[str, list[PinRef]]
+    problems: list[Problem] = field(default_factory=list)
+    terminals: tuple[str, str] = ("P+", "P-")
+
+    def of_kind(self, *kinds: str) -> list[Component]:
+        return [c for c in self.components.values() if c.kind in kinds]
+
+
+def build_netlist(design: Design, parts: dict[str, Any]) -> Netlist:
+    """Resolve components against ``parts`` (name -> validated part) into a netlist."""
+    components: dict[str, Component] = {}
+    nets: dict[str, list[PinRef]] = {}
+    problems: list[Problem] = []
+    for refdes, comp in design.components.items():
+        path = ("components", refdes)
+        if isinstance(comp, PartRef):
+            part = parts.get(comp.part)
+            if part is None:
+                close = difflib.get_close_matches(comp.part, list(parts), n=1, cutoff=0.6)
+                problems.append(Problem(
+                    "unknown-part", refdes, path + ("part",),
+                    f"{refdes}: part '{comp.part}' is not in any library of this design",
+                    f"did you mean '{close[0]}'?" if close else
+                    "add the part to a library listed under 'libraries', or give it inline with 'kind'"))
+                components[refdes] = Component(refdes, None, comp.part, None, {}, path)
+                continue
+            kind, part_name, given = part.kind, comp.part, comp.pins
+        else:
+            kind, part_name, given, part = comp.kind, None, comp.pins, comp
+        required, optional = pin_names(kind, part)
+        pins = _map_pins(refdes, kind, given, required, optional, path, problems)
+        for name in required:
+            if name not in pins:
+                problems.append(Problem(
+                    "unconnected-pin", refdes, path + ("pins",),
+                    f"{refdes}: required pin '{name}' of {kind} is not connected",
+                    f"connect '{name}' to a net under {refdes}.pins"))
+        for pin, net in pins.items():
+            nets.setdefault(net, []).append(PinRef(refdes, pin))
+        components[refdes] = Component(refdes, kind, part_name, part, pins, path)
+    terminals = (design.pack.terminals.pos, design.pack.terminals.neg)
+    return Netlist(components, nets, problems, terminals)
+
+
+def _map_pins(refdes: str, kind: str, given: Any, required: tuple, optional: tuple, path: tuple,
+              problems: list[Problem]) -> dict:
+    ppath = path + ("pins",)
+    if isinstance(given, list):
+        order = LIST_PINS.get(kind)
+        if order is None:
+            problems.append(Problem(
+                "pin-form", refdes, ppath,
+                f"{refdes}: a {kind} has named pins ({', '.join(required + optional)}); "
+                f"a list of nets fits only two-terminal parts",
+                f"write pins as a mapping, e.g. {{{required[0]}: NET, ...}}"))
+            return {}
+        if len(given) != len(order):
+            problems.append(Problem(
+                "pin-form", refdes, ppath,
+                f"{refdes}: a {kind} has {len(order)} pins, {len(given)} nets are given",
+                f"list exactly {len(order)} nets: [{', '.join(order)}]"))
+            return dict(zip(order, given))
+        return dict(zip(order, given))
+    pins = {}
+    known = required + optional
+    for pin, net in given.items():
+        if pin in known:
+            pins[pin] = net
+            continue
+        close = difflib.get_close_matches(pin, known, n=1, cutoff=0.5)
+        problems.append(Problem(
+            "unknown-pin", refdes, ppath + (pin,),
+            f"{refdes}: a {kind} has no pin '{pin}' (pins: {', '.join(known)})",
+            f"did you mean '{close[0]}'?" if close else None))
+    return pins
+
+
+__all__ = ["Netlist", "Component", "PinRef", "Problem", "build_netlist", "pin_names",
+           "PIN_NAMES", "PART_KINDS", "INLINE_KINDS"]

@@ -1,0 +1,193 @@
+"""Strict engineering-value parsing, per field and unit.
+
+Data sheets write values as ``22 mΩ`` or ``3 µA``; design files copy them. The number and its SI
+prefix are read by quantiphy; this wrapper decides what is acceptable. Anything a reviewer could read
+two ways is refused with a message that names the expected unit, never guessed:
+
+* RKM codes (``4k7``, ``5V5``) - a schematic habit, but ``5V5`` in a threshold field is a typo magnet;
+* decimal commas (``1,5 V``) - 1.5 or 15 depending on the author's locale;
+* ``meg`` - SPICE's mega, but milli to everyone else;
+* NaN and infinity - no physical part has them.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+import unicodedata
+from dataclasses import dataclass
+
+from quantiphy import Quantity, QuantiPhyError
+
+
+class QuantityError(ValueError):
+    """A value that is not an acceptable engineering quantity for its field."""
+
+
+@dataclass(frozen=True)
+class Unit:
+    """A unit a field accepts: its canonical symbol, accepted spellings and a human name."""
+
+    symbol: str
+    name: str
+    spellings: tuple[str, ...] = ()
+    #: SI prefixes make no sense on some units (percent, degrees Celsius, K/W).
+    prefixes: bool = True
+    #: Lower physical bound, inclusive; None where negative values are meaningful.
+    minimum: float | None = None
+    #: Whether the value must be strictly above ``minimum``.
+    exclusive: bool = False
+
+
+# Spellings map to canonical symbols after NFKC normalisation, which already folds the Ohm sign
+# U+2126 into Greek capital omega U+03A9 and the micro sign U+00B5 into Greek mu U+03BC: both pairs
+# look the same on screen and data sheets use either, so both are accepted as the same thing.
+UNITS: dict[str, Unit] = {
+    "V": Unit("V", "volts"),
+    "A": Unit("A", "amperes"),
+    "Ω": Unit("Ω", "ohms", ("ohm", "ohms", "Ohm"), minimum=0.0),
+    "F": Unit("F", "farads", minimum=0.0),
+    "H": Unit("H", "henries", minimum=0.0),
+    "W": Unit("W", "watts", minimum=0.0),
+    "s": Unit("s", "seconds", ("sec",), minimum=0.0),
+    "Ah": Unit("Ah", "ampere-hours", minimum=0.0, exclusive=True),
+    "%": Unit("%", "percent", prefixes=False),
+    "°C": Unit("°C", "degrees Celsius", ("degC", "℃"), prefixes=False, minimum=-273.15),
+    "K": Unit("K", "kelvin (temperature difference)", prefixes=False),
+    "K/W": Unit("K/W", "kelvin per watt", ("°C/W", "degC/W"), prefixes=False, minimum=0.0,
+                exclusive=True),
+    "A²s": Unit("A²s", "ampere-squared seconds", ("A2s", "A^2s", "A^2 s", "A²·s", "A^2·s"),
+                minimum=0.0),
+    "m": Unit("m", "metres", minimum=0.0),
+    "oz": Unit("oz", "ounces of copper per square foot", ("oz/ft2", "oz/ft²"), prefixes=False,
+               minimum=0.0, exclusive=True),
+    "months": Unit("months", "months", ("month",), prefixes=False, minimum=0.0),
+    "%/month": Unit("%/month", "percent per month", prefixes=False, minimum=0.0),
+}
+
+_SPELLING: dict[str, str] = {}
+for _unit in UNITS.values():
+    _SPELLING[unicodedata.normalize("NFKC", _unit.symbol)] = _unit.symbol
+    for _alias in _unit.spellings:
+        _SPELLING[unicodedata.normalize("NFKC", _alias)] = _unit.symbol
+
+_PREFIX = {"Y": 1e24, "Z": 1e21, "E": 1e18, "P": 1e15, "T": 1e12, "G": 1e9, "M": 1e6, "k": 1e3,
+           "m": 1e-3, "u": 1e-6, "μ": 1e-6, "n": 1e-9, "p": 1e-12, "f": 1e-15, "a": 1e-18}
+
+# A plain decimal number, optional exponent, optional space, then the rest (prefix + unit).
+_SHAPE = re.compile(r"^(?P<num>[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)(?P<sp>\s?)(?P<rest>\S.*)?$")
+_RKM = re.compile(r"^\d+[RKMGkmunpVAFΩ]\d+\s*\S*$")
+_DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d")
+_NONFINITE = re.compile(r"(?i)^[+-]?(nan|inf|infinity|\.inf|\.nan)\b")
+
+
+def _expected(unit: Unit) -> str:
+    return f"{unit.name} ({unit.symbol})"
+
+
+def parse_quantity(text: object, unit: str) -> float:
+    """Parse ``text`` as a value in ``unit`` (a key of :data:`UNITS`) and return it in SI units.
+
+    Raises :class:`QuantityError` with a message fit to show the user.
+    """
+    spec = UNITS[unit]
+    if isinstance(text, bool) or text is None:
+        raise QuantityError(f"expected {_expected(spec)}, e.g. '{_example(spec)}'; got {text!r}")
+    if isinstance(text, (int, float)):
+        if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month") or unit == "oz":
+            value = float(text)
+        else:
+            raise QuantityError(
+                f"missing unit: write '{_fmt_number(text)} {spec.symbol}' ({spec.name})")
+    elif isinstance(text, str):
+        value = _parse_text(text, spec)
+    else:
+        raise QuantityError(f"expected {_expected(spec)} as text like '{_example(spec)}', "
+                            f"got a {type(text).__name__}")
+    return _check_bounds(value, spec)
+
+
+def _parse_text(text: str, spec: Unit) -> float:
+    raw = unicodedata.normalize("NFKC", text.strip())
+    if not raw:
+        raise QuantityError(f"empty value; expected {_expected(spec)}")
+    if _NONFINITE.match(raw):
+        raise QuantityError(f"'{text}' is not a finite number; expected {_expected(spec)}")
+    if _DECIMAL_COMMA.match(raw):
+        raise QuantityError(f"'{text}' uses a decimal comma; write a decimal point "
+                            f"(e.g. '{raw.replace(',', '.', 1)}')")
+    if _RKM.match(raw):
+        raise QuantityError(f"'{text}' looks like an RKM code; write the value with a decimal "
+                            f"point and unit, e.g. '{_example(spec)}'")
+    m = _SHAPE.match(raw)
+    if not m:
+        raise QuantityError(f"'{text}' is not a number with a unit; expected {_expected(spec)}, "
+                            f"e.g. '{_example(spec)}'")
+    rest = (m.group("rest") or "").strip()
+    if not rest:
+        if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month", "oz"):
+            return float(m.group("num"))
+        raise QuantityError(f"missing unit: write '{m.group('num')} {spec.symbol}' ({spec.name})")
+    if rest.lower().startswith("meg"):
+        raise QuantityError(f"'{text}': 'meg' is ambiguous; write 'M' for mega")
+    canonical = _SPELLING.get(rest)
+    if canonical is not None:
+        prefix = ""
+    else:
+        prefix, canonical = rest[:1], _SPELLING.get(rest[1:])
+        if prefix not in _PREFIX or canonical is None:
+            raise QuantityError(f"'{text}': unknown unit '{rest}'; expected {_expected(spec)}")
+    if canonical != spec.symbol:
+        raise QuantityError(f"'{text}' is in {UNITS[canonical].name}; expected {_expected(spec)}")
+    if prefix and not spec.prefixes:
+        raise QuantityError(f"'{text}': {spec.name} take no SI prefix")
+    try:
+        # quantiphy reads the number and prefix; the unit has been checked above.
+        q = Quantity(f"{m.group('num')}{prefix}" if prefix else m.group("num"))
+    except QuantiPhyError as exc:  # pragma: no cover - the shape regex admits only numbers
+        raise QuantityError(f"'{text}': {exc}") from None
+    value = float(q)
+    if not math.isfinite(value):
+        raise QuantityError(f"'{text}' is not a finite number")
+    return value
+
+
+def _check_bounds(value: float, spec: Unit) -> float:
+    if not math.isfinite(value):
+        raise QuantityError(f"{value} is not a finite number; expected {_expected(spec)}")
+    if spec.minimum is not None:
+        low = spec.minimum
+        if value < low or (spec.exclusive and value == low):
+            word = "above" if spec.exclusive else "at least"
+            raise QuantityError(f"{format_quantity(value, spec.symbol)} is out of physics: "
+                                f"{spec.name} must be {word} {format_quantity(low, spec.symbol)}")
+    return value
+
+
+def _example(spec: Unit) -> str:
+    return {"V": "4.25 V", "A": "1.2 A", "Ω": "22 mΩ", "F": "100 nF", "H": "500 nH",
+            "W": "0.25 W", "s": "40 ms", "Ah": "3.4 Ah", "%": "1 %", "°C": "-20 °C",
+            "K": "10 K", "K/W": "120 K/W", "A²s": "10 A²s", "m": "2 mm", "oz": "1 oz",
+            "months": "12 months", "%/month": "2 %/month"}.get(spec.symbol, f"1 {spec.symbol}")
+
+
+def _fmt_number(value: float) -> str:
+    return f"{value:g}"
+
+
+_ENG = [(1e9, "G"), (1e6, "M"), (1e3, "k"), (1.0, ""), (1e-3, "m"), (1e-6, "µ"), (1e-9, "n"),
+        (1e-12, "p")]
+
+
+def format_quantity(value: float, unit: str, digits: int = 3) -> str:
+    """Format ``value`` (SI) with an engineering prefix and ``digits`` significant figures."""
+    spec = UNITS.get(unit)
+    if not math.isfinite(value):
+        return f"{value} {unit}"
+    if spec is not None and not spec.prefixes or value == 0:
+        return f"{value:.{digits}g} {unit}"
+    mag = abs(value)
+    for scale, prefix in _ENG:
+        if mag >= scale * 0.9995:
+            return f"{value / scale:.{digits}g} {prefix}{unit}"
+    return f"{value:.{digits}g} {unit}"

@@ -1,0 +1,37 @@
+"""JSON for scripts: every design with its figures and findings; stable key order."""
+
+from __future__ import annotations
+
+import json
+from dataclasses import asdict
+
+from .. import __version__
+from ..engine import RunResult
+from . import RenderOptions
+
+
+def finding_dict(f) -> dict:
+    return {
+        "rule": f.rule, "severity": f.severity.value, "message": f.message, "hint": f.hint,
+        "element": f.element, "key": f.key,
+        "location": {"file": f.location.file, "path": ".".join(str(p) for p in f.location.path),
+                     "line": f.location.line, "column": f.location.column},
+        "figures": [asdict(fig) for fig in f.figures],
+        "waived": f.waived, "fingerprint": f.fingerprint,
+    }
+
+
+def render(run: RunResult, opts: RenderOptions) -> str:
+    out = {
+        "tool": {"name": "packwarden", "version": __version__},
+        "exit_code": run.exit_code(),
+        "errors": [{"file": e.file, "line": e.line, "column": e.column, "message": e.message}
+                   for e in run.input_errors()],
+        "broken_plugins": [{"plugin": o, "message": m} for o, m in run.broken_plugins],
+        "designs": [{
+            "file": d.file, "name": d.name, "figures": d.figures,
+            "findings": [finding_dict(f) for f in d.findings],
+            "internal_errors": [asdict(i) for i in d.internal],
+        } for d in run.designs],
+    }
+    return json.dumps(out, indent=2, sort_keys=False, ensure_ascii=False, allow_nan=False) + "\n"

@@ -1,0 +1,60 @@
+"""Plain text for terminals: findings grouped by file, one clickable line each, hint beneath."""
+
+from __future__ import annotations
+
+from ..api import Severity
+from ..engine import RunResult
+from . import RenderOptions
+
+CAUTION = ("Caution: lithium cells can vent, burn or explode. This review is an aid, not a substitute "
+           "for the cell maker's approval, safety testing (e.g. IEC 62133-2, UL 2054, UN 38.3) or "
+           "licensed engineering practice; local codes and regulations prevail.")
+
+_COLOURS = {Severity.error: "\033[31m", Severity.warning: "\033[33m", Severity.info: "\033[36m"}
+
+
+def render(run: RunResult, opts: RenderOptions) -> str:
+    lines: list[str] = []
+    for origin, message in run.broken_plugins:
+        lines.append(f"{origin}:1:1: {message}")
+    for err in run.errors:
+        lines.append(str(err))
+    counts = {s: 0 for s in Severity}
+    waived = 0
+    for d in run.designs:
+        block: list[str] = []
+        for err in d.errors:
+            block.append(str(err))
+        for ie in d.internal:
+            block.append(f"{d.file}:1:1: internal error in rule '{ie.rule}': {ie.message}")
+        for f in d.findings:
+            if f.waived:
+                waived += 1
+                if opts.quiet:
+                    continue
+            else:
+                counts[f.severity] += 1
+            if opts.quiet and f.severity.rank < run.fail_on.rank:
+                continue
+            sev = f.severity.value
+            if opts.color:
+                sev = f"{_COLOURS[f.severity]}{sev}\033[0m"
+            tag = f" [waived: {f.waived}]" if f.waived else ""
+            block.append(f"{f.location.file}:{f.location.line}:{f.location.column}: {sev} "
+                         f"{f.rule}: {f.message}{tag}")
+            if f.hint and not opts.quiet:
+                block.append(f"    hint: {f.hint}")
+        if block:
+            lines.extend(block)
+            lines.append("")
+    if not opts.quiet:
+        n_err = len(run.input_errors()) + sum(len(d.internal) for d in run.designs)
+        linted = sum(1 for d in run.designs if not d.errors)
+        summary = (f"{linted} design(s) linted, {len(run.designs) - linted} could not be read; "
+                   f"{counts[Severity.error]} error(s), {counts[Severity.warning]} warning(s), "
+                   f"{counts[Severity.info]} info, {waived} waived")
+        if n_err:
+            summary += f"; {n_err} input or internal error(s)"
+        lines.append(summary)
+        lines.append(CAUTION)
+    return "\n".join(lines) + "\n"

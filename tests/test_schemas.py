@@ -1,0 +1,47 @@
+"""The shipped JSON Schemas are generated from the pydantic models and must not go stale."""
+
+import json
+from pathlib import Path
+
+import jsonschema
+import pytest
+
+from packwarden.loader import load_file
+from packwarden.schema import json_schema
+
+ROOT = Path(__file__).resolve().parents[1]
+
+
+@pytest.mark.parametrize("which", ["design", "parts"])
+def test_shipped_schema_is_current(which):
+    shipped = json.loads((ROOT / "schemas" / f"{which}.schema.json").read_text(encoding="utf-8"))
+    assert shipped == json_schema(which), (
+        f"schemas/{which}.schema.json is stale: run `packwarden schema {which} > "
+        f"schemas/{which}.schema.json`")
+
+
+@pytest.mark.parametrize("which", ["design", "parts"])
+def test_schema_is_valid_draft07(which):
+    # Draft-07 keywords so YAML language servers can complete and check designs as people type.
+    jsonschema.Draft7Validator.check_schema(json_schema(which))
+
+
+def test_examples_validate_against_shipped_schemas():
+    # The editor-side check (JSON Schema) and the linter's own check (pydantic) agree on examples.
+    design_schema = json.loads((ROOT / "schemas" / "design.schema.json").read_text("utf-8"))
+    parts_schema = json.loads((ROOT / "schemas" / "parts.schema.json").read_text("utf-8"))
+    designs = [p for p in (ROOT / "example_designs").rglob("*.yaml")]
+    assert designs
+    for path in designs:
+        doc = load_file(path)
+        schema = parts_schema if doc.data.get("format") == "packwarden-parts/1" else design_schema
+        jsonschema.Draft7Validator(schema).validate(doc.data)
+
+
+def test_schema_rejects_a_wrong_unit():
+    design_schema = json_schema("design")
+    doc = load_file(ROOT / "example_designs" / "orchard-probe.yaml")
+    data = dict(doc.data)
+    data["load"] = {"continuous": "1.2 V"}
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.Draft7Validator(design_schema).validate(data)
