@@ -1,0 +1,212 @@
+"""MOSFET on-resistance as a function of gate drive, junction temperature and corner.
+
+A data sheet gives R_DS(on) at a few gate voltages at 25 °C, as typical and/or maximum, and a
+normalised curve of R_DS(on) against junction temperature. The rules need one number for a given
+gate drive, temperature and corner, plus the list of assumptions that number rests on, so a finding
+can tell the reviewer what the tool had to guess.
+
+Resistances in ohms, voltages in volts, temperatures in °C.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Iterable, Literal, Optional, Sequence
+
+__all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor"]
+
+Corner = Literal["typ", "max", "min"]
+#: One data sheet row: (V_GS, typ, max), typ or max None where the sheet leaves it blank.
+Point = tuple[float, Optional[float], Optional[float]]
+
+#: Data-sheet R_DS(on) tables are specified at this junction temperature [practice].
+TABLE_TEMP = 25.0
+
+
+@dataclass(frozen=True)
+class RdsOnResult:
+    """On-resistance in ohms, what had to be assumed to get it, and whether data was stretched.
+
+    ``extrapolated`` is true when the gate voltage lies below the lowest tabulated one or the
+    junction temperature lies outside 25 °C..``hot_at``: the number then rests on a straight line
+    beyond the data sheet's own points.
+    """
+
+    value: float
+    assumptions: tuple[str, ...]
+    extrapolated: bool
+
+
+@dataclass(frozen=True)
+class _Filled:
+    vgs: float
+    typ: float
+    max: float
+    min: Optional[float]
+    notes: tuple[str, ...]
+
+    def corner(self, corner: str) -> float:
+        value = {"typ": self.typ, "max": self.max, "min": self.min}[corner]
+        if value is None:
+            raise ValueError(
+                f"no minimum R_DS(on) at V_GS {self.vgs:g} V: max is more than twice typ, so "
+                f"typ - (max - typ) is not positive; give the data sheet minimum")
+        return value
+
+
+def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
+           hot_at: float = 125.0, corner: Corner = "typ") -> RdsOnResult:
+    """R_DS(on) at gate drive ``vgs`` and junction temperature ``tj`` for a corner.
+
+    ``points`` are ``(vgs, typ, max)`` rows at 25 °C with ``typ`` or ``max`` possibly None.
+    ``hot_ratio`` is R_DS(on) at ``hot_at`` °C over R_DS(on) at 25 °C, read off the data sheet's
+    normalised curve (REFERENCES.md gives 1.4-1.6 from 25 to 125 °C for 20 V parts [practice]).
+
+    Gate voltage: linear between rows. Above the highest row the highest row's value is kept: more
+    gate drive never raises R_DS(on) of an enhancement MOSFET [practice], so holding the last value
+    errs high, never low. Below the lowest row the line through the two lowest rows is continued,
+    never clamped, because clamping would understate the resistance; a single row cannot be
+    continued and raises ValueError (an invented slope would be worse than no answer).
+
+    Missing corners: typ and max given -> min = typ - (max - typ), a symmetric spread; only max ->
+    typ = max and min = max; only typ -> max = typ and min = typ. Each substitution used is listed
+    in ``assumptions``.
+    """
+    if corner not in ("typ", "max", "min"):
+        raise ValueError(f"corner must be 'typ', 'max' or 'min', got {corner!r}")
+    _finite(vgs=vgs, tj=tj)
+    rows = _fill(points)
+    assumptions: list[str] = []
+    extrapolated = False
+
+    lowest, highest = rows[0], rows[-1]
+    exact = next((r for r in rows if r.vgs == vgs), None)
+    if exact is not None:
+        used = (exact,)
+        base = exact.corner(corner)
+    elif vgs > highest.vgs:
+        used = (highest,)
+        base = highest.corner(corner)
+        assumptions.append(
+            f"V_GS {vgs:g} V above the highest tabulated {highest.vgs:g} V: value held at "
+            f"{highest.vgs:g} V (more gate drive never raises R_DS(on); this errs high)")
+    elif vgs < lowest.vgs:
+        if len(rows) < 2:
+            raise ValueError(
+                f"V_GS {vgs:g} V is below the only tabulated gate voltage {lowest.vgs:g} V; a "
+                f"second row is needed to extrapolate, and clamping would understate R_DS(on)")
+        second = rows[1]
+        used = (lowest, second)
+        base = _line(lowest.vgs, lowest.corner(corner), second.vgs, second.corner(corner), vgs)
+        extrapolated = True
+        assumptions.append(
+            f"V_GS {vgs:g} V below the lowest tabulated {lowest.vgs:g} V: extrapolated linearly "
+            f"from the {lowest.vgs:g} V and {second.vgs:g} V rows; near the threshold voltage "
+            f"R_DS(on) rises faster than a line, so this may still understate it")
+        if base < lowest.corner(corner):
+            # The table's two lowest rows slope the wrong way; continuing them would make less
+            # gate drive look better, the one direction that must never happen.
+            base = lowest.corner(corner)
+            assumptions.append(
+                f"the two lowest rows fall with falling V_GS; value held at the {lowest.vgs:g} V "
+                f"row instead of continuing that slope")
+    else:
+        i = next(k for k in range(1, len(rows)) if rows[k].vgs > vgs)
+        lo, hi = rows[i - 1], rows[i]
+        used = (lo, hi)
+        base = _line(lo.vgs, lo.corner(corner), hi.vgs, hi.corner(corner), vgs)
+
+    for row in used:
+        for note in row.notes:
+            if _concerns(note, corner) and note not in assumptions:
+                assumptions.append(note)
+
+    factor = temperature_factor(tj, hot_ratio, hot_at)
+    if tj > max(hot_at, TABLE_TEMP) or tj < min(hot_at, TABLE_TEMP):
+        extrapolated = True
+        assumptions.append(
+            f"T_J {tj:g} °C outside {TABLE_TEMP:g}-{hot_at:g} °C: temperature factor "
+            f"{factor:.3f} continues the straight line through the data sheet's ratio "
+            f"{hot_ratio:g} at {hot_at:g} °C")
+    value = base * factor
+    if not value > 0.0:
+        raise ValueError(f"R_DS(on) came out as {value!r} Ω; check the table and temperature")
+    return RdsOnResult(value, tuple(assumptions), extrapolated)
+
+
+def temperature_factor(tj: float, hot_ratio: float, hot_at: float = 125.0) -> float:
+    """R_DS(on)(tj) / R_DS(on)(25 °C) = 1 + (hot_ratio - 1)·(tj - 25)/(hot_at - 25).
+
+    A straight line through the 25 °C point and the data sheet's ratio at ``hot_at``, continued on
+    both sides; below 25 °C it lowers the value, which is what the normalised curves show
+    [practice]. Raises ValueError where the line would reach zero or below.
+    """
+    _finite(tj=tj, hot_ratio=hot_ratio, hot_at=hot_at)
+    if hot_ratio <= 0.0:
+        raise ValueError(f"hot_ratio must be > 0, got {hot_ratio}")
+    if hot_at == TABLE_TEMP:
+        raise ValueError(f"hot_at must differ from {TABLE_TEMP:g} °C, the table temperature")
+    factor = 1.0 + (hot_ratio - 1.0) * (tj - TABLE_TEMP) / (hot_at - TABLE_TEMP)
+    if factor <= 0.0:
+        raise ValueError(
+            f"the linear temperature model gives a factor of {factor:.3g} at {tj:g} °C; "
+            f"the temperature is far outside where it means anything")
+    return factor
+
+
+def _fill(points: Iterable[Sequence[Optional[float]]]) -> list[_Filled]:
+    rows: list[_Filled] = []
+    for raw in points:
+        if len(raw) != 3:
+            raise ValueError(f"each point must be (vgs, typ, max), got {raw!r}")
+        vgs, typ, mx = raw
+        if vgs is None or not math.isfinite(vgs):
+            raise ValueError(f"gate voltage must be a finite number, got {vgs!r}")
+        for name, v in (("typ", typ), ("max", mx)):
+            if v is not None and not (v > 0.0 and math.isfinite(v)):
+                raise ValueError(f"{name} R_DS(on) at {vgs:g} V must be > 0, got {v!r}")
+        at = f"at V_GS {vgs:g} V"
+        if typ is not None and mx is not None:
+            if mx < typ:
+                raise ValueError(f"max {mx} Ω below typ {typ} Ω {at}")
+            low: Optional[float] = typ - (mx - typ)
+            notes = [f"min: {at} no minimum given; min = typ - (max - typ), a symmetric spread"]
+            if low <= 0.0:
+                # A spread wider than the typical value has no sensible symmetric minimum, and
+                # any floor would be invented; only a request for the min corner fails.
+                low = None
+            rows.append(_Filled(vgs, typ, mx, low, tuple(notes)))
+        elif mx is not None:
+            rows.append(_Filled(vgs, mx, mx, mx, (
+                f"typ: {at} only a maximum given; typ = max",
+                f"min: {at} only a maximum given; min = max, which overstates the minimum and so "
+                f"understates any current that scales as 1/R_DS(on)")))
+        elif typ is not None:
+            rows.append(_Filled(vgs, typ, typ, typ, (
+                f"max: {at} only a typical value given; max = typ, which understates the "
+                f"worst case",
+                f"min: {at} only a typical value given; min = typ")))
+        else:
+            raise ValueError(f"point {at} gives neither typ nor max")
+    if not rows:
+        raise ValueError("the R_DS(on) table is empty")
+    rows.sort(key=lambda r: r.vgs)
+    for a, b in zip(rows, rows[1:]):
+        if a.vgs == b.vgs:
+            raise ValueError(f"gate voltage {a.vgs:g} V appears twice in the table")
+    return rows
+
+
+def _concerns(note: str, corner: str) -> bool:
+    return note.startswith(corner + ":")
+
+
+def _line(x0: float, y0: float, x1: float, y1: float, x: float) -> float:
+    return y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+
+
+def _finite(**values: float) -> None:
+    for name, value in values.items():
+        if value is None or not math.isfinite(value):
+            raise ValueError(f"{name} must be a finite number, got {value!r}")

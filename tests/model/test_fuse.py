@@ -1,0 +1,160 @@
+"""Fuse I²t, pre-arcing gates and derating against REFERENCES.md "Fuses"."""
+
+import math
+
+import pytest
+from hypothesis import given, strategies as st
+
+from packwarden.model import fuse
+from packwarden.model.fuse import Melt, melt_verdict
+
+MIN, HOUR = 60.0, 3600.0
+
+
+def test_rectangular_pulse_i2t_vector():
+    # I²t of a rectangular pulse = I²·t [published: definition]; vector [derived]:
+    # 40 A for 540 µs → 0.86 A²s.
+    assert fuse.pulse_i2t(40.0, 540e-6) == pytest.approx(0.86, abs=0.005)
+
+
+# Gates written out here from REFERENCES.md, independently of the module's data, so a typo in
+# either shows up. (multiple, min pre-arcing time, max pre-arcing time); None = not given.
+SHEET3 = [  # IEC 60127-2 sheet 3 [published, as reproduced in fuse data sheets]
+    (1.5, 60 * MIN, None), (2.1, None, 2 * MIN), (2.75, 0.6, 10.0), (4.0, 0.15, 3.0),
+    (10.0, 0.02, 0.3)]
+SHEET5 = [  # IEC 60127-2 sheet 5 [published, as reproduced in fuse data sheets]
+    (1.5, 60 * MIN, None), (2.1, None, 30 * MIN), (2.75, 0.75, 80.0), (4.0, 0.15, 5.0),
+    (10.0, 0.02, 0.15)]
+QUICK = [  # IEC 60127-2 sheets 1/2 quick-acting [memory]
+    (2.1, None, 30 * MIN), (2.75, 0.01, 2.0), (4.0, 0.003, 0.3), (10.0, None, 0.02)]
+
+
+@pytest.mark.parametrize("gates, table", [
+    (fuse.IEC60127_2_SHEET3, SHEET3), (fuse.IEC60127_2_SHEET5, SHEET5),
+    (fuse.IEC60127_2_QUICK, QUICK)])
+def test_each_gate_is_honoured(gates, table):
+    rating = 5.0   # inside every set's span
+    for k, t_lo, t_hi in table:
+        current = k * rating
+        v = melt_verdict(current, 1.0, rating, gates)
+        if t_lo is not None:
+            assert v.t_min == pytest.approx(t_lo)
+            assert melt_verdict(current, t_lo * 0.99, rating, gates).verdict is Melt.BELOW
+        if t_hi is not None:
+            assert v.t_max == pytest.approx(t_hi)
+            assert melt_verdict(current, t_hi, rating, gates).verdict is Melt.MELTS
+        inside = math.sqrt(max(v.t_min, 1e-9) * min(v.t_max, 1e9))
+        assert melt_verdict(current, inside, rating, gates).verdict is Melt.MAY_MELT
+
+
+def test_exactly_the_minimum_time_may_melt():
+    # Sheet 3 at 4 In [published]: pre-arcing time 150 ms-3 s, so 150 ms itself is not "surely
+    # below": a fuse at its minimum melts at exactly that moment.
+    assert melt_verdict(20.0, 0.15, 5.0, fuse.IEC60127_2_SHEET3).verdict is Melt.MAY_MELT
+
+
+def test_between_gates_uses_monotonicity_only():
+    # Sheet 3 [published]: at 3 In the pre-arcing time is ≥ the 4 In minimum (150 ms) and ≤ the
+    # 2.75 In maximum (10 s), because a larger current never takes longer to melt [practice].
+    v = melt_verdict(3.0, 1.0, 1.0, fuse.IEC60127_2_SHEET3)
+    assert (v.t_min, v.t_max) == (0.15, 10.0)
+    assert v.verdict is Melt.MAY_MELT
+    assert melt_verdict(3.0, 0.1, 1.0, fuse.IEC60127_2_SHEET3).verdict is Melt.BELOW
+    assert melt_verdict(3.0, 11.0, 1.0, fuse.IEC60127_2_SHEET3).verdict is Melt.MELTS
+
+
+def test_short_circuit_pulse_beyond_the_last_gate_is_undecided():
+    # 40 A for 540 µs in a 1 A time-lag fuse: 40 In is past the 10 In gate, which bounds the time
+    # only from above (≤ 300 ms); the gates cannot clear it, the melting I²t must.
+    v = melt_verdict(40.0, 540e-6, 1.0, fuse.IEC60127_2_SHEET3)
+    assert v.verdict is Melt.MAY_MELT
+    assert v.t_min == 0.0 and v.t_max == pytest.approx(0.3)
+
+
+def test_ul_248_14_points():
+    # UL 248-14 [published, secondary summary]: carries 100 %; opens at 135 % within 1 h and at
+    # 200 % within 2 min.
+    ul = fuse.UL248_14
+    assert melt_verdict(1.0, 1e9, 1.0, ul).verdict is Melt.BELOW
+    assert melt_verdict(1.35, HOUR, 1.0, ul).verdict is Melt.MELTS
+    assert melt_verdict(2.0, 2 * MIN, 1.0, ul).verdict is Melt.MELTS
+    assert melt_verdict(1.2, 2 * HOUR, 1.0, ul).verdict is Melt.MAY_MELT
+    assert melt_verdict(2.0, 1 * MIN, 1.0, ul).verdict is Melt.MAY_MELT
+
+
+def test_rating_outside_a_sheet_is_noted():
+    # Sheet 5 covers 4-6.3 A [published].
+    assert melt_verdict(2.0, 1.0, 1.0, fuse.IEC60127_2_SHEET5).notes
+    assert not melt_verdict(8.0, 1.0, 5.0, fuse.IEC60127_2_SHEET5).notes
+
+
+def test_interpolation_is_flagged_and_narrows():
+    plain = melt_verdict(3.0, 1.0, 1.0, fuse.IEC60127_2_SHEET3)
+    inter = melt_verdict(3.0, 1.0, 1.0, fuse.IEC60127_2_SHEET3, interpolate=True)
+    assert inter.t_min > plain.t_min and inter.t_max < plain.t_max
+    assert any("interpolated" in n for n in inter.notes)
+
+
+sets = st.sampled_from(list(fuse.GATE_SETS.values()))
+order = {Melt.BELOW: 0, Melt.MAY_MELT: 1, Melt.MELTS: 2}
+
+
+@given(gates=sets, k1=st.floats(0.1, 50.0), k2=st.floats(0.1, 50.0),
+       t=st.floats(1e-4, 1e5), interpolate=st.booleans())
+def test_more_current_never_gives_a_milder_verdict(gates, k1, k2, t, interpolate):
+    lo, hi = sorted((k1, k2))
+    a = melt_verdict(lo, t, 1.0, gates, interpolate).verdict
+    b = melt_verdict(hi, t, 1.0, gates, interpolate).verdict
+    assert order[a] <= order[b]
+
+
+@given(gates=sets, k=st.floats(0.1, 50.0), t1=st.floats(1e-4, 1e5), t2=st.floats(1e-4, 1e5))
+def test_longer_never_gives_a_milder_verdict(gates, k, t1, t2):
+    lo, hi = sorted((t1, t2))
+    assert (order[melt_verdict(k, lo, 1.0, gates).verdict]
+            <= order[melt_verdict(k, hi, 1.0, gates).verdict])
+
+
+@given(gates=sets, k=st.floats(0.1, 50.0))
+def test_interpolated_bounds_lie_inside_the_monotone_ones(gates, k):
+    plain = melt_verdict(k, 1.0, 1.0, gates)
+    inter = melt_verdict(k, 1.0, 1.0, gates, interpolate=True)
+    assert plain.t_min <= inter.t_min <= inter.t_max <= plain.t_max
+
+
+def test_pulse_fraction_points():
+    # Repetitive pulse practice [practice]: ~48 % of melting I²t for 100 pulses, ~22 % for 100 000.
+    assert fuse.pulse_i2t_fraction(100) == pytest.approx(0.48)
+    assert fuse.pulse_i2t_fraction(100_000) == pytest.approx(0.22)
+    assert fuse.pulse_i2t_fraction(1) == pytest.approx(0.48)
+    assert 0.22 < fuse.pulse_i2t_fraction(10_000) < 0.48
+    assert fuse.pulse_i2t_fraction(1e4) > fuse.pulse_i2t_fraction(5e4)
+
+
+def test_pulse_ok_uses_the_fraction():
+    # The 0.864 A²s vector pulse against an invented fuse of 2.0 A²s melting I²t.
+    pulse = fuse.pulse_i2t(40.0, 540e-6)
+    assert fuse.pulse_i2t_ok(pulse, 2.0, 100)             # 0.864 ≤ 0.96
+    assert not fuse.pulse_i2t_ok(pulse, 2.0, 100_000)     # 0.864 > 0.44
+
+
+def test_continuous_derating():
+    # Run a fuse at ≤ 75 % of its rating at 25 °C [practice].
+    assert fuse.max_continuous_current(2.0) == pytest.approx(1.5)
+    assert fuse.max_continuous_current(2.0, ambient_factor=0.9) == pytest.approx(1.35)
+    assert fuse.linear_ambient_factor(45.0, 0.005) == pytest.approx(0.9)
+    assert fuse.linear_ambient_factor(10.0, 0.005) == 1.0
+    assert fuse.linear_ambient_factor(500.0, 0.005) == 0.0
+    with pytest.raises(ValueError):
+        fuse.max_continuous_current(2.0, ambient_factor=1.2)
+
+
+@pytest.mark.parametrize("call", [
+    lambda: fuse.pulse_i2t(1.0, -1.0),
+    lambda: melt_verdict(1.0, 1.0, 0.0, fuse.UL248_14),
+    lambda: melt_verdict(-1.0, 1.0, 1.0, fuse.UL248_14),
+    lambda: fuse.pulse_i2t_fraction(0),
+])
+def test_bad_inputs_raise(call):
+    with pytest.raises(ValueError):
+        call()
