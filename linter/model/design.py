@@ -1,27 +1,618 @@
-"""The design's model: every figure computed once per design and cached; rules read them."""
+"""The design's model: every figure computed once per design and cached; rules read them.
+
+Built from the netlist only: which FET is the charge and which the discharge switch follows from the
+protector pin that drives its gate, the cell stack from the cells' pins, the sense resistance from a
+nodal solve of the power path. Corners are explicit, so a finding can say at which one it was found.
+"""
 
 from __future__ import annotations
 
+import math
+from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Any
 
-from ..netlist import Netlist
-from ..schema import Design
+from ..netlist import Component, Netlist
+from ..schema import Design, Toleranced
+from . import copper
+from .cells import cell_window
+from .network import Network, NetworkError
+from .rdson import rds_on
+
+# A load placed across the pack terminals to excite the path in a solve; the network is linear
+# with every switch on, so any value gives the same ratios [derived].
+_PROBE_LOAD = 1.0
+# Parts in the path with no resistance given are modelled this small: they neither add to the
+# sense resistance nor limit a short circuit, which errs on the side of higher currents.
+_IDEAL = 1e-6
+# Upper-limit charging voltage when a data sheet gives none: the charge voltage plus 50 mV
+# [practice: cell data sheets give 4.20 V +0.03..0.05 V; IEC 62133-2 summaries 4.25 V for 4.2 V
+# cells].
+_UPPER_LIMIT_MARGIN = 0.05
+# Resistors above this carry signals (supply filters, sense-pin resistors, dividers), not the
+# pack's current: they are no bypass of a fuse and no path for a load [practice].
+_SIGNAL_OHMS = 1.0
+_THERMAL_ITERATIONS = 200
+_THERMAL_TOLERANCE = 0.01  # kelvin
+
+
+@dataclass(frozen=True)
+class Span:
+    """A worst-case range: lowest, typical and highest value of one quantity."""
+
+    low: float
+    typ: float
+    high: float
+
+    @classmethod
+    def of(cls, t: Toleranced) -> "Span":
+        return cls(t.low, t.nominal, t.high)
+
+    def scaled(self, k: float) -> "Span":
+        return Span(self.low * k, self.typ * k, self.high * k)
+
+
+@dataclass(frozen=True)
+class CellLimits:
+    """Per-cell voltage window, data sheet first, chemistry defaults where it is silent."""
+
+    chemistry: str
+    charge: float
+    upper_limit: float
+    overcharge_limit: float
+    nominal: float
+    cutoff: float
+    lower_limit: float
+    assumptions: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class CellStack:
+    cells: tuple[Component, ...]
+    series: int
+    parallel: int
+    bottom: str  # net of the stack's negative end (B-)
+    top: str  # net of the stack's positive end (B+)
+    problems: tuple[str, ...] = ()
+
+    @property
+    def part(self) -> Any:
+        return self.cells[0].part
+
+
+@dataclass(frozen=True)
+class SwitchChannel:
+    """One FET channel in the power path."""
+
+    name: str  # branch name: "Q1" for a discrete FET, "Q1.1"/"Q1.2" for a pair's channels
+    package: str  # refdes of the package (the thermal unit)
+    role: str | None  # "discharge", "charge", or None when no protector output drives the gate
+    drain: str
+    source: str
+    gate: str | None
+    channel: str  # "n" | "p"
+    part: Any
+    gate_pin: str  # the pin name of the gate, for messages ("g1", "g")
+    path: tuple  # YAML path of the component
+
+
+@dataclass(frozen=True)
+class OperatingPoint:
+    """The path carrying ``current`` with every switch on, at a thermal steady state."""
+
+    current: float
+    ambient: float
+    vgs: float
+    corner: str
+    rds: dict  # channel name -> ohms at its junction temperature
+    channel_current: dict  # channel name -> amperes (magnitude)
+    share: dict  # channel name -> amperes per ampere of pack current (how current divides)
+    tj: dict  # package -> °C
+    power: dict  # package -> W
+    sense_resistance: float
+    path_resistance: float  # between the stack and the terminals, all series parts
+    converged: bool
+    runaway: bool
+    assumptions: tuple[str, ...]
+
+
+@dataclass(frozen=True)
+class TripWindow:
+    """Currents at which a detection trips, over every tolerance and corner."""
+
+    detect: Span
+    low: OperatingPoint  # the corner with the highest sense resistance
+    high: OperatingPoint  # the corner with the lowest sense resistance
+    typ: OperatingPoint
+
+    @property
+    def min(self) -> float:
+        return self.detect.low / self.low.sense_resistance
+
+    @property
+    def max(self) -> float:
+        return self.detect.high / self.high.sense_resistance
+
+    @property
+    def typical(self) -> float:
+        return self.detect.typ / self.typ.sense_resistance
+
+
+@dataclass
+class ModelProblem:
+    """Why a figure could not be computed; rules report it rather than guessing."""
+
+    what: str
+    message: str
+    path: tuple = ()
 
 
 class DesignModel:
     def __init__(self, design: Design, netlist: Netlist):
         self.design = design
         self.netlist = netlist
+        self.problems: list[ModelProblem] = []
+
+    # --- what is in the design -----------------------------------------------------------------
 
     @cached_property
-    def cells(self) -> list:
-        return self.netlist.of_kind("cell")
+    def terminals(self) -> tuple[str, str]:
+        return self.netlist.terminals
 
     @cached_property
-    def protectors(self) -> list:
-        return self.netlist.of_kind("protector")
+    def ambient(self) -> Span:
+        a = self.design.pack.ambient
+        return Span(a.min, 25.0 if a.min <= 25.0 <= a.max else (a.min + a.max) / 2, a.max)
+
+    @cached_property
+    def protector(self) -> Component | None:
+        found = self.netlist.of_kind("protector")
+        return found[0] if found else None
+
+    @cached_property
+    def stack(self) -> CellStack | None:
+        cells = tuple(c for c in self.netlist.of_kind("cell") if "pos" in c.pins and "neg" in c.pins)
+        if not cells:
+            return None
+        pos_nets = {c.pins["pos"] for c in cells}
+        neg_nets = {c.pins["neg"] for c in cells}
+        bottoms = sorted(neg_nets - pos_nets)
+        problems: list[str] = []
+        if len(bottoms) != 1:
+            problems.append(f"the cells do not form one stack (bottom nets: {', '.join(bottoms) or 'none'})")
+            bottom = bottoms[0] if bottoms else cells[0].pins["neg"]
+        else:
+            bottom = bottoms[0]
+        level = {bottom: 0}
+        changed = True
+        while changed:
+            changed = False
+            for c in cells:
+                n, p = c.pins["neg"], c.pins["pos"]
+                if n in level and level.get(p) != level[n] + 1:
+                    if p in level:
+                        problems.append(f"{c.refdes} closes a loop in the cell stack")
+                        changed = False
+                        break
+                    level[p] = level[n] + 1
+                    changed = True
+        series = max(level.values()) if level else 1
+        top = max(level, key=lambda n: (level[n], n))
+        per_level: dict[int, int] = {}
+        for c in cells:
+            per_level[level.get(c.pins["pos"], 0)] = per_level.get(level.get(c.pins["pos"], 0), 0) + 1
+        counts = set(per_level.values())
+        if len(counts) > 1:
+            problems.append("the parallel groups of the stack hold different numbers of cells")
+        parallel = min(counts) if counts else 1
+        parts = {c.part_name or c.refdes for c in cells}
+        if len({id(c.part) for c in cells}) > 1 and len(parts) > 1:
+            problems.append("the stack mixes different cell parts; the first one is used")
+        return CellStack(cells, max(series, 1), parallel, bottom, top, tuple(problems))
+
+    @cached_property
+    def cell_limits(self) -> CellLimits | None:
+        if self.stack is None:
+            return None
+        cell = self.stack.part
+        v = cell.voltage
+        chem = cell.chemistry.value
+        window = cell_window(chem)
+        notes = []
+        upper = v.upper_limit
+        if upper is None:
+            upper = v.charge + _UPPER_LIMIT_MARGIN
+            notes.append(f"cell upper_limit not given: assumed charge + 50 mV = {upper:.3f} V "
+                         f"[practice]")
+        over = v.overcharge_limit
+        if over is None:
+            over = window.overcharge_limit
+            notes.append(f"cell overcharge_limit not given: {chem} default {over:.2f} V "
+                         f"({window.source('overcharge_limit')})")
+        lower = v.lower_limit
+        if lower is None:
+            lower = window.lower_limit
+            notes.append(f"cell lower_limit not given: {chem} default {lower:.2f} V "
+                         f"({window.source('lower_limit')})")
+        return CellLimits(chem, v.charge, upper, over, v.nominal, v.cutoff, lower, tuple(notes))
+
+    @cached_property
+    def charger_per_cell(self) -> Span | None:
+        if self.design.charger is None or self.stack is None:
+            return None
+        return Span.of(self.design.charger.voltage).scaled(1.0 / self.stack.series)
+
+    @cached_property
+    def cell_voltage(self) -> Span | None:
+        """Cell voltage in service: protector over-discharge detection to overcharge detection."""
+        p = self.protector
+        if p is None or self.cell_limits is None:
+            return None
+        od, oc = p.part.overdischarge.detect, p.part.overcharge.detect
+        return Span(od.low, self.cell_limits.nominal, oc.high)
+
+    @cached_property
+    def gate_drive(self) -> Span | None:
+        """Gate-source drive of the switches when on."""
+        p = self.protector
+        if p is None:
+            return None
+        drive = p.part.gate_drive
+        if drive != "cell":
+            return Span(float(drive), float(drive), float(drive))
+        cv = self.cell_voltage
+        if cv is None or self.stack is None:
+            return None
+        return cv.scaled(self.stack.series) if p.part.cells > 1 else cv
+
+    # --- switches ------------------------------------------------------------------------------
+
+    @cached_property
+    def gate_nets(self) -> dict[str, str]:
+        """Net -> role for nets driven by the protector's gate outputs (directly or via a resistor)."""
+        p = self.protector
+        if p is None:
+            return {}
+        out: dict[str, str] = {}
+        for pin, role in (("discharge_gate", "discharge"), ("charge_gate", "charge")):
+            net = p.pins.get(pin)
+            if net is None:
+                continue
+            out[net] = role
+            # a series gate resistor: its far end, when that net holds only gates
+            for r in self.netlist.of_kind("resistor"):
+                a, b = r.pins.get("1"), r.pins.get("2")
+                far = b if a == net else a if b == net else None
+                if far and far not in out and all(
+                        self.netlist.components[ref.component].kind in ("fet", "fet_pair_common_drain")
+                        and ref.pin.startswith("g") or ref.component == r.refdes
+                        for ref in self.netlist.nets.get(far, [])):
+                    out[far] = role
+        return out
+
+    @cached_property
+    def channels(self) -> tuple[SwitchChannel, ...]:
+        out = []
+        roles = self.gate_nets
+        for c in self.netlist.of_kind("fet", "fet_pair_common_drain"):
+            part = c.part
+            if c.kind == "fet":
+                if not {"d", "s"} <= set(c.pins):
+                    continue
+                g = c.pins.get("g")
+                out.append(SwitchChannel(c.refdes, c.refdes, roles.get(g), c.pins["d"], c.pins["s"],
+                                         g, part.channel.value, part, "g", c.path))
+            else:
+                drain = c.pins.get("d") or f"{c.refdes}.d"
+                for i in ("1", "2"):
+                    s, g = c.pins.get(f"s{i}"), c.pins.get(f"g{i}")
+                    if s is None:
+                        continue
+                    out.append(SwitchChannel(f"{c.refdes}.{i}", c.refdes, roles.get(g), drain, s,
+                                             g, part.channel.value, part, f"g{i}", c.path))
+        return tuple(out)
+
+    def channels_of(self, role: str) -> list[SwitchChannel]:
+        return [ch for ch in self.channels if ch.role == role]
+
+    # --- the power path ------------------------------------------------------------------------
+
+    def _series_parts(self) -> list[Component]:
+        return self.netlist.of_kind("fuse", "ptc", "resistor", "trace", "wire")
+
+    def part_resistance(self, c: Component, temp: float, corner: str) -> float:
+        """Resistance of a non-switch part in the path at ``temp`` for a corner (low/typ/high)."""
+        part = c.part
+        if c.kind == "resistor":
+            k = {"low": 1 - part.tol / 100, "typ": 1.0, "high": 1 + part.tol / 100}[corner]
+            return max(part.value * k, _IDEAL)
+        if c.kind == "fuse":
+            return part.resistance if part.resistance else _IDEAL
+        if c.kind == "ptc":
+            return {"low": part.resistance.low, "typ": part.resistance.nominal,
+                    "high": part.resistance.high}[corner]
+        if c.kind == "trace":
+            thick = part.thickness if part.thickness is not None else copper.oz_to_thickness(part.copper_weight)
+            return copper.trace_resistance(part.width, thick, part.length, temp)
+        if c.kind == "wire":
+            return part.resistance if part.resistance else _IDEAL
+        raise ValueError(c.kind)  # pragma: no cover
+
+    def network(self, rds: dict[str, float], *, cell_emf: float, cell_r: float, temp: float,
+                corner: str = "typ", switches_on: dict[str, bool] | None = None,
+                load: float | None = _PROBE_LOAD, cells: bool = True,
+                exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf) -> Network:
+        """The power path: cells, switch channels, series parts, and an optional load.
+
+        ``exclude`` leaves parts out (to ask what happens without a fuse); ``max_ohms`` leaves out
+        resistors above it, which carry signals, not the pack's current.
+        """
+        net = Network()
+        if self.stack is not None and cells:
+            for c in self.stack.cells:
+                net.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
+        for ch in self.channels:
+            on = True if switches_on is None else switches_on.get(ch.name, True)
+            net.add_mosfet(ch.name, drain=ch.drain, source=ch.source, channel=ch.channel,
+                           ohms_on=rds.get(ch.name, 1.0), on=on)
+        for c in self._series_parts():
+            a, b = c.pins.get("1"), c.pins.get("2")
+            if a and b and a != b and c.refdes not in exclude:
+                r = self.part_resistance(c, temp, corner)
+                if r <= max_ohms:
+                    net.add_resistor(c.refdes, a, b, r)
+        if load is not None:
+            pos, neg = self.terminals
+            if pos != neg:
+                net.add_resistor("(load)", pos, neg, load)
+        return net
+
+    def channel_rds(self, ch: SwitchChannel, vgs: float, tj: float, corner: str) -> tuple[float, tuple[str, ...]]:
+        part = ch.part
+        hot = part.rds_on_hot_ratio
+        ratio, at = (hot.ratio, hot.at) if hot else (1.5, 125.0)
+        points = [(p.vgs, p.typ, p.max) for p in part.rds_on]
+        try:
+            res = rds_on(points, vgs, tj, ratio, at, corner)
+        except ValueError as exc:
+            # One table row and a gate drive below it: no slope to extrapolate. Use the row, and
+            # say loudly that this understates the resistance, rather than stop the review.
+            row = min(points)
+            res = rds_on([row], row[0], tj, ratio, at, corner)
+            return res.value, res.assumptions + (
+                f"{ch.package}: {exc}; the {row[0]:g} V row is used and understates R_DS(on) — "
+                f"add a second rds_on row",)
+        notes = res.assumptions
+        if hot is None:
+            notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
+                             f"[practice: 1.4-1.6 for 20 V parts]",)
+        return res.value, notes
+
+    def operating_point(self, current: float, ambient: float, vgs: float, corner: str,
+                        self_heating: bool = True) -> OperatingPoint:
+        """Steady state of the path carrying ``current``, switches on, at ``corner`` (typ|max|min)."""
+        packages = {ch.package: ch.part for ch in self.channels}
+        tj = {p: ambient for p in packages}
+        rcorner = {"max": "high", "min": "low", "typ": "typ"}[corner]
+        cell = self.stack.part if self.stack else None
+        cell_r = {"max": cell.internal_resistance.high, "min": spread_low(cell.internal_resistance),
+                  "typ": cell.internal_resistance.nominal}[corner] if cell else _IDEAL
+        converged, runaway = True, False
+        notes: list[str] = []
+        for _ in range(_THERMAL_ITERATIONS):
+            rds, notes = {}, []
+            for ch in self.channels:
+                rds[ch.name], n = self.channel_rds(ch, vgs, tj[ch.package], corner)
+                notes += [x for x in n if x not in notes]
+            sol, sense, path_r = self._solve(rds, ambient, rcorner, cell_r)
+            i_load = abs(sol.current("(load)")) if sol is not None else 0.0
+            share = {ch.name: abs(sol.current(ch.name)) / i_load if sol and i_load else 0.0
+                     for ch in self.channels}
+            ich = {name: f * current for name, f in share.items()}
+            power = {p: 0.0 for p in packages}
+            for ch in self.channels:
+                power[ch.package] += ich[ch.name] ** 2 * rds[ch.name]
+            if not self_heating:
+                break
+            new = {p: ambient + power[p] * packages[p].theta_ja for p in packages}
+            if any(new[p] > packages[p].tj_max for p in packages):
+                tj, converged, runaway = new, False, True
+                break
+            delta = max((abs(new[p] - tj[p]) for p in packages), default=0.0)
+            tj = new
+            if delta < _THERMAL_TOLERANCE:
+                break
+        else:
+            converged = False
+        return OperatingPoint(current, ambient, vgs, corner, rds, ich, share, tj, power, sense, path_r,
+                              converged, runaway, tuple(notes))
+
+    def _solve(self, rds, temp, rcorner, cell_r):
+        """One nodal solve: (solution, sense resistance, stack-to-terminal path resistance)."""
+        if self.stack is None:
+            return None, math.inf, math.inf
+        emf = self.cell_limits.nominal if self.cell_limits else 3.6
+        net = self.network(rds, cell_emf=emf, cell_r=cell_r, temp=temp, corner=rcorner)
+        try:
+            sol = net.solve(ground=self.stack.bottom)
+        except NetworkError as exc:
+            self.problems.append(ModelProblem("network", str(exc)))
+            return None, math.inf, math.inf
+        i_load = abs(sol.current("(load)"))
+        sense = math.inf
+        p = self.protector
+        if p is not None and i_load > 0:
+            g, s = p.pins.get("ground"), p.pins.get("sense")
+            if g and s and g in sol.voltages and s in sol.voltages:
+                v = sol.voltage_between(s, g)
+                if v is not None:
+                    sense = abs(v) / i_load
+        pos, neg = self.terminals
+        path = math.inf
+        if i_load > 0:
+            vt = sol.voltage_between(pos, neg)
+            vs = sol.voltage_between(self.stack.top, self.stack.bottom)
+            if vt is not None and vs is not None:
+                path = abs(vs - vt) / i_load
+        return sol, sense, path
+
+    # --- trip windows --------------------------------------------------------------------------
+
+    def _window(self, detect: Toleranced) -> TripWindow | None:
+        gd, cont = self.gate_drive, self.design.load.continuous
+        if gd is None or not self.channels:
+            return None
+        a = self.ambient
+        low = self.operating_point(cont, a.high, gd.low, "max", self_heating=True)
+        high = self.operating_point(0.0, a.low, gd.high, "min", self_heating=False)
+        typ = self.operating_point(0.0, 25.0, gd.typ, "typ", self_heating=False)
+        return TripWindow(Span.of(detect), low, high, typ)
+
+    @cached_property
+    def overcurrent_trip(self) -> TripWindow | None:
+        p = self.protector
+        return self._window(p.part.overcurrent.detect) if p is not None else None
+
+    @cached_property
+    def short_circuit_trip(self) -> TripWindow | None:
+        p = self.protector
+        if p is None or p.part.short_circuit is None:
+            return None
+        return self._window(p.part.short_circuit.detect)
+
+    @cached_property
+    def prospective_short_circuit(self) -> float | None:
+        """Highest current a hard short across the pack terminals can draw, amperes.
+
+        Highest cell voltage over the lowest cell and path resistance, switches fully on.
+        """
+        if self.stack is None or self.cell_voltage is None or self.gate_drive is None:
+            return None
+        cell = self.stack.part
+        rds = {ch.name: self.channel_rds(ch, self.gate_drive.high, self.ambient.low, "min")[0]
+               for ch in self.channels}
+        net = self.network(rds, cell_emf=self.cell_voltage.high, cell_r=spread_low(cell.internal_resistance),
+                           temp=self.ambient.low, corner="low", load=_IDEAL)
+        try:
+            sol = net.solve(ground=self.stack.bottom)
+        except NetworkError as exc:
+            self.problems.append(ModelProblem("network", str(exc)))
+            return None
+        return abs(sol.current("(load)"))
+
+    # --- blocking and direction ---------------------------------------------------------------
+
+    @cached_property
+    def stack_voltage(self) -> Span | None:
+        """Whole-stack voltage in service (per-cell protector window times the series count)."""
+        if self.cell_voltage is None or self.stack is None:
+            return None
+        return self.cell_voltage.scaled(self.stack.series)
+
+    def blocking_voltage(self, role: str) -> list[tuple[str, float]]:
+        """Cases a switch of ``role`` must block when off: (what, volts), highest first."""
+        sv, ch = self.stack_voltage, self.design.charger
+        cases: list[tuple[str, float]] = []
+        if sv is None:
+            return cases
+        if role == "discharge":
+            cases.append(("discharge switch off under load: the stack voltage", sv.high))
+            if ch is not None and ch.reverse_polarity.value == "possible":
+                cases.append(("charger connected reversed: its open-circuit voltage plus the "
+                              "stack voltage", ch.open_circuit_max + sv.high))
+        elif role == "charge" and ch is not None:
+            cases.append(("charge switch off with the charger connected: its open-circuit "
+                          "voltage minus the lowest stack voltage", ch.open_circuit_max - sv.low))
+        return sorted(cases, key=lambda c: -c[1])
+
+    def direction_network(self, off: str, external: str) -> Network:
+        """The path without cells, ``off``-role switches off, and a one-way external element.
+
+        ``external`` is "load" (current leaves the pack at the positive terminal and returns at
+        the negative one) or "charger" (current enters at the positive terminal).
+        """
+        rds = {ch.name: 1e-3 for ch in self.channels}
+        states = {ch.name: ch.role != off for ch in self.channels}
+        net = self.network(rds, cell_emf=0.0, cell_r=1.0, temp=25.0, switches_on=states,
+                           load=None, cells=False, max_ohms=_SIGNAL_OHMS)
+        pos, neg = self.terminals
+        if external == "load":
+            net.add_diode("(load)", pos, neg)
+        else:
+            net.add_diode("(charger)", neg, pos)
+        return net
+
+    def conducts(self, off: str, direction: str):
+        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge")."""
+        if self.stack is None:
+            return None
+        top, bottom = self.stack.top, self.stack.bottom
+        if direction == "discharge":
+            net = self.direction_network(off, "load")
+            src, dst = top, bottom
+        else:
+            net = self.direction_network(off, "charger")
+            src, dst = bottom, top
+        if src not in net.nets or dst not in net.nets:
+            return None
+        return net.reachable(src, dst)
+
+    def in_series_with_path(self, refdes: str) -> bool:
+        """True when removing ``refdes`` separates the cells from the pack terminals."""
+        if self.stack is None:
+            return False
+        rds = {ch.name: 1e-3 for ch in self.channels}
+        net = self.network(rds, cell_emf=0.0, cell_r=1.0, temp=25.0, load=None, cells=False,
+                           exclude=frozenset({refdes}), max_ohms=_SIGNAL_OHMS)
+        pos, neg = self.terminals
+        for a, b in ((self.stack.top, pos), (self.stack.bottom, neg)):
+            if a == b:
+                continue
+            if a not in net.nets or b not in net.nets or net.reachable(a, b) is None:
+                return True
+        return False
+
+    # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, Any]:
         """The design's key figures, by name, in SI units (reported even when no rule fires)."""
-        return {"cell_count": len(self.cells), "component_count": len(self.netlist.components)}
+        out: dict[str, Any] = {"component_count": len(self.netlist.components)}
+        if self.stack is not None:
+            out.update(cells=len(self.stack.cells), series=self.stack.series,
+                       parallel=self.stack.parallel)
+        t = self.overcurrent_trip
+        if t is not None:
+            out.update(trip_current_min=_num(t.min), trip_current_typ=_num(t.typical),
+                       trip_current_max=_num(t.max),
+                       sense_resistance_min=_num(t.high.sense_resistance),
+                       sense_resistance_typ=_num(t.typ.sense_resistance),
+                       sense_resistance_max=_num(t.low.sense_resistance))
+        s = self.short_circuit_trip
+        if s is not None:
+            out.update(short_circuit_trip_min=_num(s.min), short_circuit_trip_max=_num(s.max))
+        psc = self.prospective_short_circuit
+        if psc is not None:
+            out["prospective_short_circuit"] = _num(psc)
+        if self.gate_drive is not None:
+            out.update(gate_drive_min=self.gate_drive.low, gate_drive_max=self.gate_drive.high)
+        return out
+
+
+def spread_low(t: Toleranced) -> float:
+    """Lowest value of a part parameter; with typ and max only, typ - (max - typ).
+
+    Data sheets often give typ and max alone; a symmetric spread is the usual reading [practice].
+    Floored at half of typ, where a wide max would make the mirror image meaningless.
+    """
+    if t.min is not None:
+        return t.min
+    if t.typ is not None and t.max is not None:
+        return max(t.typ - (t.max - t.typ), t.typ / 2)
+    return t.low
+
+
+def _num(x: float) -> float | None:
+    """A figure fit for JSON: rounded to 6 significant digits, None when not finite."""
+    if x is None or not math.isfinite(x):
+        return None
+    return float(f"{x:.6g}")

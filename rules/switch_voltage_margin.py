@@ -1,0 +1,65 @@
+from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from pydantic import Field
+
+
+class Options(RuleOptions):
+    vds_derating: float = Field(0.8, gt=0, le=1, description=(
+        "fraction of vds_max a switch may block [practice: commercial derating 80 %]"))
+    vgs_derating: float = Field(0.7, gt=0, le=1, description=(
+        "fraction of vgs_max the gate may see [published: MIL-DTL-917 table XIX, 70 %]"))
+
+
+@rule(id="switch-voltage-margin",
+      summary="switch FETs block the worst voltages with derating, and gate drive fits the FET",
+      severity=Severity.error, options=Options, example=Example(
+          bad="charger: {open_circuit_max: 24 V, reverse_polarity: possible}\nQ1: vds_max: 20 V",
+          good="charger: {open_circuit_max: 5.5 V, reverse_polarity: possible}\nQ1: vds_max: 20 V"))
+def check(ctx, options):
+    """An off switch holds the whole difference between the cell stack and whatever sits on the
+    pack terminals: the stack itself under load, a charger's open-circuit voltage against a
+    depleted stack, and a reversed charger in series with the stack. Each must stay within the
+    FET's drain-source rating with derating. The gate sees the protector's drive, which must stay
+    within the gate rating with derating, and must exceed the gate threshold at the lowest cell
+    voltage the protector allows, or the FET is not fully on near the end of discharge."""
+    m = ctx.model
+    gd = m.gate_drive
+    seen = set()
+    for ch in m.channels:
+        if ch.role is None:
+            continue
+        part, path = ch.part, ("components", ch.package, "part")
+        cases = m.blocking_voltage(ch.role)
+        if cases:
+            what, v = cases[0]
+            limit = part.vds_max * options.vds_derating
+            total = v
+            if total > limit:
+                spike = ""
+                yield ctx.finding(
+                    f"{ch.name} ({ch.role} switch) must block {fq(total, 'V')} ({what}{spike}) but "
+                    f"{fq(options.vds_derating * 100, '%', 2)} of its vds_max {fq(part.vds_max, 'V')} "
+                    f"is {fq(limit, 'V')}",
+                    path=path, element=ch.package, key=f"vds-{ch.name}",
+                    figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
+                             Figure("derated limit", limit, "V")],
+                    hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"
+                         + (", or prevent reverse charger connection" if "reversed" in what else ""))
+        if gd is None or ch.package in seen:
+            continue
+        seen.add(ch.package)
+        glimit = part.vgs_max * options.vgs_derating
+        if gd.high > glimit:
+            yield ctx.finding(
+                f"{ch.package} gate drive reaches {fq(gd.high, 'V')} but {fq(options.vgs_derating * 100, '%', 2)} "
+                f"of its vgs_max {fq(part.vgs_max, 'V')} is {fq(glimit, 'V')}",
+                path=path, element=ch.package, key="vgs",
+                figures=[Figure("gate drive max", gd.high, "V"), Figure("vgs_max", part.vgs_max, "V")],
+                hint=f"use a FET with vgs_max ≥ {fq(gd.high / options.vgs_derating, 'V')}, or clamp the gate")
+        if part.vgs_th.high >= gd.low:
+            yield ctx.finding(
+                f"{ch.package} gate threshold max {fq(part.vgs_th.high, 'V')} is not below the lowest "
+                f"gate drive {fq(gd.low, 'V')} (over-discharge detection): the FET is not fully on "
+                f"near the end of discharge",
+                path=path, element=ch.package, key="vgs-th",
+                figures=[Figure("vgs_th max", part.vgs_th.high, "V"), Figure("gate drive min", gd.low, "V")],
+                hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")

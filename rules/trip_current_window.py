@@ -1,0 +1,108 @@
+import math
+
+from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+
+
+@rule(id="trip-current-window",
+      summary="the over-current trip clears the load yet stays within what the path carries",
+      severity=Severity.error, example=Example(
+          bad="load: {continuous: 2.5 A}   # one pair, 150 mV detection: trip min 1.8 A",
+          good="load: {continuous: 1.2 A}   # trip window 1.8-7.8 A"))
+def check(ctx, options):
+    """Trip current is the detection voltage over the sense resistance, which is usually the
+    switch FETs' own on-resistance. Over detection tolerance, part spread, gate drive (cell
+    voltage) and ambient, with self-heating from the load, it spans a window. A load just below
+    the trip is never cut off, so the window's maximum must stay within what every element carries
+    continuously: the cells' discharge rating and each FET channel's id_max as the current divides.
+    Its minimum must clear every load that lasts longer than the shortest over-current delay, else
+    the product cuts out in normal use. A hard short must exceed the short-circuit trip maximum,
+    or it is caught only by the slower over-current path."""
+    m = ctx.model
+    p, t, stack = m.protector, m.overcurrent_trip, m.stack
+    if p is None or t is None or stack is None:
+        return
+    ppath = ("components", p.refdes, "part")
+    window = [Figure("trip min", t.min, "A"), Figure("trip typ", t.typical, "A"),
+              Figure("trip max", t.max, "A")]
+    if not math.isfinite(t.low.sense_resistance) or t.high.sense_resistance <= 0:
+        yield ctx.finding(
+            f"{p.refdes} sees no power-path resistance between its ground and sense pins, so its "
+            f"over-current detection cannot trip", path=("components", p.refdes, "pins"),
+            element=p.refdes, key="no-sense",
+            hint="connect ground and sense across the switch FETs (or a shunt) in the power path")
+        return
+    def assumed(op):
+        notes = [n for n in op.assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n]
+        return f" (assumed: {'; '.join(notes)})" if notes else ""
+
+    cell = stack.part
+    cell_limit = cell.max_current.discharge * stack.parallel
+    if t.max > cell_limit:
+        yield ctx.finding(
+            f"over-current trip max {fq(t.max, 'A')} exceeds the cells' discharge rating "
+            f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
+            f"just below the trip is never cut off{assumed(t.high)}",
+            path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
+            key="max-vs-cell", figures=window + [Figure("cell limit", cell_limit, "A")],
+            hint=_resistance_hint(t, t.max / cell_limit, "raise", "maximum", cell_limit))
+    # FET channels: current divides across parallel packages as their resistances do
+    for ch in m.channels:
+        if ch.role is None:
+            continue
+        ich = _channel_current(m, t, ch.name)
+        if ich > ch.part.id_max:
+            yield ctx.finding(
+                f"{ch.name} carries {fq(ich, 'A')} at the over-current trip max, above its id_max "
+                f"{fq(ch.part.id_max, 'A')}{assumed(t.high)}",
+                path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
+                figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
+                hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
+                     f"with a lower over-current detection voltage")
+    oc = p.part.overcurrent
+    loads = [("continuous load", "", m.design.load.continuous, ("load", "continuous"))]
+    peak = m.design.load.peak
+    if peak is not None and peak.duration > oc.delay.low:
+        loads.append(("peak load", f", lasting {fq(peak.duration, 's')}, longer than the shortest "
+                      f"over-current delay {fq(oc.delay.low, 's')}", peak.current,
+                      ("load", "peak", "current")))
+    for what, why, current, path in loads:
+        if t.min < current:
+            yield ctx.finding(
+                f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
+                f"the pack may cut out in normal use (at {t.low.ambient:.0f} °C ambient, "
+                f"{fq(t.low.vgs, 'V')} gate drive, highest on-resistance){assumed(t.low)}",
+                path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
+                figures=window + [Figure(what, current, "A")],
+                hint=_resistance_hint(t, current / t.min, "lower", "minimum", current))
+    sc, psc = m.short_circuit_trip, m.prospective_short_circuit
+    if sc is not None and psc is not None and psc <= sc.max:
+        yield ctx.finding(
+            f"prospective short-circuit current {fq(psc, 'A')} does not exceed the short-circuit trip "
+            f"max {fq(sc.max, 'A')}: a hard short may be caught only by the slower over-current path",
+            path=ppath, element=p.refdes, key="short-circuit",
+            figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
+            hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
+
+
+def _channel_current(m, t, name):
+    # the share each channel takes of the pack current, at the low-resistance corner
+    return t.high.share.get(name, 0.0) * t.max
+
+
+def _resistance_hint(t, factor, verb, end, target):
+    """How far the sense resistance must move, said as the per-channel on-resistance to look for."""
+    op = t.low if end == "minimum" else t.high
+    per = [v for v in op.rds.values()]
+    if not per:
+        return None
+    worst = max(per) if end == "minimum" else min(per)
+    needed = worst / factor if end == "minimum" else worst * factor
+    vgs = op.vgs
+    if end == "minimum":
+        return (f"switches with ≤ {fq(needed, 'Ω')} per channel at {fq(vgs, 'V')} gate drive and "
+                f"{op.ambient:.0f} °C (now {fq(worst, 'Ω')}) would bring the minimum trip to "
+                f"{fq(target, 'A')}; or add a pair in parallel, or a protector with a higher "
+                f"over-current detection voltage")
+    return (f"switches with ≥ {fq(needed, 'Ω')} per channel at the low corner (now {fq(worst, 'Ω')}), "
+            f"or a protector with a lower over-current detection voltage, would bring the maximum "
+            f"trip to {fq(target, 'A')}")
