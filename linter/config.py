@@ -49,6 +49,9 @@ class Config:
     rule_paths: list[Path] = field(default_factory=list)
     policy: Path | None = None
     text: str = ""
+    #: Dotted name of the table holding the settings: "tool.packwarden" in pyproject.toml, "" in
+    #: packwarden.toml. Used to point messages at the right table.
+    prefix: str = ""
 
     def enabled(self, rule_id: str) -> bool:
         if rule_id in self.ignore:
@@ -75,13 +78,60 @@ def find_config(start: Path) -> Path | None:
     return None
 
 
-def _line_of(text: str, key: str) -> tuple[int, int]:
-    # tomllib keeps no positions; the first line naming the key is where a person would look.
-    for i, line in enumerate(text.splitlines(), 1):
-        col = line.find(key)
-        if col >= 0:
-            return i, col + 1
+def _line_of(text: str, key: str, tables: tuple[str, ...] = ("",), prefix: str = "") -> tuple[int, int]:
+    """Where ``key`` is written: searched in ``tables`` (most specific first) under ``prefix``.
+
+    tomllib keeps no positions, so this reads the text: within a table, the first line naming the key
+    as a whole word is where a person would look. A rule id named both in ``select`` and under
+    ``[tool.packwarden.severity]`` is found in the table the error is about, and ``rules`` is not
+    found inside ``rule_paths``.
+    """
+    lines = text.splitlines()
+    word = re.compile(r"(?<![\w-])" + re.escape(key) + r"(?![\w-])")
+    headers = [(i, _header_name(ln)) for i, ln in enumerate(lines)]
+    headers = [(i, h) for i, h in headers if h is not None]
+    for table in tables:
+        name = ".".join(p for p in (prefix, table) if p)
+        if name:
+            starts = [i for i, h in headers if h == name]
+            if not starts:
+                continue
+            start = starts[0]
+        else:
+            start = 0  # the top of a packwarden.toml, before any [table]
+        ends = [i for i, _ in headers if i > start]
+        end = ends[0] if ends else len(lines)
+        for i in range(start, end):
+            m = word.search(_strip_comment(lines[i]))
+            if m:
+                return i + 1, m.start() + 1
+    for i, line in enumerate(lines, 1):  # last resort: anywhere in the file
+        m = word.search(_strip_comment(line))
+        if m:
+            return i, m.start() + 1
     return 1, 1
+
+
+def _strip_comment(line: str) -> str:
+    """The line without a trailing ``# comment``; a ``#`` inside a quoted string stays."""
+    quote = None
+    for i, ch in enumerate(line):
+        if quote:
+            if ch == quote:
+                quote = None
+        elif ch in "\"'":
+            quote = ch
+        elif ch == "#":
+            return line[:i]
+    return line
+
+
+def _header_name(line: str) -> str | None:
+    """``tool.packwarden.rules.unknown-part`` for ``[tool.packwarden.rules."unknown-part"]``."""
+    stripped = _strip_comment(line).strip()
+    if not (stripped.startswith("[") and stripped.endswith("]")) or stripped.startswith("[["):
+        return None
+    return "".join(stripped[1:-1].split()).replace('"', "").replace("'", "")
 
 
 def load_config(path: Path | None, shown: str | None = None) -> Config:
@@ -98,10 +148,11 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
         raise InputError(shown, line, col, f"TOML syntax error: {exc.args[0].split(' (at')[0]}") from None
     except (OSError, UnicodeDecodeError) as exc:
         raise InputError(shown, 1, 1, f"cannot read config: {exc}") from None
-    table = data.get("tool", {}).get("packwarden", {}) if path.name == "pyproject.toml" else data
+    prefix = "tool.packwarden" if path.name == "pyproject.toml" else ""
+    table = data.get("tool", {}).get("packwarden", {}) if prefix else data
 
-    def fail(key: str, message: str) -> InputError:
-        line, col = _line_of(text, key)
+    def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
+        line, col = _line_of(text, key, tables, prefix)
         return InputError(shown, line, col, message)
 
     if not isinstance(table, dict):
@@ -111,7 +162,7 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
             close = difflib.get_close_matches(key, KNOWN_KEYS, n=1)
             raise fail(key, f"unknown config key '{key}'" +
                        (f" (did you mean '{close[0]}'?)" if close else ""))
-    cfg = Config(file=shown, folder=path.parent, text=text)
+    cfg = Config(file=shown, folder=path.parent, text=text, prefix=prefix)
     for key in ("select", "ignore", "rule_paths", "require_plugins"):
         if key in table and not (isinstance(table[key], list) and
                                  all(isinstance(v, str) for v in table[key])):
@@ -128,7 +179,8 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
     sev = table.get("severity", {})
     if not isinstance(sev, dict):
         raise fail("severity", "'severity' must be a table of rule-id = level")
-    cfg.severity = {k: _severity(v, lambda m, k=k: fail(k, f"severity of '{k}': {m}"))
+    cfg.severity = {k: _severity(v, lambda m, k=k: fail(k, f"severity of '{k}': {m}",
+                                                        ("severity", "")))
                     for k, v in sev.items()}
     rules = table.get("rules", {})
     if not isinstance(rules, dict) or not all(isinstance(v, dict) for v in rules.values()):
@@ -149,22 +201,23 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
     if cfg.file is None:
         return {rid: r.options() for rid, r in rules.items()}
 
-    def fail(key: str, message: str) -> InputError:
-        line, col = _line_of(cfg.text, key)
+    def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
+        line, col = _line_of(cfg.text, key, tables, cfg.prefix)
         return InputError(cfg.file or "", line, col, message)
 
-    def known(rid: str, where: str) -> None:
+    def known(rid: str, where: str, tables: tuple[str, ...] = ("",)) -> None:
         if rid != "all" and rid not in rules:
             close = difflib.get_close_matches(rid, list(rules), n=1)
             raise fail(rid, f"unknown rule '{rid}' in {where}" +
-                       (f" (did you mean '{close[0]}'?)" if close else ""))
+                       (f" (did you mean '{close[0]}'?)" if close else ""), tables)
 
+    rules_table = "[" + ".".join(p for p in (cfg.prefix, "rules") if p) + "]"
     for rid in cfg.select or []:
         known(rid, "select")
     for rid in cfg.ignore:
         known(rid, "ignore")
     for rid in cfg.severity:
-        known(rid, "severity")
+        known(rid, "severity", ("severity", ""))
     out: dict[str, RuleOptions] = {}
     for rid, r in rules.items():
         given = cfg.rule_options.get(rid, {})
@@ -178,9 +231,11 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
                 close = difflib.get_close_matches(name, fields, n=1)
                 raise fail(name, f"unknown option '{name}' for rule '{rid}'" +
                            (f" (did you mean '{close[0]}'?)" if close else
-                            f"; its options are: {', '.join(fields) or 'none'}")) from None
+                            f"; its options are: {', '.join(fields) or 'none'}"),
+                           (f"rules.{rid}", "rules", "")) from None
             msg = err["msg"].removeprefix("Value error, ")
-            raise fail(name, f"option '{name}' of rule '{rid}': {msg}") from None
+            raise fail(name, f"option '{name}' of rule '{rid}': {msg}",
+                       (f"rules.{rid}", "rules", "")) from None
     for rid in cfg.rule_options:
-        known(rid, "[tool.packwarden.rules]")
+        known(rid, rules_table, (f"rules.{rid}", "rules", ""))
     return out

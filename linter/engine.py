@@ -55,7 +55,14 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     from importlib.metadata import entry_points
 
     reg = Registry()
-    eps = sorted(entry_points(group=ENTRY_POINT_GROUP), key=lambda e: (e.dist.name if e.dist else "", e.name))
+
+    def order(ep) -> tuple:
+        # packwarden's own rules first, then plugins by distribution: when a plugin reuses a
+        # built-in id, the plugin is the one reported, and the outcome never depends on a name.
+        dist = ep.dist.name if ep.dist else ""
+        return (dist != "packwarden", dist, ep.name)
+
+    eps = sorted(entry_points(group=ENTRY_POINT_GROUP), key=order)
     for ep in eps:
         plugin = ep.dist.name if ep.dist else ep.module
         origin = f"{plugin}:{ep.name}"
@@ -220,8 +227,21 @@ def lint_file(session: Session, path: Path, shown: str) -> DesignResult:
     model = make_model(design, netlist)
     result.model = model
     result.figures = model_figures(model, result)
-    run_rules(session, cfg, options, doc, design, netlist, model, result)
+    run_rules(session, cfg, options, doc, design, netlist, model, result,
+              design_id=design_identity(path, root))
     return result
+
+
+def design_identity(path: Path, root: Path) -> str:
+    """The design's name in fingerprints: its path inside the repository, in POSIX form.
+
+    Not the path as shown, which is relative to the working folder: a baseline written by CI at
+    the repository root must still match when someone lints from a subfolder.
+    """
+    try:
+        return path.resolve().relative_to(root.resolve()).as_posix()
+    except ValueError:
+        return path.resolve().as_posix()
 
 
 def make_model(design: Design, netlist: Netlist) -> Any:
@@ -238,12 +258,12 @@ def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
 
 
 def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
-              netlist: Netlist, model: Any, result: DesignResult) -> None:
+              netlist: Netlist, model: Any, result: DesignResult, design_id: str | None = None) -> None:
     def where(p: tuple) -> tuple[int, int]:
         pos = doc.where(p)
         return pos.line, pos.column
 
-    design_id = Path(result.file).as_posix()
+    design_id = design_id or Path(result.file).as_posix()
     findings: list[Finding] = []
     for rid in sorted(session.registry.rules):
         rule = session.registry.rules[rid]
@@ -256,9 +276,10 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
                 findings.append(f)
         except Exception as exc:  # isolate: one broken rule must not hide the others' findings
             result.internal.append(InternalError(rid, result.file, _describe(exc)))
-    findings = [f.with_fingerprint(design_id) for f in findings]
     from .waivers import apply_waivers
     findings = apply_waivers(findings, design, doc, session.today)
+    # After the waivers, so their own findings (expired, unused) share the design's identity.
+    findings = [f.with_fingerprint(design_id) for f in findings]
     findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
     result.findings = findings
 

@@ -31,6 +31,14 @@ PIN_NAMES: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     "diode": (("anode", "cathode"), ()),
 }
 
+#: How a kind reads in a message: "a common-drain FET pair has no pin 'gate1'".
+KIND_TEXT = {
+    "cell": "cell", "protector": "protector", "fet": "FET",
+    "fet_pair_common_drain": "common-drain FET pair", "fuse": "fuse", "ptc": "PTC",
+    "resistor": "resistor", "capacitor": "capacitor", "trace": "trace", "wire": "wire",
+    "diode": "diode",
+}
+
 #: Kinds whose pins may be written as a list, in this order.
 LIST_PINS = {k: req for k, (req, opt) in PIN_NAMES.items() if len(req) == 2 and not opt}
 
@@ -107,12 +115,17 @@ def build_netlist(design: Design, parts: dict[str, Any]) -> Netlist:
         else:
             kind, part_name, given, part = comp.kind, None, comp.pins, comp
         required, optional = pin_names(kind, part)
+        before = len(problems)
         pins = _map_pins(refdes, kind, given, required, optional, path, problems)
+        # When the pins are written in the wrong form, the pins it leaves out are a consequence of
+        # that one slip, not open pins on the board: report the form, not each pin again.
+        form_wrong = any(p.kind == "pin-form" for p in problems[before:])
         for name in required:
-            if name not in pins:
+            if name not in pins and not form_wrong:
+                # One path (and so one fingerprint and waiver key) per missing pin.
                 problems.append(Problem(
-                    "unconnected-pin", refdes, path + ("pins",),
-                    f"{refdes}: required pin '{name}' of {kind} is not connected",
+                    "unconnected-pin", refdes, path + ("pins", name),
+                    f"{refdes}: required pin '{name}' of the {KIND_TEXT.get(kind, kind)} is not connected",
                     f"connect '{name}' to a net under {refdes}.pins"))
         for pin, net in pins.items():
             nets.setdefault(net, []).append(PinRef(refdes, pin))
@@ -129,14 +142,15 @@ def _map_pins(refdes: str, kind: str, given: Any, required: tuple, optional: tup
         if order is None:
             problems.append(Problem(
                 "pin-form", refdes, ppath,
-                f"{refdes}: a {kind} has named pins ({', '.join(required + optional)}); "
+                f"{refdes}: a {KIND_TEXT.get(kind, kind)} has named pins ({', '.join(required + optional)}); "
                 f"a list of nets fits only two-terminal parts",
                 f"write pins as a mapping, e.g. {{{required[0]}: NET, ...}}"))
             return {}
         if len(given) != len(order):
             problems.append(Problem(
                 "pin-form", refdes, ppath,
-                f"{refdes}: a {kind} has {len(order)} pins, {len(given)} nets are given",
+                f"{refdes}: a {KIND_TEXT.get(kind, kind)} has {len(order)} pins, "
+                f"{len(given)} {'net is' if len(given) == 1 else 'nets are'} given",
                 f"list exactly {len(order)} nets: [{', '.join(order)}]"))
             return dict(zip(order, given))
         return dict(zip(order, given))
@@ -149,10 +163,10 @@ def _map_pins(refdes: str, kind: str, given: Any, required: tuple, optional: tup
         close = difflib.get_close_matches(pin, known, n=1, cutoff=0.5)
         problems.append(Problem(
             "unknown-pin", refdes, ppath + (pin,),
-            f"{refdes}: a {kind} has no pin '{pin}' (pins: {', '.join(known)})",
+            f"{refdes}: a {KIND_TEXT.get(kind, kind)} has no pin '{pin}' (pins: {', '.join(known)})",
             f"did you mean '{close[0]}'?" if close else None))
     return pins
 
 
 __all__ = ["Netlist", "Component", "PinRef", "Problem", "build_netlist", "pin_names",
-           "PIN_NAMES", "PART_KINDS", "INLINE_KINDS"]
+           "PIN_NAMES", "KIND_TEXT", "PART_KINDS", "INLINE_KINDS"]
