@@ -169,7 +169,11 @@ def _expected(doc: Document, where: tuple, raw: Any) -> Expected:
         raise doc.error(where, "an expected finding is a mapping, e.g. "
                                "{element: Q1, message_contains: '...'}")
     _only(doc, where, raw, _EXPECT_KEYS)
-    values = {k: (str(v) if v is not None else None) for k, v in raw.items()}
+    for key, value in raw.items():
+        if value is None:  # "element: null" could mean "no element" or "any": say which is meant
+            raise doc.error(where + (key,), f"'{key}' has no value; leave the key out to match "
+                                            f"any {key}")
+    values = {k: str(v) for k, v in raw.items()}
     sev = values.pop("severity", None)
     if sev is not None:
         try:

@@ -163,6 +163,8 @@ def test_designs_are_relative_to_the_folder_holding_pyproject(tmp_path: Path) ->
     ("rule: unknown-pin\ncases:\n  - name: a\n    design: d.yaml\n    expect: []\n",
      1, "tests rule 'unknown-pin'; name it unknown-pin.yaml"),
     ("rule: unknown-part\ncases: []\n", 2, "'cases' must be a non-empty list"),
+    ("rule: unknown-part\ncases:\n  - name: a\n    design: d.yaml\n    expect:\n"
+     "      - {element: null, message_contains: no cell}\n", 6, "'element' has no value"),
 ])
 def test_case_file_mistakes_name_file_and_line(tmp_path: Path, text: str, line: int,
                                                message: str) -> None:
@@ -190,7 +192,7 @@ def test_a_case_file_outside_any_project_is_an_error(tmp_path: Path) -> None:
         load_cases(lonely)
 
 
-def test_case_options_reach_no_option_rules_as_an_error() -> None:
+def test_options_a_rule_does_not_have_are_an_error() -> None:
     case = replace(_case("opts", EXAMPLE), options={"threshold": 3})
     with pytest.raises(CaseError, match="options of rule 'unknown-part'"):
         run_case(case)

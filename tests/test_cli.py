@@ -1,0 +1,87 @@
+"""The installed ``packwarden`` command, run as a user runs it: a subprocess of the venv's script."""
+
+from __future__ import annotations
+
+import json
+import shutil
+import subprocess
+import sys
+from importlib.metadata import entry_points
+from pathlib import Path
+
+import pytest
+
+from packwarden.engine import ENTRY_POINT_GROUP, load_registry
+
+REPO = Path(__file__).resolve().parent.parent
+SCHEMAS = REPO / "schemas"
+
+
+def _command() -> str:
+    beside = Path(sys.executable).parent / "packwarden"
+    found = shutil.which("packwarden", path=str(beside.parent))
+    if found is None:
+        pytest.skip(f"no packwarden script next to {sys.executable}; install the package first")
+    return found
+
+
+def run(*args: str) -> subprocess.CompletedProcess:
+    return subprocess.run([_command(), *args], capture_output=True, text=True, encoding="utf-8",
+                          cwd=REPO)
+
+
+def builtin_ids() -> set[str]:
+    return {ep.name for ep in entry_points(group=ENTRY_POINT_GROUP)
+            if ep.dist is not None and ep.dist.name == "packwarden"}
+
+
+@pytest.mark.parametrize("kind", ["design", "parts"])
+def test_schema_prints_the_shipped_schema(kind: str) -> None:
+    shipped = SCHEMAS / f"{kind}.schema.json"
+    if not shipped.is_file():
+        pytest.skip(f"{shipped.relative_to(REPO)} is not checked in yet (the lead generates it)")
+    proc = run("schema", kind)
+    assert proc.returncode == 0, proc.stderr
+    assert json.loads(proc.stdout) == json.loads(shipped.read_text(encoding="utf-8")), (
+        f"{shipped.relative_to(REPO)} is stale: regenerate it with "
+        f"`packwarden schema {kind} > {shipped.relative_to(REPO)}`")
+
+
+def test_rules_lists_every_builtin_rule() -> None:
+    proc = run("rules")
+    assert proc.returncode == 0, proc.stdout + proc.stderr
+    listed = {line.split()[0] for line in proc.stdout.splitlines() if line.strip()}
+    assert builtin_ids() <= listed
+    # each module in rules/ is registered: a rule file without an entry point would never run
+    modules = {p.stem.replace("_", "-") for p in (REPO / "rules").glob("*.py")
+               if not p.name.startswith("_")}
+    assert modules == builtin_ids()
+    line = next(ln for ln in proc.stdout.splitlines() if ln.startswith("unknown-part "))
+    assert line.split()[1] == "error"
+    assert line.endswith("every component's part exists in the design's libraries")
+
+
+def test_explain_prints_rationale_and_example() -> None:
+    proc = run("explain", "unknown-part")
+    assert proc.returncode == 0, proc.stderr
+    rule = load_registry().rules["unknown-part"]
+    out = proc.stdout
+    assert out.startswith(f"unknown-part (error): {rule.summary}\n")
+    assert rule.rationale in out
+    assert rule.example is not None
+    assert "Fails:\n    components:\n      Q1: {part: OR-FET-D2O" in out
+    assert "Passes:\n    components:\n      Q1: {part: OR-FET-D20" in out
+    assert out.index("Fails:") < out.index("Passes:")
+
+
+def test_explain_of_an_unknown_rule_exits_2_with_a_suggestion() -> None:
+    proc = run("explain", "unknown-prat")
+    assert proc.returncode == 2
+    assert proc.stdout == ""
+    assert proc.stderr.strip() == "unknown rule 'unknown-prat' (did you mean 'unknown-part'?)"
+
+
+def test_check_of_the_clean_example_exits_0() -> None:
+    proc = run("check", "example_designs/orchard-probe.yaml")
+    assert proc.returncode == 0, proc.stdout
+    assert "1 design(s) linted, 0 could not be read; 0 error(s), 0 warning(s)" in proc.stdout
