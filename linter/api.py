@@ -104,19 +104,23 @@ class Rule:
     check: CheckFn
     options: type[RuleOptions] = NoOptions
     example: Example | None = None
+    #: "netlist" rules check the netlist itself; "electrical" rules (the default) reason about the
+    #: circuit and are held back while the netlist has integrity errors, whose knock-on effects
+    #: (a misspelt part is also "no discharge switch") would only bury the real mistake.
+    scope: str = "electrical"
     #: Where the rule came from (entry point or folder), filled in by the registry.
     origin: str = ""
 
 
 def rule(*, id: str, summary: str, severity: Severity | str = Severity.error,
-         options: type[RuleOptions] = NoOptions, example: Example | None = None
-         ) -> Callable[[CheckFn], Rule]:
+         options: type[RuleOptions] = NoOptions, example: Example | None = None,
+         scope: str = "electrical") -> Callable[[CheckFn], Rule]:
     """Turn a ``check(ctx, options)`` generator into a :class:`Rule`; its docstring is the rationale."""
 
     def wrap(fn: CheckFn) -> Rule:
         doc = (fn.__doc__ or "").strip()
         return Rule(id=id, summary=summary, rationale=_dedent(doc), severity=Severity(severity),
-                    check=fn, options=options, example=example)
+                    check=fn, options=options, example=example, scope=scope)
     return wrap
 
 

@@ -122,6 +122,8 @@ class DesignResult:
     figures: dict[str, Any] = field(default_factory=dict)
     errors: list[InputError] = field(default_factory=list)
     internal: list[InternalError] = field(default_factory=list)
+    #: Electrical rules held back because the netlist has integrity errors.
+    skipped: list[str] = field(default_factory=list)
     model: Any = None
 
 
@@ -265,15 +267,21 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
 
     design_id = design_id or Path(result.file).as_posix()
     findings: list[Finding] = []
+    broken_netlist = bool(netlist.problems)
     for rid in sorted(session.registry.rules):
         rule = session.registry.rules[rid]
         if not cfg.enabled(rid):
             continue
+        if broken_netlist and rule.scope != "netlist":
+            result.skipped.append(rid)
+            continue
         ctx = RuleContext(file=result.file, design=design, netlist=netlist, model=model,
                           rule_id=rid, severity=cfg.severity.get(rid, rule.severity), _where=where)
         try:
+            override = cfg.severity.get(rid)
             for f in rule.check(ctx, options[rid]) or ():
-                findings.append(f)
+                # the project's severity override wins even where a rule chose one per finding
+                findings.append(replace(f, severity=override) if override else f)
         except Exception as exc:  # isolate: one broken rule must not hide the others' findings
             result.internal.append(InternalError(rid, result.file, _describe(exc)))
     from .waivers import apply_waivers

@@ -110,6 +110,9 @@ def build_netlist(design: Design, parts: dict[str, Any]) -> Netlist:
                     f"did you mean '{close[0]}'?" if close else
                     "add the part to a library listed under 'libraries', or give it inline with 'kind'"))
                 components[refdes] = Component(refdes, None, comp.part, None, {}, path)
+                # its nets still count as connected, or each would look like a dangling net too
+                for pin, net in _given_pins(comp.pins):
+                    nets.setdefault(net, []).append(PinRef(refdes, pin))
                 continue
             kind, part_name, given = part.kind, comp.part, comp.pins
         else:
@@ -127,11 +130,22 @@ def build_netlist(design: Design, parts: dict[str, Any]) -> Netlist:
                     "unconnected-pin", refdes, path + ("pins", name),
                     f"{refdes}: required pin '{name}' of the {KIND_TEXT.get(kind, kind)} is not connected",
                     f"connect '{name}' to a net under {refdes}.pins"))
-        for pin, net in pins.items():
+        # With pins in the wrong form or misnamed, the nets named still count as connected
+        # (under the names given), or each would be reported as a dangling net as well.
+        listed = pins if not form_wrong else dict(_given_pins(given))
+        stray = [] if form_wrong or not isinstance(given, dict) else \
+            [(p, n) for p, n in given.items() if p not in pins]
+        for pin, net in [*listed.items(), *stray]:
             nets.setdefault(net, []).append(PinRef(refdes, pin))
         components[refdes] = Component(refdes, kind, part_name, part, pins, path)
     terminals = (design.pack.terminals.pos, design.pack.terminals.neg)
     return Netlist(components, nets, problems, terminals)
+
+
+def _given_pins(given: Any) -> list[tuple[str, str]]:
+    if isinstance(given, list):
+        return [(str(i), net) for i, net in enumerate(given, 1)]
+    return list(given.items())
 
 
 def _map_pins(refdes: str, kind: str, given: Any, required: tuple, optional: tuple, path: tuple,

@@ -9,6 +9,7 @@ and stored as a float in SI units.
 
 from __future__ import annotations
 
+import datetime
 import functools
 import re
 from enum import Enum
@@ -247,7 +248,7 @@ class Waiver(Strict):
     element: str | None = None
     reason: str = Field(min_length=3)
     approved_by: str | None = None
-    expires: str | None = Field(default=None, pattern=r"^\d{4}-\d{2}-\d{2}$")
+    expires: datetime.date | None = Field(default=None, description="YYYY-MM-DD")
 
 
 NetName = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),

@@ -22,10 +22,7 @@ def apply_waivers(findings: list[Finding], design: Design, doc: Document,
         loc = Location(doc.file, path, pos.line, pos.column)
         expired = False
         if waiver.expires:
-            try:
-                expired = _dt.date.fromisoformat(waiver.expires) < today
-            except ValueError:
-                expired = True
+            expired = waiver.expires < today
         matched = False
         for j, f in enumerate(out):
             if f.rule == waiver.rule and (waiver.element is None or f.element == waiver.element):

@@ -1,7 +1,7 @@
 from packwarden import Example, Severity, rule
 
 
-@rule(id="essential-parts", summary="the design has at least one cell and one protector",
+@rule(id="essential-parts", scope="netlist", summary="the design has at least one cell and one protector",
       severity=Severity.error, example=Example(
           bad="components:\n  BT1: {part: OR-CELL-3400, pins: {pos: B+, neg: B-}}\n  F1: {part: OR-FUSE-5A, pins: [B+, P+]}",
           good="components:\n  BT1: {part: OR-CELL-3400, pins: {pos: B+, neg: B-}}\n  U1: {part: OR-GUARD-1S, pins: {...}}\n  Q1: {part: OR-FET-D20, pins: {...}}"))

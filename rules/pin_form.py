@@ -3,7 +3,7 @@ from packwarden import Example, Severity, rule
 from ._problems import report
 
 
-@rule(id="pin-form", summary="the way pins are written fits the part's kind",
+@rule(id="pin-form", scope="netlist", summary="the way pins are written fits the part's kind",
       severity=Severity.error, example=Example(
           bad="Q1: {part: OR-FET-D20, pins: [B-, DG, MID]}   # a FET's pins have names",
           good="Q1: {part: OR-FET-D20, pins: {s1: B-, g1: DG, s2: P-, g2: CG}}"))

@@ -1,7 +1,7 @@
 from packwarden import Example, Severity, rule
 
 
-@rule(id="single-connection-net", summary="every net connects at least two pins",
+@rule(id="single-connection-net", scope="netlist", summary="every net connects at least two pins",
       severity=Severity.warning, example=Example(
           bad="R1: {kind: resistor, value: 470 Ω, pins: [B+, VDD]}\nC1: {part: CAP-100N, pins: [VD, B-]}   # VDD misspelt",
           good="R1: {kind: resistor, value: 470 Ω, pins: [B+, VDD]}\nC1: {part: CAP-100N, pins: [VDD, B-]}"))
@@ -17,6 +17,8 @@ def check(ctx, options):
         comp = ctx.netlist.components[ref.component]
         if comp.kind == "fet_pair_common_drain" and ref.pin == "d":
             continue
+        if comp.kind is None:
+            continue  # an unknown part may well have an internal node there; unknown-part says so
         others = sorted(n for n in ctx.netlist.nets if n != net and _close(n, net))
         hint = (f"did you mean '{others[0]}'?" if others else
                 f"connect net '{net}' to its other end, or remove it")

@@ -3,7 +3,7 @@ from packwarden import Example, Severity, rule
 from ._problems import report
 
 
-@rule(id="unconnected-pin", summary="every required pin of a part is connected",
+@rule(id="unconnected-pin", scope="netlist", summary="every required pin of a part is connected",
       severity=Severity.error, example=Example(
           bad="U1: {part: OR-GUARD-1S, pins: {supply: VDD, ground: B-, sense: VM, discharge_gate: DG}}",
           good="U1: {part: OR-GUARD-1S, pins: {supply: VDD, ground: B-, sense: VM, discharge_gate: DG, charge_gate: CG}}"))

@@ -3,7 +3,7 @@ from packwarden import Example, Severity, rule
 from ._problems import report
 
 
-@rule(id="unknown-part", summary="every component's part exists in the design's libraries",
+@rule(id="unknown-part", scope="netlist", summary="every component's part exists in the design's libraries",
       severity=Severity.error, example=Example(
           bad="components:\n  Q1: {part: OR-FET-D2O, pins: {...}}   # letter O for zero",
           good="components:\n  Q1: {part: OR-FET-D20, pins: {...}}"))

@@ -199,7 +199,7 @@ def test_a_rule_that_raises_is_an_internal_error_and_the_others_still_report(rep
     write_module(repo / "team", "exploding.py", '''
         from packwarden import rule
 
-        @rule(id="exploding-rule", summary="divides by zero")
+        @rule(id="exploding-rule", summary="divides by zero", scope="netlist")
         def check(ctx, options):
             """Always fails."""
             yield ctx.finding("about to fail", path=("components",))
@@ -538,3 +538,21 @@ def test_json_output_holds_each_designs_figures_and_findings(repo: Path) -> None
     [f] = by_file["designs/bad-part.yaml"]["findings"]
     assert (f["rule"], f["element"], f["location"]["path"]) == ("unknown-part", "Q1", "components.Q1.part")
     assert re.fullmatch(r"[0-9a-f]{20}", f["fingerprint"])
+
+
+def test_electrical_rules_wait_for_a_clean_netlist(repo: Path) -> None:
+    # A misspelt part must be reported once, as what it is, not also as "no discharge switch" and
+    # every other consequence of the component having no data.
+    run = lint([str(design(repo, flawed(BAD_PART)))])
+    [result] = run.designs
+    rules_fired = {f.rule for f in result.findings}
+    assert rules_fired == {"unknown-part"}
+    assert "switch-orientation" in result.skipped and "unknown-part" not in result.skipped
+
+
+def test_severity_override_applies_to_every_finding_of_the_rule(repo: Path) -> None:
+    (repo / "packwarden.toml").write_text('[severity]\nunknown-part = "info"\n', encoding="utf-8")
+    run = lint([str(design(repo, flawed(BAD_PART)))])
+    [result] = run.designs
+    assert [f.severity.value for f in result.findings if f.rule == "unknown-part"] == ["info"]
+    assert run.exit_code() == 0

@@ -13,7 +13,7 @@ solver keeps them consistent with each other:
 Sign convention, used everywhere: every branch has terminals ``a`` and ``b``, and its current is
 positive when it flows from ``a`` to ``b`` *through the branch*. For a source ``a`` is the positive
 terminal, so a discharging cell (current leaving by its positive terminal) shows a negative current.
-One convention for every kind keeps Kirchhoff's current law a plain sum over branches.
+One convention for every kind keeps the current law (KCL) a plain sum over branches.
 
 Units are SI: ohms, volts, amperes.
 """
@@ -35,8 +35,8 @@ __all__ = [
 ]
 
 #: Default on-resistance of an ideal-ish diode, in ohms. The piecewise-linear model needs a
-#: non-zero slope, and 0.1 mΩ is below the few-mΩ channels and shunts of a pack path so it barely
-#: moves results [assumption]; give the part's own figure where it matters.
+#: non-zero slope; 0.1 mΩ is a tenth of the smallest parts of a pack path, its 1 mΩ-class shunts
+#: [practice], so it barely moves results [derived]. Give the part's own figure where it matters.
 DEFAULT_DIODE_R_ON = 1e-4
 #: Default knee of a switch's body diode, in volts: a silicon junction conducts from about 0.6 to
 #: 0.8 V [practice]. Unlike a free diode it cannot default to 0 V, since a zero knee would let the
@@ -49,11 +49,11 @@ DEFAULT_BODY_DIODE_V_FORWARD = 0.7
 # node by about that fraction, far under the state tolerance below]. The elimination below never
 # subtracts conductances, so the extreme ratio costs no accuracy.
 _LEAK_FRACTION = 1e-12
-# Diode state tolerance, as a fraction of the largest voltage in the network: a diode within this
+# Diode state tolerance, as a fraction of the bound on voltages in the network: a diode within this
 # of its knee counts as consistent either way, so rounding cannot make it flip forever [derived:
 # about 1e7 times double-precision rounding of a nodal solve].
 _STATE_TOLERANCE = 1e-9
-# How close to its knee an on diode counts as carrying nothing, as a fraction of the largest voltage
+# How close to its knee an on diode counts as carrying nothing, as a fraction of the same bound
 # [derived: a few hundred times double-precision rounding, far below any current worth reporting].
 _KNEE_TOLERANCE = 1e-13
 # State sets tried before giving up; each try is one sparse solve. Pack paths hold a handful of
@@ -466,8 +466,9 @@ class Network:
 
         Injects 1 A at ``a``, holds ``b`` at 0 V and reads ``V(a)``, so any series, parallel or
         bridge arrangement is handled the same way. Sources count as their internal resistance
-        (EMF zeroed, as for any Thevenin resistance); diodes are left out, since a piecewise
-        diode has no one resistance. ``math.inf`` when no linear path joins the nets.
+        (EMF zeroed, as for any source resistance seen from the terminals); diodes are left out,
+        since a piecewise diode has no one resistance. ``math.inf`` when no linear path joins
+        the nets.
         """
         ia, ib = self._index(a), self._index(b)
         if ia == ib:
@@ -504,9 +505,11 @@ class Network:
         every diode whose state contradicts its own voltage (an off diode forward of its knee, an
         on diode carrying reverse current). If a set of states comes back, which whole-set
         flipping can do, it switches to flipping only the first inconsistent diode, a rule that
-        always terminates for networks of resistors, sources and monotone diodes [published: the
+        terminates for a fixed network of resistors, sources and monotone diodes [published: the
         least-index principal pivoting rule for linear complementarity problems with a P-matrix].
-        Raises ``ConvergenceError`` past ``max_iterations`` rounds.
+        The small leaks described below make each round's network differ very slightly, so the
+        bound stays as a guard: past ``max_iterations`` rounds ``ConvergenceError`` names the
+        diodes still changing.
         """
         index = self._net_index()
         if ground not in index:
@@ -516,8 +519,10 @@ class Network:
         n = len(index)
         ig = index[ground]
 
-        linear: list[tuple[str, int, float, int, int, float, float]] = []  # owner, sign, elem
+        linear: list[tuple[str, int, int, int, float, float]] = []  # owner, sign, p, q, g, e
         diodes: list[tuple[str, int, int, int, float, float]] = []  # owner, sign, p, q, vf, g_on
+        # No node can sit further from ground than all EMFs and knees added up (superposition),
+        # so this bounds every voltage the tolerances are relative to.
         volt_scale = 1.0
         g_min = math.inf
         for br in self._branches.values():
@@ -526,7 +531,7 @@ class Network:
                 linear.append((br.name, 1, ia, ib, 1.0 / br.ohms, 0.0))
             elif isinstance(br, Source):
                 linear.append((br.name, 1, ia, ib, 1.0 / br.r_internal, br.volts))
-                volt_scale = max(volt_scale, abs(br.volts))
+                volt_scale += abs(br.volts)
             elif isinstance(br, Diode):
                 diodes.append((br.name, 1, ia, ib, br.v_forward, 1.0 / br.r_on))
             else:
@@ -541,7 +546,7 @@ class Network:
             g_min = min(g_min, item[4])
         for item in diodes:
             g_min = min(g_min, item[5])
-            volt_scale = max(volt_scale, item[4])
+            volt_scale += item[4]
         g_leak = g_min * _LEAK_FRACTION
         v_tol = volt_scale * _STATE_TOLERANCE
         linear_elements: list[_Element] = [(p, q, g, e) for _, _, p, q, g, e in linear]

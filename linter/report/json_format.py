@@ -32,6 +32,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
             "file": d.file, "name": d.name, "figures": d.figures,
             "findings": [finding_dict(f) for f in d.findings],
             "internal_errors": [asdict(i) for i in d.internal],
+            "skipped_rules": d.skipped,
         } for d in run.designs],
     }
     return json.dumps(out, indent=2, sort_keys=False, ensure_ascii=False, allow_nan=False) + "\n"

@@ -44,6 +44,9 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                          f"{f.rule}: {f.message}{tag}")
             if f.hint and not opts.quiet:
                 block.append(f"    hint: {f.hint}")
+        if d.skipped and not opts.quiet:
+            block.append(f"{d.file}: note: {len(d.skipped)} electrical rule(s) held back until the "
+                         f"netlist errors above are fixed")
         if block:
             lines.extend(block)
             lines.append("")

@@ -1,8 +1,8 @@
 """Tests for the power-path network solver.
 
 Expected values come from outside the solver: a worked over-current example of the trade, the
-closed forms of series and parallel resistance and of current division, Kirchhoff's laws and the
-element laws, and ngspice, an independent circuit simulator run on the same parts.
+closed forms of series and parallel resistance and of current division, the current law (KCL)
+and the element laws, and ngspice, an independent circuit simulator run on the same parts.
 """
 
 from __future__ import annotations
@@ -84,9 +84,9 @@ def kcl_residuals(net: Network, currents) -> dict[str, tuple[float, float]]:
 
 
 def test_ocp_trip_current_from_sense_resistance_practice():
-    # [practice] A protector that senses the drop across its own FET pair trips at
-    # V_threshold / R_sense: 150 mV across two 25 mΩ channels in series (50 mΩ) is 3 A, and two
-    # such pairs in parallel (25 mΩ) double it to 6 A.
+    # [practice] Worked example in REFERENCES.md, "Single-cell protector": a protector sensing the
+    # drop across its own FET pair trips at V_threshold / R_sense, so 150 mV across two 25 mΩ
+    # channels in series (50 mΩ) is 3 A, and two such pairs in parallel (25 mΩ) make 6 A.
     threshold = 0.150
     one = Network()
     fet_pair(one, "A", "B-", "P-", 0.025)
@@ -123,7 +123,7 @@ def test_series_chain_matches_spice():
     net.add_resistor("RS", "P-", "N2", 0.001)
     net.add_resistor("W2", "N2", "B-", 0.0031)
     assert_matches_spice(net, "B-")
-    # Ohm's law on the loop, as an outside check of the loop current itself.
+    # I = V / R around the loop, as an outside check of the loop current itself.
     total = 0.018 + 0.004 + 0.0025 + 2.2 + 0.001 + 0.0031
     assert net.solve("B-").current("LOAD") == pytest.approx(4.1 / total, rel=1e-12)
 
@@ -244,7 +244,7 @@ def test_floating_island_with_its_own_cell_matches_spice_currents():
     sol = net.solve("B-")
     assert sol.voltage("X") is None and sol.voltage("Y") is None
     assert sol.floating == {"X", "Y"}
-    # The island's loop current is still set by Ohm's law, whatever its potential.
+    # The island's loop current is still EMF over loop resistance, whatever its potential.
     assert sol.current("RX") == pytest.approx(5.0 / 5.0, rel=1e-12)
     assert_matches_spice(net, "B-")
 
@@ -541,7 +541,7 @@ def _check_element_law(br, sol, i: float, tol_i: float, tol_v: float) -> None:
 
 @settings(deadline=None, max_examples=300)
 @given(_networks())
-def test_kirchhoff_current_law_and_element_laws_hold(case):
+def test_current_law_and_element_laws_hold(case):
     net, ground = case
     sol = net.solve(ground)
     assert sol.voltage(ground) == 0.0
