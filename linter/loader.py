@@ -6,7 +6,8 @@ Designs are reviewed, often in pull requests from anyone, so the loader is delib
   numbers. ``no``, ``on``, ``1:30`` and ``012`` stay text, and the schema then says what it wanted.
 * Duplicate keys are errors naming both lines; aliases, anchors' reuse and merge keys are refused
   (they make a reviewed file say something its text does not show, and invite expansion bombs).
-* Tags are refused: no Python objects, no custom constructors, nothing executes.
+* Tags are refused: no Python objects, no custom constructors, nothing executes. ``!!str`` alone
+  is honoured, as the quoting it stands for would be.
 * Size, nesting depth and node count are bounded.
 
 Every value keeps its line and column in a side table keyed by its YAML path, so any later stage can
@@ -55,7 +56,12 @@ class InputError(Exception):
         self.message = message
 
     def __str__(self) -> str:
-        return f"{self.file}:{self.line}:{self.column}: {self.message}"
+        # always one line: a newline or control character from the input is shown escaped
+        return _one_line(f"{self.file}:{self.line}:{self.column}: {self.message}")
+
+
+def _one_line(text: str) -> str:
+    return "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
 
 
 @dataclass
@@ -104,13 +110,22 @@ def decode(raw: bytes, shown: str) -> str:
         raise InputError(shown, 1, 1, f"file is {len(raw)} bytes; the limit is {MAX_BYTES} bytes")
     if raw.startswith(b"\xef\xbb\xbf"):
         raw = raw[3:]  # a UTF-8 byte-order mark is harmless; some editors write it
+    elif raw[:4] in (b"\xff\xfe\x00\x00", b"\x00\x00\xfe\xff"):
+        raise InputError(shown, 1, 1, "file is UTF-32; save it as UTF-8")
     elif raw[:2] in (b"\xff\xfe", b"\xfe\xff"):
         raise InputError(shown, 1, 1, "file is UTF-16; save it as UTF-8")
+    if b"\x00" in raw and len(raw) >= 4 and min(raw[0::2].count(0), raw[1::2].count(0)) == 0 \
+            and max(raw[0::2].count(0), raw[1::2].count(0)) * 4 >= len(raw):
+        # NUL in every other byte, and mostly: text saved as UTF-16 without its byte-order mark
+        raise InputError(shown, 1, 1, "file looks like UTF-16 (no byte-order mark); "
+                                      "save it as UTF-8")
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         line = raw.count(b"\n", 0, exc.start) + 1
-        col = exc.start - (raw.rfind(b"\n", 0, exc.start) + 1) + 1
+        # a column in characters, as editors and the YAML marks count; the bytes before the
+        # first bad one are valid UTF-8
+        col = len(raw[raw.rfind(b"\n", 0, exc.start) + 1:exc.start].decode("utf-8")) + 1
         raise InputError(shown, line, col, f"invalid UTF-8 byte 0x{raw[exc.start]:02x}") from None
     nul = text.find("\x00")
     if nul >= 0:
@@ -129,28 +144,103 @@ def load_text(text: str, shown: str) -> Document:
     if not text.strip():
         raise InputError(shown, 1, 1, "empty file")
     try:
+        # The event pass refuses aliases, merge keys, deep nesting and node floods before any
+        # node is built: composing a flood is what takes the time, and an alias is only exactly
+        # placed in the event stream (compose hands back the anchored node instead).
+        explicit_str = _prescan(text, shown)
         node = yaml.compose(text, Loader=_Loader)
+    except yaml.reader.ReaderError as exc:
+        line, col = _line_col(text, _reader_index(text, exc.position))
+        char = exc.character
+        char = char if isinstance(char, int) else ord(str(char)[:1] or "?")
+        raise InputError(shown, line, col, f"character U+{char:04X} cannot appear in a YAML file "
+                                           f"(control or non-printing character)") from None
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
         line, col = (mark.line + 1, mark.column + 1) if mark else (1, 1)
-        problem = exc.problem or exc.context or "invalid YAML"
+        problem = " ".join(str(exc.problem or exc.context or "invalid YAML").split())
         if mark is not None and text[mark.index:mark.index + 1] == "\t":
             problem = "a tab character cannot indent YAML; use spaces"
+        elif "another document" in problem:
+            raise InputError(shown, line, col, "a second YAML document ('---') in the file; "
+                                               "one file holds one design or library") from None
+        elif "maximum nesting depth" in problem:
+            raise InputError(shown, line, col, f"nesting deeper than {MAX_DEPTH} levels") from None
+        context = str(exc.context or "")
+        if exc.problem and exc.context_mark is not None and "flow" in context:
+            # the unclosed bracket is what a person looks for, often lines above the mark
+            bracket = "{...}" if "mapping" in context else "[...]"
+            problem += f" in the {bracket} that starts on line {exc.context_mark.line + 1}"
         raise InputError(shown, line, col, f"YAML syntax error: {problem}") from None
     except yaml.YAMLError as exc:
-        raise InputError(shown, 1, 1, f"YAML error: {exc}") from None
+        first = (str(exc).strip().splitlines() or ["invalid YAML"])[0]
+        raise InputError(shown, 1, 1, f"YAML error: {first}") from None
     except RecursionError:
         raise InputError(shown, 1, 1, f"nesting deeper than {MAX_DEPTH} levels") from None
-    if node is None:
-        raise InputError(shown, 1, 1, "empty file")
-    builder = _Builder(shown)
+    if node is None or (isinstance(node, yaml.ScalarNode) and node.value == "" and not node.style):
+        raise InputError(shown, 1, 1, "empty file")  # nothing, or only `---`
+    builder = _Builder(shown, explicit_str)
     data = builder.build(node, (), 0)
     return Document(shown, data, builder.positions, builder.key_positions)
 
 
+def _prescan(text: str, shown: str) -> set:
+    """Check the parser's events; return the positions of scalars explicitly tagged as text."""
+    explicit_str: set = set()
+    stack: list[list[bool]] = []  # per open collection: [is a mapping, next node is a key]
+    count = 0
+    for event in yaml.parse(text, Loader=_Loader):
+        if isinstance(event, (yaml.MappingEndEvent, yaml.SequenceEndEvent)):
+            stack.pop()
+            continue
+        if not isinstance(event, yaml.NodeEvent):
+            continue  # stream and document boundaries
+        is_key = bool(stack) and stack[-1][0] and stack[-1][1]
+        if stack and stack[-1][0]:
+            stack[-1][1] = not stack[-1][1]
+        mark = event.start_mark
+        line, col = mark.line + 1, mark.column + 1
+        if isinstance(event, yaml.AliasEvent):
+            raise InputError(shown, line, col, f"alias '*{event.anchor}' is not allowed; write "
+                                               f"the value out")
+        count += 1
+        if count > MAX_NODES:
+            raise InputError(shown, line, col, f"more than {MAX_NODES} YAML nodes (keys and "
+                                               f"values); the file is too large to check")
+        if len(stack) > MAX_DEPTH:
+            raise InputError(shown, line, col, f"nesting deeper than {MAX_DEPTH} levels")
+        if isinstance(event, yaml.ScalarEvent):
+            if is_key and (event.tag == _MERGE_TAG or
+                           (event.value == "<<" and event.tag is None and event.implicit[0])):
+                raise InputError(shown, line, col, "merge keys (<<) are not allowed; write the "
+                                                   "keys out")
+            if event.tag in ("!", _CORE + "str"):
+                explicit_str.add((line, col))  # `!!str 12` is the text '12'
+            elif event.tag is not None and event.tag in _CORE_TAGS:
+                # `!!int '12'` or `!!bool yes` would ask YAML 1.1 to decide what the text means
+                raise InputError(shown, line, col, f"YAML tag '{_short_tag(event.tag)}' is not "
+                                                   f"allowed; write the value plainly")
+        else:
+            stack.append([isinstance(event, yaml.MappingStartEvent), True])
+    return explicit_str
+
+
+def _reader_index(text: str, position: int) -> int:
+    """Character index of a reader error; libyaml counts UTF-8 bytes, pure Python characters."""
+    if _Loader.__name__.startswith("C"):
+        return len(text.encode("utf-8")[:position].decode("utf-8", errors="ignore"))
+    return position
+
+
+def _line_col(text: str, index: int) -> tuple[int, int]:
+    line = text.count("\n", 0, index) + 1
+    return line, index - (text.rfind("\n", 0, index) + 1) + 1
+
+
 class _Builder:
-    def __init__(self, file: str):
+    def __init__(self, file: str, explicit_str: set | None = None):
         self.file = file
+        self.explicit_str = explicit_str or set()
         self.positions: dict = {}
         self.key_positions: dict = {}
         self.seen: set[int] = set()
@@ -214,6 +304,8 @@ class _Builder:
         value = node.value
         if node.style:  # quoted or block scalar: always text (libyaml gives '' for plain)
             return value
+        if (node.start_mark.line + 1, node.start_mark.column + 1) in self.explicit_str:
+            return value
         if value in ("", "~", "null", "Null", "NULL"):
             return None
         if value in ("true", "True", "TRUE"):
@@ -221,9 +313,15 @@ class _Builder:
         if value in ("false", "False", "FALSE"):
             return False
         if _INT.match(value):
-            return int(value)
+            try:
+                return int(value)
+            except ValueError:  # Python refuses to convert thousands of digits
+                raise self.fail(node, f"a number of {len(value)} digits is too long") from None
         if _FLOAT.match(value):
-            return float(value)
+            number = float(value)
+            if number in (float("inf"), float("-inf")):
+                raise self.fail(node, f"'{value}' is too large to be a finite number")
+            return number
         if _NONFINITE.match(value):
             raise self.fail(node, f"'{value}' is not a finite number")
         return value

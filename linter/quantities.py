@@ -75,8 +75,13 @@ _PREFIX = {"Y": 1e24, "Z": 1e21, "E": 1e18, "P": 1e15, "T": 1e12, "G": 1e9, "M":
            "m": 1e-3, "u": 1e-6, "μ": 1e-6, "n": 1e-9, "p": 1e-12, "f": 1e-15, "a": 1e-18}
 
 # A plain decimal number, optional exponent, optional space, then the rest (prefix + unit).
-_SHAPE = re.compile(r"^(?P<num>[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)(?P<sp>\s?)(?P<rest>\S.*)?$")
-_RKM = re.compile(r"^\d+[RKMGkmunpVAFΩ]\d+\s*\S*$")
+# The number must end where a digit or point cannot follow, or ``4.2  V`` and ``0x10 V`` would be
+# read as the number ``4.`` or ``0`` followed by a strange unit.
+_SHAPE = re.compile(r"^(?P<num>[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)(?![\d.])"
+                    r"(?P<sp>\s?)(?P<rest>\S.*)?$")
+_RKM = re.compile(r"^(?P<a>\d+)(?P<letter>[RKMGkmunpμVAFΩ])(?P<b>\d+)\s*\S*$")
+_RKM_PREFIX = {"R": "", "V": "", "A": "", "F": "", "Ω": "", "K": "k", "u": "μ"}
+_WIDE_GAP = re.compile(r"^\S+\s{2,}\S")
 _DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d")
 _NONFINITE = re.compile(r"(?i)^[+-]?(nan|inf|infinity|\.inf|\.nan)\b")
 
@@ -91,19 +96,27 @@ def parse_quantity(text: object, unit: str) -> float:
     Raises :class:`QuantityError` with a message fit to show the user.
     """
     spec = UNITS[unit]
-    if isinstance(text, bool) or text is None:
-        raise QuantityError(f"expected {_expected(spec)}, e.g. '{_example(spec)}'; got {text!r}")
+    if text is None:
+        raise QuantityError(f"no value given; expected {_expected(spec)}, e.g. '{_example(spec)}'")
+    if isinstance(text, bool):
+        raise QuantityError(f"expected {_expected(spec)}, e.g. '{_example(spec)}'; "
+                            f"got the boolean {str(text).lower()}")
     if isinstance(text, (int, float)):
         if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month") or unit == "oz":
-            value = float(text)
+            try:
+                value = float(text)
+            except OverflowError:  # a YAML integer too large for any float
+                raise QuantityError(f"{_short(str(text))} is too large; expected "
+                                    f"{_expected(spec)}") from None
         else:
             raise QuantityError(
                 f"missing unit: write '{_fmt_number(text)} {spec.symbol}' ({spec.name})")
     elif isinstance(text, str):
         value = _parse_text(text, spec)
     else:
+        what = {"dict": "mapping"}.get(type(text).__name__, type(text).__name__)
         raise QuantityError(f"expected {_expected(spec)} as text like '{_example(spec)}', "
-                            f"got a {type(text).__name__}")
+                            f"got a {what}")
     return _check_bounds(value, spec)
 
 
@@ -112,44 +125,102 @@ def _parse_text(text: str, spec: Unit) -> float:
     if not raw:
         raise QuantityError(f"empty value; expected {_expected(spec)}")
     if _NONFINITE.match(raw):
-        raise QuantityError(f"'{text}' is not a finite number; expected {_expected(spec)}")
+        raise QuantityError(f"{_q(text)} is not a finite number; expected {_expected(spec)}")
     if _DECIMAL_COMMA.match(raw):
-        raise QuantityError(f"'{text}' uses a decimal comma; write a decimal point "
-                            f"(e.g. '{raw.replace(',', '.', 1)}')")
-    if _RKM.match(raw):
-        raise QuantityError(f"'{text}' looks like an RKM code; write the value with a decimal "
-                            f"point and unit, e.g. '{_example(spec)}'")
+        raise QuantityError(f"{_q(text)} uses a decimal comma; write a decimal point "
+                            f"(e.g. {_q(raw.replace(',', '.', 1))})")
     m = _SHAPE.match(raw)
+    rest = (m.group("rest") or "").strip() if m else ""
+    found = _unit_of(rest) if rest else None
+    rkm = _RKM.match(raw)
+    if rkm and found is None:  # `10A2s` is a number and a unit, `4k7` and `5V5` are not
+        raise QuantityError(f"{_q(text)} looks like an RKM code; write {_rkm_hint(rkm, spec)}")
     if not m:
-        raise QuantityError(f"'{text}' is not a number with a unit; expected {_expected(spec)}, "
-                            f"e.g. '{_example(spec)}'")
-    rest = (m.group("rest") or "").strip()
+        if _WIDE_GAP.match(raw):
+            raise QuantityError(f"{_q(text)}: put a single space between the number and the "
+                                f"unit, e.g. '{_example(spec)}'")
+        raise QuantityError(f"{_q(text)} is not a number with a unit; expected "
+                            f"{_expected(spec)}, e.g. '{_example(spec)}'")
     if not rest:
         if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month", "oz"):
-            return float(m.group("num"))
+            value = float(m.group("num"))
+            if not math.isfinite(value):
+                raise QuantityError(f"{_q(text)} is too large to be a finite number; expected "
+                                    f"{_expected(spec)}")
+            return value
         raise QuantityError(f"missing unit: write '{m.group('num')} {spec.symbol}' ({spec.name})")
     if rest.lower().startswith("meg"):
-        raise QuantityError(f"'{text}': 'meg' is ambiguous; write 'M' for mega")
-    canonical = _SPELLING.get(rest)
-    if canonical is not None:
-        prefix = ""
-    else:
-        prefix, canonical = rest[:1], _SPELLING.get(rest[1:])
-        if prefix not in _PREFIX or canonical is None:
-            raise QuantityError(f"'{text}': unknown unit '{rest}'; expected {_expected(spec)}")
+        raise QuantityError(f"{_q(text)}: 'meg' is SPICE's mega but reads as milli elsewhere; "
+                            f"write 'M' for mega or 'm' for milli")
+    if found is None:
+        if " " in rest or not (rest[0].isalpha() or rest[0] in "°%℃"):
+            raise QuantityError(f"{_q(text)} is not a number with a unit; expected "
+                                f"{_expected(spec)}, e.g. '{_example(spec)}'")
+        hint = _case_hint(rest, spec)
+        if hint is None and rest in _PREFIX and spec.prefixes:
+            raise QuantityError(f"{_q(text)}: {_q(rest)} is a prefix without a unit; write "
+                                f"'{m.group('num')} {rest}{spec.symbol}'")
+        raise QuantityError(f"{_q(text)}: unknown unit {_q(rest)}; expected {_expected(spec)}"
+                            + (f" (units are case-sensitive: write '{hint}')" if hint else ""))
+    prefix, canonical = found
     if canonical != spec.symbol:
-        raise QuantityError(f"'{text}' is in {UNITS[canonical].name}; expected {_expected(spec)}")
+        raise QuantityError(f"{_q(text)} is in {UNITS[canonical].name}; expected "
+                            f"{_expected(spec)}")
     if prefix and not spec.prefixes:
-        raise QuantityError(f"'{text}': {spec.name} take no SI prefix")
+        raise QuantityError(f"{_q(text)}: {spec.symbol} takes no SI prefix")
     try:
         # quantiphy reads the number and prefix; the unit has been checked above.
         q = Quantity(f"{m.group('num')}{prefix}" if prefix else m.group("num"))
     except QuantiPhyError as exc:  # pragma: no cover - the shape regex admits only numbers
-        raise QuantityError(f"'{text}': {exc}") from None
+        raise QuantityError(f"{_q(text)}: {exc}") from None
     value = float(q)
     if not math.isfinite(value):
-        raise QuantityError(f"'{text}' is not a finite number")
+        raise QuantityError(f"{_q(text)} is too large to be a finite number; expected "
+                            f"{_expected(spec)}")
     return value
+
+
+def _unit_of(rest: str) -> tuple[str, str] | None:
+    """``(prefix, canonical symbol)`` for the text after the number, or None when it is no unit."""
+    canonical = _SPELLING.get(rest)
+    if canonical is not None:
+        return "", canonical
+    prefix, canonical = rest[:1], _SPELLING.get(rest[1:])
+    if prefix in _PREFIX and canonical is not None:
+        return prefix, canonical
+    return None
+
+
+def _case_hint(rest: str, spec: Unit) -> str | None:
+    """The accepted spelling of ``rest`` when only its letter case is wrong: ``mv`` -> ``mV``."""
+    spellings = [s for s, c in _SPELLING.items() if c == spec.symbol]
+    for sp in spellings:
+        if rest.lower() == sp.lower():
+            return sp
+    if spec.prefixes and len(rest) > 1 and rest[0] in _PREFIX:
+        for sp in spellings:
+            if rest[1:].lower() == sp.lower():
+                return rest[0] + sp
+    return None
+
+
+def _rkm_hint(m: re.Match, spec: Unit) -> str:
+    """What an RKM code most likely means, written the accepted way."""
+    letter = m.group("letter")
+    prefix = _RKM_PREFIX.get(letter, letter)
+    if letter in "VAF" and letter != spec.symbol or prefix and not spec.prefixes:
+        return f"the value with a decimal point and unit, e.g. '{_example(spec)}'"
+    return f"'{m.group('a')}.{m.group('b')} {prefix}{spec.symbol}'"
+
+
+def _q(text: str) -> str:
+    """The user's text, quoted, on one line: control characters are shown escaped."""
+    shown = "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
+    return f"'{shown[:40]}…'" if len(shown) > 40 else f"'{shown}'"
+
+
+def _short(text: str) -> str:
+    return text if len(text) <= 20 else f"{text[:12]}…({len(text)} digits)"
 
 
 def _check_bounds(value: float, spec: Unit) -> float:
@@ -158,9 +229,14 @@ def _check_bounds(value: float, spec: Unit) -> float:
     if spec.minimum is not None:
         low = spec.minimum
         if value < low or (spec.exclusive and value == low):
+            # six figures, so -273.16 °C is not shown as the -273 °C it is being compared with
+            shown = format_quantity(value, spec.symbol, digits=6)
+            if spec.symbol == "°C":
+                raise QuantityError(f"{shown} is below absolute zero "
+                                    f"({format_quantity(low, spec.symbol, digits=6)})")
             word = "above" if spec.exclusive else "at least"
-            raise QuantityError(f"{format_quantity(value, spec.symbol)} is out of physics: "
-                                f"{spec.name} must be {word} {format_quantity(low, spec.symbol)}")
+            raise QuantityError(f"{shown} is out of physics: {spec.name} must be {word} "
+                                f"{format_quantity(low, spec.symbol, digits=6)}")
     return value
 
 
@@ -186,8 +262,9 @@ def format_quantity(value: float, unit: str, digits: int = 3) -> str:
         return f"{value} {unit}"
     if spec is not None and not spec.prefixes or value == 0:
         return f"{value:.{digits}g} {unit}"
-    mag = abs(value)
+    # Round first, then pick the prefix: 999.96 µV rounds to 1 mV, not to "1e+03 µV".
+    rounded = float(f"{value:.{digits}g}")
     for scale, prefix in _ENG:
-        if mag >= scale * 0.9995:
-            return f"{value / scale:.{digits}g} {prefix}{unit}"
+        if abs(rounded) >= scale * (1 - 1e-12):
+            return f"{rounded / scale:.{digits}g} {prefix}{unit}"
     return f"{value:.{digits}g} {unit}"

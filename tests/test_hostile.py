@@ -1,0 +1,302 @@
+"""Hostile input end to end: no input ends a run with a traceback, or stops the other files.
+
+Every design file of tests/hostile/ is the Orchard example with one hostile change (or a library
+change, under tests/hostile/parts/); tests/hostile/expected.yaml holds the one line
+`packwarden check <file>` must print for it. Each is linted together with a good design, which
+must still be linted. Cases that need the file system arranged at test time (symlinks, folders,
+a repository of their own) are built under tmp_path.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import shutil
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+import yaml
+from hypothesis import HealthCheck, given, settings, strategies as st
+from typer.testing import CliRunner
+
+from packwarden.cli import app
+from packwarden.engine import load_registry, lint
+from packwarden.loader import InputError, load_file
+from packwarden.report import RenderOptions, formatter
+from packwarden.schema import Design
+from packwarden.validate import validate
+
+REPO = Path(__file__).resolve().parents[1]
+HOSTILE = REPO / "tests" / "hostile"
+GOOD = REPO / "example_designs" / "orchard-probe.yaml"
+GOOD_NAME = "Orchard soil probe"
+
+_EXPECTED = yaml.safe_load((HOSTILE / "expected.yaml").read_text(encoding="utf-8"))
+CASES: dict[str, str] = _EXPECTED["cases"]
+KNOWN_BUGS: dict[str, str] = _EXPECTED.get("known_bugs") or {}
+
+
+def expected(name: str) -> str:
+    # run from tests/hostile/, the repository root is above the working folder: shown absolute
+    return CASES[name].replace("{root}", str(REPO))
+
+
+def cases(names=None) -> list:
+    out = []
+    for name in names or CASES:
+        marks = [pytest.mark.xfail(strict=True, reason=KNOWN_BUGS[name])] if name in KNOWN_BUGS else []
+        out.append(pytest.param(name, marks=marks, id=name))
+    return out
+
+
+@pytest.fixture(scope="module")
+def registry():
+    return load_registry()
+
+
+@pytest.fixture
+def in_corpus(monkeypatch):
+    monkeypatch.chdir(HOSTILE)
+
+
+def text_of(run) -> str:
+    return formatter("text")(run, RenderOptions(color=False, quiet=False))
+
+
+def assert_good_linted(run, good_file: str) -> None:
+    good = [d for d in run.designs if d.file == good_file]
+    assert len(good) == 1, f"the good design {good_file} has no result"
+    assert good[0].errors == [] and good[0].internal == []
+    assert good[0].name == GOOD_NAME and good[0].model is not None
+
+
+# --- the corpus ---------------------------------------------------------------------------------
+
+def test_corpus_and_expectations_match():
+    files = {p.name for p in HOSTILE.glob("*.yaml")} - {"expected.yaml"}
+    assert files == set(CASES), "every corpus file needs an expected line, and every line a file"
+    assert len(CASES) >= 30
+    assert set(KNOWN_BUGS) <= set(CASES)
+    for name, line in CASES.items():
+        assert "\n" not in line and line.split(":", 3)[3].startswith(" "), name
+
+
+@pytest.mark.parametrize("name", cases())
+def test_hostile_file_through_the_engine(name, in_corpus, registry, capsys):
+    run = lint([name, str(GOOD)], registry=registry)
+    assert run.exit_code() == 2
+    bad = run.designs[0]
+    assert bad.file == name
+    assert bad.internal == [], f"the input crashed the engine: {bad.internal}"
+    assert [str(e) for e in bad.errors] == [expected(name)]
+    assert_good_linted(run, str(GOOD))
+    out = text_of(run)
+    assert expected(name) in out.splitlines()
+    captured = capsys.readouterr()
+    assert "Traceback" not in out + captured.out + captured.err
+
+
+def test_the_whole_corpus_in_one_run(in_corpus, registry):
+    # A shared library cache, one bad file after another: none may disturb the rest.
+    names = list(CASES)
+    run = lint([str(GOOD), *names], registry=registry)
+    assert run.exit_code() == 2
+    assert_good_linted(run, str(GOOD))
+    by_file = {d.file: d for d in run.designs}
+    for name in names:
+        assert by_file[name].internal == []
+        if name not in KNOWN_BUGS:
+            assert [str(e) for e in by_file[name].errors] == [expected(name)], name
+
+
+CLI_CASES = ["alias-bomb.yaml", "tag-python.yaml", "invalid-utf8.yaml", "utf16.yaml",
+             "rkm-resistor.yaml", "unknown-key-typo.yaml", "library-cycle.yaml", "lib-zero-capacity.yaml"]
+
+
+@pytest.mark.parametrize("name", cases(CLI_CASES))
+def test_hostile_file_through_the_cli(name, in_corpus):
+    result = CliRunner().invoke(app, ["check", name, str(GOOD)])
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    assert result.exit_code == 2
+    assert expected(name) in result.output.splitlines()
+    assert "Traceback" not in result.output
+    assert "1 design(s) linted, 1 could not be read" in result.output
+
+
+def test_the_corpus_through_a_real_process():
+    names = [n for n in CASES if n not in KNOWN_BUGS]
+    proc = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", *names, str(GOOD)],
+                          cwd=HOSTILE, capture_output=True, text=True, encoding="utf-8")
+    assert proc.returncode == 2
+    assert "Traceback" not in proc.stdout + proc.stderr
+    lines = proc.stdout.splitlines()
+    for name in names:
+        assert expected(name) in lines, name
+    assert f"1 design(s) linted, {len(names)} could not be read" in proc.stdout
+
+
+def test_json_report_carries_the_same_errors(in_corpus):
+    names = ["yaml-nan.yaml", "negative-resistance.yaml", "library-duplicate-part.yaml"]
+    result = CliRunner().invoke(app, ["check", "--format", "json", *names, str(GOOD)])
+    assert result.exit_code == 2
+    report = json.loads(result.output)
+    assert report["exit_code"] == 2
+    printed = [f"{e['file']}:{e['line']}:{e['column']}: {e['message']}" for e in report["errors"]]
+    assert printed == [expected(n) for n in names]
+    assert [d["file"] for d in report["designs"]] == [*names, str(GOOD)]
+    assert report["designs"][-1]["name"] == GOOD_NAME
+
+
+# --- arranged at test time ----------------------------------------------------------------------
+
+def make_repo(root: Path) -> Path:
+    """A repository of its own: a packwarden.toml marks its root for library confinement."""
+    root.mkdir(parents=True, exist_ok=True)
+    (root / "packwarden.toml").write_text("", encoding="utf-8")
+    return root
+
+
+def example_with_libraries(libraries: str) -> str:
+    text = GOOD.read_text(encoding="utf-8")
+    old = "libraries: [parts/orchard-parts.yaml]"
+    assert old in text
+    return text.replace(old, f"libraries: {libraries}")
+
+
+def line_col(text: str, needle: str) -> tuple[int, int]:
+    for i, line in enumerate(text.splitlines(), 1):
+        if needle in line:
+            return i, line.index(needle) + 1
+    raise AssertionError(needle)
+
+
+def test_symlinked_library_pointing_outside_the_repository(tmp_path, monkeypatch, registry):
+    repo = make_repo(tmp_path / "repo")
+    outside = tmp_path / "outside"
+    outside.mkdir()
+    shutil.copy(HOSTILE / "parts" / "orchard-parts.yaml", outside / "orchard-parts.yaml")
+    (repo / "parts").mkdir()
+    try:
+        os.symlink(outside / "orchard-parts.yaml", repo / "parts" / "orchard-parts.yaml")
+    except (OSError, NotImplementedError):
+        pytest.skip("this file system cannot make symlinks")
+    design = example_with_libraries("[parts/orchard-parts.yaml]")
+    (repo / "design.yaml").write_text(design, encoding="utf-8")
+    shutil.copy(GOOD, repo / "good.yaml")  # same library line, resolved through the same link
+    (repo / "clean").mkdir()
+    shutil.copy(GOOD, repo / "clean" / "good.yaml")
+    shutil.copytree(HOSTILE / "parts", repo / "clean" / "parts")
+    monkeypatch.chdir(repo)
+
+    run = lint(["design.yaml", "clean/good.yaml"], registry=registry)
+    line, col = line_col(design, "[parts/orchard-parts.yaml]")
+    assert [str(e) for e in run.designs[0].errors] == [
+        f"design.yaml:{line}:{col + 1}: library path 'parts/orchard-parts.yaml' links outside the "
+        f"repository (.); libraries must live inside it"]
+    assert run.exit_code() == 2
+    assert_good_linted(run, "clean/good.yaml")
+
+
+@pytest.mark.xfail(strict=True, reason=KNOWN_BUGS.get("library-escape.yaml", "known bug"))
+def test_library_path_climbing_out_of_the_repository(tmp_path, monkeypatch, registry):
+    repo = make_repo(tmp_path / "repo")
+    (repo / "designs").mkdir()
+    design = example_with_libraries("[../../etc/passwd]")
+    (repo / "designs" / "probe.yaml").write_text(design, encoding="utf-8")
+    monkeypatch.chdir(repo)
+    run = lint(["designs/probe.yaml"], registry=registry)
+    line, col = line_col(design, "[../../etc/passwd]")
+    assert [str(e) for e in run.designs[0].errors] == [
+        f"designs/probe.yaml:{line}:{col + 1}: library path '../../etc/passwd' escapes the "
+        f"repository (.); libraries must live inside it"]
+
+
+def test_a_directory_given_as_a_path(tmp_path, monkeypatch, registry):
+    repo = make_repo(tmp_path / "repo")
+    folder = repo / "designs"
+    folder.mkdir()
+    for name in ("rkm-resistor.yaml", "invalid-utf8.yaml", "tag-python.yaml"):
+        shutil.copy(HOSTILE / name, folder / name)
+    # a part library in the same folder is not a design, so it is not linted as one
+    shutil.copy(HOSTILE / "parts" / "orchard-parts.yaml", folder / "orchard-parts.yaml")
+    monkeypatch.chdir(repo)
+    run = lint(["designs", str(GOOD)], registry=registry)
+    assert run.exit_code() == 2
+    files = [d.file for d in run.designs]
+    assert files == ["designs/invalid-utf8.yaml", "designs/rkm-resistor.yaml",
+                     "designs/tag-python.yaml", str(GOOD)]
+    out = text_of(run).splitlines()
+    for name in ("rkm-resistor.yaml", "invalid-utf8.yaml", "tag-python.yaml"):
+        assert f"designs/{expected(name)}" in out
+    assert_good_linted(run, str(GOOD))
+
+
+def test_a_missing_file(tmp_path, monkeypatch, registry):
+    monkeypatch.chdir(make_repo(tmp_path / "repo"))
+    run = lint(["no-such-design.yaml", str(GOOD)], registry=registry)
+    assert run.exit_code() == 2
+    assert [str(e) for e in run.designs[0].errors] == ["no-such-design.yaml:1:1: no such file"]
+    assert_good_linted(run, str(GOOD))
+
+
+def test_a_file_over_the_size_limit(tmp_path, monkeypatch, registry):
+    import packwarden.loader as loader
+    repo = make_repo(tmp_path / "repo")
+    big = repo / "big.yaml"
+    big.write_text(GOOD.read_text(encoding="utf-8") + "#" * 2000 + "\n", encoding="utf-8")
+    size = big.stat().st_size
+    monkeypatch.setattr(loader, "MAX_BYTES", size - 1)  # the good design stays below it
+    monkeypatch.chdir(repo)
+    run = lint(["big.yaml", str(GOOD)], registry=registry)
+    assert [str(e) for e in run.designs[0].errors] == [
+        f"big.yaml:1:1: file is {size} bytes; the limit is {size - 1} bytes"]
+    assert_good_linted(run, str(GOOD))
+
+
+# --- anything at all in a valid file's place ----------------------------------------------------
+
+VALUES = st.recursive(
+    st.none() | st.booleans() | st.integers() | st.floats() |
+    st.text(max_size=12) | st.sampled_from(["4k7", "5V5", "1,5 V", "NaN", "-1 Ω", "0 mAh", "-300 °C",
+                                            "1 meg", "resistr", "part", "kind", "pins"]),
+    lambda inner: st.lists(inner, max_size=3) | st.dictionaries(st.text(max_size=8), inner, max_size=3),
+    max_leaves=6)
+
+
+def _paths(node, path=()):
+    yield path
+    if isinstance(node, dict):
+        for k, v in node.items():
+            yield from _paths(v, path + (k,))
+    elif isinstance(node, list):
+        for i, v in enumerate(node):
+            yield from _paths(v, path + (i,))
+
+
+_DOC = load_file(GOOD, "orchard-probe.yaml")
+_PATHS = [p for p in _paths(_DOC.data) if p]
+
+
+def _replaced(data, path, value):
+    if not path:
+        return value
+    head, rest = path[0], path[1:]
+    if isinstance(data, dict):
+        out = dict(data)
+    else:
+        out = list(data)
+    out[head] = _replaced(data[head], rest, value)
+    return out
+
+
+@given(st.sampled_from(_PATHS), VALUES)
+@settings(max_examples=300, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+def test_any_value_anywhere_validates_or_gives_located_errors(path, value):
+    doc = type(_DOC)(_DOC.file, _replaced(_DOC.data, path, value), _DOC.positions, _DOC.key_positions)
+    model, errors = validate(doc, Design)
+    assert (model is None) == bool(errors)
+    for e in errors:
+        assert isinstance(e, InputError) and e.line >= 1 and e.column >= 1
+        assert "\n" not in str(e)
