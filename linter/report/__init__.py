@@ -6,13 +6,23 @@ Adding a format touches one module here and the table below.
 from __future__ import annotations
 
 import importlib
+import importlib.util
 from dataclasses import dataclass
-from typing import Callable
+from pathlib import Path
+from typing import Any, Callable
 
 FORMATS = {
     "text": "text",
     "json": "json_format",
+    "sarif": "sarif",
+    "junit": "junit",
+    "markdown": "markdown",
+    "html": "html",
 }
+
+
+class FormatUnavailable(LookupError):
+    """A format named in :data:`FORMATS` whose module is not part of this installation."""
 
 
 @dataclass(frozen=True)
@@ -20,9 +30,46 @@ class RenderOptions:
     color: bool = False
     quiet: bool = False
     repo_root: str | None = None
+    #: Set by ``--baseline`` / ``--since``: the findings hidden as unchanged and those fixed
+    #: (a :class:`packwarden.baseline.Comparison`). The run handed to ``render`` then holds only
+    #: the new findings, so a formatter that ignores this field still reports the right ones.
+    baseline: Any = None
 
 
 def formatter(name: str) -> Callable:
     """The ``render`` function of format ``name``; imported only when asked for (start-up time)."""
-    module = importlib.import_module(f"{__name__}.{FORMATS[name]}")
+    target = f"{__name__}.{FORMATS[name]}"
+    if importlib.util.find_spec(target) is None:
+        raise FormatUnavailable(f"output format '{name}' is not available in this installation")
+    module = importlib.import_module(target)
     return module.render
+
+
+def source_root(start: Path) -> Path:
+    """The folder report paths are relative to: the version-control checkout holding ``start``.
+
+    CI systems resolve report paths against their checkout, so the nearest ``.git`` wins; outside
+    a repository, the project root the engine uses (a ``pyproject.toml`` or ``packwarden.toml``).
+    """
+    from ..library import repository_root
+    start = start.resolve()
+    for folder in (start, *start.parents):
+        if (folder / ".git").exists():
+            return folder
+    return repository_root(start)
+
+
+def report_root(run: Any, opts: RenderOptions) -> Path:
+    """The root for this run's report paths: ``opts.repo_root``, else the first design's checkout."""
+    if opts.repo_root:
+        return Path(opts.repo_root).resolve()
+    files = [d.file for d in run.designs] + [e.file for e in run.input_errors()]
+    return source_root(Path(files[0]).resolve().parent if files else Path.cwd())
+
+
+def relative_path(file: str, root: Path) -> str | None:
+    """``file`` relative to ``root`` in POSIX form, or None when it lies outside."""
+    try:
+        return Path(file).resolve().relative_to(root).as_posix()
+    except ValueError:
+        return None

@@ -35,4 +35,11 @@ def render(run: RunResult, opts: RenderOptions) -> str:
             "skipped_rules": d.skipped,
         } for d in run.designs],
     }
+    cmp = opts.baseline
+    if cmp is not None:  # --baseline / --since: "designs" holds the new findings only
+        out["comparison"] = {
+            "reference": cmp.reference, "new": len(cmp.new),
+            "unchanged": [finding_dict(f) for f in cmp.unchanged],
+            "absent": [e.as_dict() for e in cmp.absent],
+        }
     return json.dumps(out, indent=2, sort_keys=False, ensure_ascii=False, allow_nan=False) + "\n"

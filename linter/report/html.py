@@ -1,0 +1,241 @@
+"""The review report: one self-contained HTML file to hold a design review over.
+
+Per design: what was reviewed, the findings (waived ones marked), the key figures, and three charts
+drawn as inline SVG (:mod:`.charts`). No script, no external font, stylesheet or image: the file
+opens the same offline, attached to a ticket or archived with a release. Jinja2 autoescaping is on,
+and the charts escape their own text, because names and messages come from the files under review.
+The output depends only on the run: rendering twice gives identical bytes.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+from jinja2 import Environment, PackageLoader, StrictUndefined
+
+from .. import __version__
+from ..api import Severity
+from ..engine import DesignResult, RunResult
+from ..quantities import format_quantity
+from . import RenderOptions
+from .charts import Chart, charts_for, span_text
+from .text import CAUTION
+
+#: The report's cautions: the text formatter's, then what a reader of a review report needs to hear.
+CAUTIONS = (
+    CAUTION,
+    "A clean report means only that the checks packwarden knows found nothing — not that the design "
+    "is safe. Figures rest on the part data in the design's libraries: check them against the "
+    "current data sheets. The cell maker's data sheet and application notes rule over any default "
+    "this tool assumes.",
+    "Waived findings are still hazards someone accepted: each waiver's reason is shown beside the "
+    "finding so the review can judge it.",
+)
+
+#: The model's key figures (``DesignModel.figures``) as the report shows them: single values,
+#: then ranges with their min/typ/max keys. Figures not named here are listed by their key.
+SINGLE_FIGURES: dict[str, tuple[str, str]] = {
+    "component_count": ("components", ""),
+    "cells": ("cells", ""),
+    "series": ("cells in series", ""),
+    "parallel": ("cells in parallel", ""),
+    "prospective_short_circuit": ("prospective short circuit", "A"),
+}
+RANGE_FIGURES: dict[str, tuple[str, str]] = {
+    "trip_current": ("over-current trip", "A"),
+    "sense_resistance": ("sense resistance", "Ω"),
+    "short_circuit_trip": ("short-circuit trip", "A"),
+    "gate_drive": ("gate drive", "V"),
+}
+
+_EXIT_MEANING = {0: "passes: nothing at or above the fail-on level",
+                 1: "fails: findings at or above the fail-on level",
+                 2: "incomplete: some input could not be used"}
+
+
+@dataclass
+class FindingView:
+    severity: str
+    rule: str
+    summary: str
+    element: str
+    where: str
+    path: str
+    message: str
+    hint: str
+    figures: list[str]
+    waived: str | None
+
+
+@dataclass
+class DesignView:
+    anchor: str
+    file: str
+    name: str
+    revision: str | None
+    description: str | None
+    counts: dict[str, int]
+    waived: int
+    findings: list[FindingView]
+    errors: list[str]
+    internal: list[str]
+    figures: list[tuple[str, str, str, str]]
+    conditions: list[tuple[str, str]]
+    charts: list[Chart]
+    assumptions: list[str] = field(default_factory=list)
+
+
+def render(run: RunResult, opts: RenderOptions) -> str:
+    designs = [_design_view(k, d, run) for k, d in enumerate(run.designs, 1)]
+    totals = {s.value: sum(v.counts[s.value] for v in designs) for s in Severity}
+    code = run.exit_code()
+    ctx = {
+        "version": __version__,
+        "title": _title(designs),
+        "designs": designs,
+        "totals": totals,
+        "waived": sum(v.waived for v in designs),
+        "exit_code": code,
+        "exit_meaning": _EXIT_MEANING.get(code, ""),
+        "fail_on": run.fail_on.value,
+        "run_errors": [str(e) for e in run.errors],
+        "broken_plugins": [m for _, m in run.broken_plugins],
+        "cautions": CAUTIONS,
+        # With --baseline/--since the run holds only the new findings; say what was left out.
+        "baseline": opts.baseline.summary() if getattr(opts, "baseline", None) is not None else None,
+    }
+    return _environment().get_template("report.html.j2").render(**ctx)
+
+
+def _environment() -> Environment:
+    # autoescape=True for every template, not by file suffix: the template's name ends in .j2.
+    return Environment(loader=PackageLoader("packwarden.report", "templates"), autoescape=True,
+                       undefined=StrictUndefined, trim_blocks=True, lstrip_blocks=True,
+                       keep_trailing_newline=True)
+
+
+def _title(designs: list[DesignView]) -> str:
+    if len(designs) == 1:
+        return f"Design review: {designs[0].name}"
+    return f"Design review: {len(designs)} designs"
+
+
+def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
+    counts = {s.value: 0 for s in Severity}
+    waived = 0
+    findings = []
+    for f in d.findings:
+        if f.waived:
+            waived += 1
+        else:
+            counts[f.severity.value] += 1
+        rule = run.rules.get(f.rule)
+        findings.append(FindingView(
+            severity=f.severity.value, rule=f.rule, summary=rule.summary if rule else "",
+            element=f.element or "", where=_where(f.location, d.file),
+            path=f.location.dotted, message=f.message, hint=f.hint or "",
+            figures=[fig.text() for fig in f.figures], waived=f.waived))
+    model = d.model
+    design = model.design if model is not None else None
+    info = design.design if design is not None else None
+    view = DesignView(
+        anchor=f"design-{k}", file=d.file, name=d.name or d.file,
+        revision=info.revision if info else None, description=info.description if info else None,
+        counts=counts, waived=waived, findings=findings,
+        errors=[str(e) for e in d.errors],
+        internal=[f"internal error in '{i.rule}': {i.message}" for i in d.internal],
+        figures=_figures(d.figures),
+        conditions=_safely(_conditions, model) if model is not None else [],
+        charts=charts_for(model) if model is not None and not d.errors else [])
+    if model is not None:
+        view.assumptions = _safely(_assumptions, model)
+    return view
+
+
+def _safely(build: Any, model: Any) -> list:
+    """``build(model)``, or nothing when a model figure fails: the engine has already reported
+    that failure as an internal error, and the rest of the report must still be written."""
+    try:
+        return build(model)
+    except Exception:
+        return []
+
+
+def _where(loc: Any, design_file: str) -> str:
+    """Line and column; the file too when it is not the design's own (a part library)."""
+    at = f"{loc.line}:{loc.column}"
+    return at if loc.file == design_file else f"{loc.file}:{at}"
+
+
+def _figures(figures: dict[str, Any]) -> list[tuple[str, str, str, str]]:
+    """Rows of (figure, min, typ, max); a single value sits in the typ column."""
+    out = []
+    used: set[str] = set()
+    for stem, (label, unit) in RANGE_FIGURES.items():
+        keys = [f"{stem}_{end}" for end in ("min", "typ", "max")]
+        if any(k in figures for k in keys):
+            used.update(keys)
+            out.append((label, *(_value(figures.get(k), unit) if k in figures else "" for k in keys)))
+    singles = [k for k in SINGLE_FIGURES if k in figures]
+    others = sorted(k for k in figures if k not in used and k not in SINGLE_FIGURES)
+    for key in singles + others:
+        label, unit = SINGLE_FIGURES.get(key, (key.replace("_", " "), ""))
+        out.append((label, "", _value(figures[key], unit), ""))
+    return out
+
+
+def _value(value: Any, unit: str) -> str:
+    if value is None:
+        return "—"
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        return str(value)
+    if unit:
+        return format_quantity(float(value), unit)
+    return f"{value:g}"
+
+
+def _conditions(model: Any) -> list[tuple[str, str]]:
+    """What the design says it is for: the conditions every figure is computed at."""
+    design = model.design
+    out = []
+    a = design.pack.ambient
+    out.append(("ambient", f"{a.min:g} to {a.max:g} °C"))
+    load = design.load
+    out.append(("continuous load", format_quantity(load.continuous, "A")))
+    if load.peak is not None:
+        out.append(("peak load", f"{format_quantity(load.peak.current, 'A')} for "
+                                 f"{format_quantity(load.peak.duration, 's')}"))
+    ch = design.charger
+    if ch is not None:
+        v = ch.voltage
+        out.append(("charger voltage", span_text(v.low, v.high, "V", 4)))
+        per = model.charger_per_cell
+        if per is not None and model.stack is not None and model.stack.series != 1:
+            out.append(("charger voltage per cell", span_text(per.low, per.high, "V", 4)))
+        out.append(("charger current", format_quantity(ch.current, "A")))
+        out.append(("charger open-circuit max", format_quantity(ch.open_circuit_max, "V")))
+    stack = model.stack
+    if stack is not None:
+        out.append(("cell stack", f"{stack.series}S{stack.parallel}P of "
+                                  f"{stack.cells[0].part_name or stack.cells[0].refdes}"))
+    return out
+
+
+def _assumptions(model: Any) -> list[str]:
+    """What the figures rest on that the design did not say, each once, in first-seen order."""
+    seen: list[str] = []
+
+    def add(notes) -> None:
+        for n in notes:
+            if n not in seen:
+                seen.append(n)
+
+    if model.cell_limits is not None:
+        add(model.cell_limits.assumptions)
+    for window in (model.overcurrent_trip, model.short_circuit_trip):
+        if window is not None:
+            for op in (window.low, window.typ, window.high):
+                add(op.assumptions)
+    add(f"{p.what}: {p.message}" for p in model.problems)
+    return seen
