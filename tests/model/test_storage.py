@@ -1,0 +1,216 @@
+"""Shelf life in storage: the charge above the cut-off against the drains the netlist implies."""
+
+from pathlib import Path
+
+import pytest
+
+from packwarden.engine import lint
+from packwarden.model import ocv
+from packwarden.model.storage import DEFAULT_SELF_DISCHARGE
+
+REPO = Path(__file__).resolve().parents[2]
+
+LIB = """\
+format: packwarden-parts/1
+parts:
+  S-CELL:
+    kind: cell
+    chemistry: nmc
+    capacity: 1000 mAh
+    voltage: {charge: 4.2 V, upper_limit: 4.25 V, overcharge_limit: 4.35 V, nominal: 3.6 V,
+              cutoff: 2.5 V, lower_limit: 2.0 V}
+    internal_resistance: {typ: 50 mΩ, max: 70 mΩ}
+    max_current: {discharge: 5 A, charge: 1 A}
+{sd}    ocv:
+      - {soc: 0 %, voltage: {empty}}
+      - {soc: 10 %, voltage: 3.30 V}
+      - {soc: 44 %, voltage: 3.70 V}
+      - {soc: 100 %, voltage: 4.20 V}
+  S-GUARD:
+    kind: protector
+    overcharge: {detect: {typ: 4.30 V, tol: 25 mV}, release: {typ: 4.10 V, tol: 50 mV}, delay: 1.2 s}
+    overdischarge: {detect: {typ: 2.45 V, tol: 50 mV}, release: {typ: 3.0 V, tol: 100 mV}, delay: 150 ms}
+    overcurrent: {detect: {typ: 150 mV, tol: 15 mV}, delay: {min: 5 ms, max: 15 ms}}
+    supply_current: {operating: {typ: 2 uA, max: 3 uA}, power_down: {max: 0.1 uA}}
+  S-PAIR:
+    kind: fet_pair_common_drain
+    channel: n
+    vds_max: 20 V
+    vgs_max: 12 V
+    vgs_th: {max: 1.0 V}
+    rds_on: [{vgs: 2.5 V, typ: 25 mΩ, max: 30 mΩ}, {vgs: 4.5 V, typ: 20 mΩ, max: 25 mΩ}]
+    rds_on_hot_ratio: {at: 125 °C, ratio: 1.5}
+    id_max: 10 A
+    theta_ja: 83 K/W
+{idss}"""
+
+DESIGN = """\
+format: packwarden/1
+design: {name: storage test}
+libraries: [lib.yaml]
+pack: {ambient: {min: 0 °C, max: 40 °C}}
+load: {continuous: 0.5 A}
+storage: {soc: {soc}, duration: 12 months, temperature: {temp}}
+components:
+  BT1: {part: S-CELL, pins: {pos: B+, neg: B-}}
+  U1: {part: S-GUARD, pins: {supply: VDD, ground: B-, sense: VM, discharge_gate: DG, charge_gate: CG}}
+  R1: {kind: resistor, value: 470 Ω, pins: [B+, VDD]}
+  R2: {kind: resistor, value: 2 kΩ, pins: [VM, P-]}
+  Q1: {part: S-PAIR, pins: {s1: B-, g1: DG, d: MID, s2: P-, g2: CG}}
+  F1: {kind: fuse, rated_current: 5 A, rated_voltage: 32 V, breaking_capacity: 1000 A, pins: [B+, P+]}
+{extra}"""
+
+
+def _fill(template: str, **values: str) -> str:
+    for key, value in values.items():
+        template = template.replace("{" + key + "}", value)
+    return template
+
+
+def model(tmp_path, *, extra="", sd="2 %/month", soc="44 %", temp="25 °C", idss="",
+          empty="2.50 V"):
+    (tmp_path / "packwarden.toml").write_text("")
+    sd_line = f"    self_discharge: {sd}\n" if sd else ""
+    (tmp_path / "lib.yaml").write_text(_fill(LIB, sd=sd_line, idss=idss, empty=empty),
+                                       encoding="utf-8")
+    path = tmp_path / "d.yaml"
+    path.write_text(_fill(DESIGN, extra=extra, soc=soc, temp=temp), encoding="utf-8")
+    run = lint([str(path)])
+    assert not run.input_errors(), [str(e) for e in run.input_errors()]
+    (result,) = run.designs
+    assert not result.internal, result.internal
+    return result.model
+
+
+def test_shelf_life_worked_vector_through_the_design(tmp_path):
+    # REFERENCES.md "Storage and self-discharge" vector [derived]: a 1000 mAh cell at about 44 %
+    # losing 2 %/month plus a 3 µA drain (2.19 mAh/month) loses 22.2 mAh/month and reaches empty
+    # in about 19.8 months. Here the 3 µA is the protector's maximum supply current, the cell's
+    # table puts 44 % at 3.70 V and empty (0 %) at the 2.50 V over-discharge detection maximum,
+    # and the FETs give no leakage: nothing else drains.
+    b = model(tmp_path).storage_budget
+    first = b.to_cutoff
+    assert (first.start_soc, first.end_soc) == pytest.approx((0.44, 0.0))
+    assert first.drain_current == pytest.approx(3e-6)
+    assert first.drain_current * ocv.HOURS_PER_MONTH == pytest.approx(2.19e-3, rel=1e-3)
+    assert first.loss_ah_per_month == pytest.approx(22.2e-3, abs=0.05e-3)
+    assert first.months == pytest.approx(19.8, abs=0.05)
+
+
+def test_shelf_life_vector_drain_alone(tmp_path):
+    # Same vector [derived]: the 3 µA drain alone empties the cell in about 201 months.
+    b = model(tmp_path, sd="0 %/month").storage_budget
+    assert b.to_cutoff.months == pytest.approx(201, abs=0.5)
+
+
+def test_self_discharge_doubles_per_10_degrees(tmp_path):
+    # [practice] REFERENCES.md: self-discharge roughly doubles per 10 °C; 2 %/month at 25 °C is
+    # 4 %/month at 35 °C, so with 3 µA on top the cell empties in 440 / (40 + 2.19) months.
+    b = model(tmp_path, temp="35 °C").storage_budget
+    assert b.self_discharge_pct == pytest.approx(4.0)
+    assert b.to_cutoff.months == pytest.approx(440 / (40 + 2.19), rel=1e-3)
+
+
+def test_default_self_discharge_is_named_as_an_assumption(tmp_path):
+    # Without a data-sheet figure the default, 2 %/month (the upper end of REFERENCES.md's
+    # 1-2 %/month [practice]), is used and said; the vector's 19.8 months follow again.
+    b = model(tmp_path, sd="").storage_budget
+    assert DEFAULT_SELF_DISCHARGE == 2.0
+    assert b.self_discharge_pct == pytest.approx(2.0)
+    assert any("no cell self_discharge" in a for a in b.assumptions)
+    assert b.to_cutoff.months == pytest.approx(19.8, abs=0.05)
+
+
+def test_a_divider_across_the_cell_drains_v_over_r(tmp_path):
+    # Ohm's law [published: definition]: a 1 MΩ + 100 kΩ divider across the cell at the 3.70 V of
+    # 44 % draws 3.70 V / 1.1 MΩ = 3.36 µA, found by the nodal solve of the netlist.
+    m = model(tmp_path, extra="  R5: {kind: resistor, value: 1 MΩ, pins: [B+, MON]}\n"
+                               "  R6: {kind: resistor, value: 100 kΩ, pins: [MON, B-]}\n")
+    first = m.storage_budget.to_cutoff
+    [path] = [d for d in first.drains if d.what == "resistive paths"]
+    assert path.current == pytest.approx(3.70 / 1.1e6, rel=1e-6)
+    assert set(path.elements) == {"R5", "R6"}
+    # 440 mAh over (2.19 + 2.45 + 20) mAh/month [derived]
+    assert first.months == pytest.approx(440 / (20 + (3e-6 + 3.70 / 1.1e6) * 730e3), rel=1e-4)
+
+
+def test_a_load_behind_the_discharge_switch_stops_at_the_cut_off(tmp_path):
+    # A 100 kΩ bleeder across the pack terminals drains through the switches while they are on
+    # (3.70 V / 100 kΩ = 37 µA, the on channels' milliohms are nothing beside it), and not at all
+    # once the discharge switch is off after the cut-off [derived: no path].
+    m = model(tmp_path, empty="2.00 V",
+              extra="  R7: {kind: resistor, value: 100 kΩ, pins: [P+, P-]}\n")
+    b = m.storage_budget
+    [before] = [d for d in b.to_cutoff.drains if d.what == "resistive paths"]
+    assert before.current == pytest.approx(3.70 / 100e3, rel=1e-4)
+    assert b.to_lower_limit is not None
+    assert not [d for d in b.to_lower_limit.drains if d.what == "resistive paths"]
+    # after the cut-off: power-down current 0.1 µA [the part's own figure]
+    assert b.to_lower_limit.drain_current == pytest.approx(0.1e-6)
+
+
+def test_a_lit_led_counts_at_its_declared_current(tmp_path):
+    # An LED the cell can light (anode at B+, through a resistor to B-) counts at the 1 mA the
+    # design declares for it, not at what a piecewise-linear diode gives.
+    m = model(tmp_path, extra="  D1: {kind: diode, led: true, forward_voltage: 2.0 V, current: 1 mA, "
+                               "pins: {anode: B+, cathode: K}}\n"
+                               "  R8: {kind: resistor, value: 2.2 kΩ, pins: [K, B-]}\n")
+    first = m.storage_budget.to_cutoff
+    [led] = [d for d in first.drains if d.what == "LED"]
+    assert led.current == pytest.approx(1e-3, rel=1e-6)
+    assert not [d for d in first.drains if d.what == "resistive paths"]
+
+
+def test_an_led_behind_an_open_switch_is_not_lit(tmp_path):
+    # The cathode goes to a net the netlist drives from nowhere (a product's switch): no path.
+    m = model(tmp_path, extra="  D1: {kind: diode, led: true, current: 1 mA, "
+                               "pins: {anode: B+, cathode: LED_EN}}\n")
+    assert not [d for d in m.storage_budget.to_cutoff.drains if d.what == "LED"]
+
+
+def test_fet_leakage_counts_the_discharge_switch(tmp_path):
+    m = model(tmp_path, idss="    idss: 1 uA\n")
+    [leak] = [d for d in m.storage_budget.to_cutoff.drains if d.what == "FET leakage"]
+    assert leak.current == pytest.approx(1e-6)  # one discharge channel, Q1.1
+
+
+def _example_copy(tmp_path, name: str, library: str, extra: str = "", storage: str = ""):
+    """The model of an example design copied into ``tmp_path`` with its library, plus lines."""
+    (tmp_path / "packwarden.toml").write_text("")
+    (tmp_path / "parts").mkdir()
+    (tmp_path / "parts" / library).write_text((REPO / "example_designs/parts" / library).read_text())
+    path = tmp_path / name
+    path.write_text(storage + (REPO / "example_designs" / name).read_text() + extra)
+    run = lint([str(path)])
+    assert not run.input_errors(), [str(e) for e in run.input_errors()]
+    (result,) = run.designs
+    assert not result.internal, result.internal
+    return result.model
+
+
+def test_the_nmc_dataset_sets_the_cut_off_charge(tmp_path):
+    # [published: open NMC dataset, REFERENCES.md] 0.2 % at 2.535 V and 1.0 % at 2.760 V; the
+    # orchard probe's 2.55 V over-discharge detection maximum sits at
+    # 0.2 + 0.8 × (2.55 − 2.535) / (2.760 − 2.535) = 0.2533 % [derived: linear interpolation].
+    m = _example_copy(tmp_path, "orchard-probe.yaml", "orchard-parts.yaml",
+                      storage="storage: {soc: 40 %, duration: 12 months}\n")
+    b = m.storage_budget
+    assert b.to_cutoff.end_soc * 100 == pytest.approx(0.2 + 0.8 * 0.015 / 0.225, rel=1e-6)
+    assert "nmc table" in " ".join(b.assumptions)
+
+
+def test_each_level_of_a_stack_is_drained_on_its_own(tmp_path):
+    # The 4S2P example with a 100 kΩ bleeder from tap B1 to B-: only the bottom level feeds it,
+    # 3.60 V (30 % on the cell's own table) / 100 kΩ = 36 µA [published: Ohm's law], and the
+    # bottom level is the one that reaches the cut-off first.
+    from packwarden.model.storage import level_drains
+    m = _example_copy(tmp_path, "ridgeline-tool-4s2p.yaml", "ridgeline-parts.yaml",
+                      extra="  R40: {kind: resistor, value: 100 kΩ, pins: [B1, B-]}\n")
+    b = m.storage_budget
+    per_level = level_drains(m, 3.60)
+    assert b.to_cutoff.level == 1
+    bottom = sum(d.current for d in per_level[1])
+    top = sum(d.current for d in per_level[4])
+    assert bottom - top == pytest.approx(3.60 / 100e3, rel=1e-4)
+    # the divider R21/R22 across the whole stack drains every level alike: 14.4 V / 1.15 MΩ
+    assert top == pytest.approx(4 * 3.60 / 1.15e6, rel=1e-4)
