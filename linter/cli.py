@@ -18,6 +18,10 @@ app = typer.Typer(add_completion=False, no_args_is_help=True, pretty_exceptions_
 class Format(str, Enum):
     text = "text"
     json = "json"
+    sarif = "sarif"
+    junit = "junit"
+    markdown = "markdown"
+    html = "html"
 
 
 class Level(str, Enum):
@@ -26,9 +30,15 @@ class Level(str, Enum):
     info = "info"
 
 
+class Distribution(str, Enum):
+    uniform = "uniform"
+    normal = "normal"
+
+
 class SchemaKind(str, Enum):
     design = "design"
     parts = "parts"
+    policy = "policy"
 
 
 def _use_color(output: Optional[Path], fmt: str) -> bool:
@@ -46,34 +56,188 @@ def check(
         None, "--fail-on", help="lowest severity that fails the run (default: config, else error)"),
     config: Optional[Path] = typer.Option(None, "--config", help="use this config file"),
     quiet: bool = typer.Option(False, "--quiet", "-q", help="only findings that fail the run"),
+    baseline: Optional[Path] = typer.Option(
+        None, "--baseline", metavar="FILE",
+        help="report only findings not recorded in FILE; only they count for the exit code"),
+    write_baseline: Optional[Path] = typer.Option(
+        None, "--write-baseline", metavar="FILE",
+        help="record the current findings in FILE (exit 0 unless an input could not be used)"),
+    since: Optional[str] = typer.Option(
+        None, "--since", metavar="REV",
+        help="compare with the designs and libraries at git revision REV; report new findings"),
+    designs_only: bool = typer.Option(
+        False, "--designs-only",
+        help="skip named files that are not designs (e.g. part libraries passed by pre-commit)"),
+    require_plugins: Optional[str] = typer.Option(
+        None, "--require-plugins", metavar="NAME[,NAME]",
+        help="fail at once (exit 2) unless these rule distributions are installed"),
+    yield_samples: Optional[int] = typer.Option(
+        None, "--yield", metavar="N", min=1, max=10_000_000,
+        help="also run N Monte Carlo builds over the declared tolerances: share failing, in ppm"),
+    seed: int = typer.Option(20240601, "--seed",  # packwarden.montecarlo.DEFAULT_SEED
+                             help="seed of the --yield run (fixed by default)"),
+    distribution: Distribution = typer.Option(
+        Distribution.uniform, "--distribution",
+        help="--yield draws: uniform within the limits, or normal with the tolerance as 3σ"),
 ) -> None:
     """Lint designs; exit 0 clean, 1 findings at or above --fail-on, 2 input could not be used."""
     from .api import Severity
-    from .engine import lint
-    from .report import RenderOptions, formatter
+    from .baseline import compare, lint_since, read_baseline
+    from .baseline import write_baseline as record_baseline
+    from .engine import Registry, RequiredPluginError, lint
+    from .loader import InputError
+    from .progress import progress_for
+    from .report import FormatUnavailable, RenderOptions, formatter
 
-    run = lint(paths, config=config, fail_on=Severity(fail_on.value) if fail_on else None)
-    text = formatter(format.value)(run, RenderOptions(color=_use_color(output, format.value),
-                                                      quiet=quiet))
+    try:
+        render = formatter(format.value)
+    except FormatUnavailable as exc:
+        sys.stderr.write(f"packwarden check: {exc}\n")
+        raise typer.Exit(2)
+    if baseline is not None and since is not None:
+        sys.stderr.write("packwarden check: --baseline and --since cannot be combined\n")
+        raise typer.Exit(2)
+    if designs_only:
+        paths = _designs_only(paths)
+    level = Severity(fail_on.value) if fail_on else None
+    bar = progress_for(sys.stderr, quiet=quiet)
+    try:
+        run = lint(paths, config=config, fail_on=level, progress=bar,
+                   require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()])
+    except RequiredPluginError as exc:
+        sys.stderr.write(f"{exc}\n")
+        raise typer.Exit(2)
+    finally:
+        if bar is not None:
+            bar.close()
+
+    def note(message: str) -> None:
+        if not quiet:
+            sys.stderr.write(message + "\n")
+
+    comparison = None
+    try:
+        if write_baseline is not None:
+            try:
+                n = record_baseline(run, write_baseline)
+            except OSError as exc:
+                raise InputError(str(write_baseline), 1, 1,
+                                 f"cannot write the baseline: {exc.strerror or exc}") from None
+            note(f"{n} finding(s) recorded in baseline {write_baseline}")
+        if baseline is not None:
+            run, comparison = compare(run, read_baseline(baseline, str(baseline)), str(baseline))
+        elif since is not None:
+            entries, earlier_errors = lint_since(since, paths, Registry(rules=dict(run.rules)),
+                                                 config=config, fail_on=level)
+            run, comparison = compare(run, entries, f"git revision {since}")
+            comparison.earlier_errors = earlier_errors
+    except InputError as exc:  # one line, exit 2; the report of the run is still written
+        run.errors.append(exc)
+    text = render(run, RenderOptions(color=_use_color(output, format.value), quiet=quiet,
+                                     baseline=comparison))
+    if yield_samples:
+        from .montecarlo import add_yield
+        text = add_yield(text, format.value, run, yield_samples, seed, distribution.value)
+    if output is not None:
+        try:
+            output.write_text(text, encoding="utf-8")
+        except OSError as exc:
+            sys.stderr.write(f"{output}:1:1: cannot write the report: {exc.strerror or exc}\n")
+            raise typer.Exit(2)
+    else:
+        sys.stdout.write(text)
+    if comparison is not None:
+        note(comparison.summary())
+    code = run.exit_code()
+    if write_baseline is not None and comparison is None and code == 1:
+        code = 0  # every finding is now in the baseline just written
+    raise typer.Exit(code)
+
+
+def _designs_only(paths: List[str]) -> List[str]:
+    """Folders, and files that declare ``format: packwarden/1``; a file that can't be read stays
+    in, so its error is still reported."""
+    from .engine import is_design_text
+    kept = []
+    for raw in paths:
+        p = Path(raw)
+        if p.is_file():
+            try:
+                with open(p, encoding="utf-8", errors="replace") as fh:
+                    if not is_design_text(fh.read(4096)):
+                        continue
+            except OSError:
+                pass
+        kept.append(raw)
+    return kept
+
+
+class DocsKind(str, Enum):
+    rules = "rules"
+
+
+@app.command()
+def docs(
+    kind: DocsKind = typer.Argument(DocsKind.rules, help="which reference: rules"),
+    output: Optional[Path] = typer.Option(None, "--output", "-o", help="write it here"),
+) -> None:
+    """Print the reference generated from metadata: `docs rules` is docs/rules.md."""
+    from .docs import builtin_rules, render_rules
+    from .engine import load_registry
+    text = render_rules(builtin_rules(load_registry().rules))
     if output is not None:
         output.write_text(text, encoding="utf-8")
     else:
         sys.stdout.write(text)
-    raise typer.Exit(run.exit_code())
 
 
 @app.command()
-def schema(kind: SchemaKind = typer.Argument(SchemaKind.design, help="design or parts")) -> None:
-    """Print the JSON Schema of design files or part libraries."""
+def schema(kind: SchemaKind = typer.Argument(SchemaKind.design,
+                                             help="design, parts or policy")) -> None:
+    """Print the JSON Schema of design files, part libraries or team policy files."""
     from .schema import json_schema
     sys.stdout.write(json.dumps(json_schema(kind.value), indent=2, ensure_ascii=False) + "\n")
 
 
+@app.command("new-rule")
+def new_rule(
+    name: str = typer.Argument(..., help="the rule id, e.g. fuse-derating"),
+    directory: Path = typer.Option(Path("."), "--dir", help="make the package folder in here"),
+) -> None:
+    """Make a rule package: entry point, rule module with an option and example, and tests."""
+    from .scaffold import ScaffoldError
+    from .scaffold import new_rule as make
+    try:
+        files = make(name, directory)
+    except (ScaffoldError, OSError) as exc:
+        sys.stderr.write(f"packwarden new-rule: {exc}\n")
+        raise typer.Exit(2)
+    sys.stdout.write(f"made {files[0].parent}/ ({len(files)} files); next: "
+                     f"pip install -e '{files[0].parent}[test]' && "
+                     f"python -m pytest -q {files[0].parent}\n")
+
+
 @app.command("rules")
-def list_rules() -> None:
-    """List the rules from the registry: id, default severity, summary."""
+def list_rules(
+    config: Optional[Path] = typer.Option(
+        None, "--config", help="take rule folders from this config (default: the one found here)"),
+) -> None:
+    """List the rules from the registry: id, default severity, summary.
+
+    Installed rules, and the rules of the folders the config names (``rule_paths``), as
+    ``packwarden check`` run from here would load them.
+    """
+    from .config import find_config, load_config
     from .engine import load_registry
-    reg = load_registry()
+    from .library import shown_path
+    from .loader import InputError
+    path = config or find_config(Path.cwd())
+    try:
+        folders = load_config(path, shown_path(path) if path else None).rule_paths
+    except InputError as exc:
+        sys.stdout.write(f"{exc}\n")
+        raise typer.Exit(2)
+    reg = load_registry(folders)
     width = max((len(r) for r in reg.rules), default=10)
     for rid in sorted(reg.rules):
         r = reg.rules[rid]

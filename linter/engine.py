@@ -12,7 +12,7 @@ import sys
 import traceback
 from dataclasses import dataclass, field, replace
 from pathlib import Path
-from typing import Any, Iterable
+from typing import Any, Callable, Iterable
 
 from .api import Finding, Location, Rule, RuleContext, Severity
 from .config import Config, check_against_rules, find_config, load_config
@@ -33,6 +33,8 @@ class Registry:
     #: Plugins that failed to load: (name, message). Reported; the rest still run.
     broken: list[tuple[str, str]] = field(default_factory=list)
     plugins: set[str] = field(default_factory=set)
+    #: Installed distributions that register rules, by normalized name (``--require-plugins``).
+    distributions: set[str] = field(default_factory=set)
 
     def add(self, obj: Any, origin: str, plugin: str) -> None:
         items = obj if isinstance(obj, (list, tuple)) else [obj]
@@ -65,10 +67,12 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     eps = sorted(entry_points(group=ENTRY_POINT_GROUP), key=order)
     for ep in eps:
         plugin = ep.dist.name if ep.dist else ep.module
+        if ep.dist is not None:
+            reg.distributions.add(normalize_name(ep.dist.name))
         origin = f"{plugin}:{ep.name}"
         try:
             obj = ep.load()
-        except Exception as exc:  # a broken plugin must not stop the others
+        except (Exception, SystemExit) as exc:  # a broken plugin must not stop the others
             reg.broken.append((origin, f"plugin {origin} failed to load: "
                                        f"{type(exc).__name__}: {exc}"))
             reg.plugins.add(plugin)
@@ -98,11 +102,76 @@ def load_folder(reg: Registry, folder: Path) -> None:
             rules = getattr(module, "RULES", None)
             if rules is None:
                 rules = [v for v in vars(module).values() if isinstance(v, Rule)]
-        except Exception as exc:
+        except (Exception, SystemExit) as exc:
             reg.broken.append((origin, f"rule module {origin} failed to load: "
                                        f"{type(exc).__name__}: {exc}"))
             continue
         reg.add(list(rules), origin, origin)
+
+
+# --- required plugins ---------------------------------------------------------------------------
+
+class RequiredPluginError(Exception):
+    """A plugin the run must have (``--require-plugins``, config ``require_plugins``) is missing.
+
+    Raised before any design is read: a review without the team's rules would pass designs the
+    team's own checks fail, so the run stops at once with exit code 2.
+    """
+
+
+def normalize_name(name: str) -> str:
+    """A distribution name as packaging compares them (PEP 503): case and -_. runs folded."""
+    import re
+    return re.sub(r"[-_.]+", "-", name).lower()
+
+
+def missing_plugins(registry: Registry, names: Iterable[str]) -> list[str]:
+    """One message per required distribution that registers no rules in this installation."""
+    from importlib.metadata import PackageNotFoundError, distribution
+
+    out = []
+    for name in names:
+        if normalize_name(name) in registry.distributions:
+            continue
+        try:
+            distribution(name)
+        except PackageNotFoundError:
+            have = ", ".join(sorted(registry.distributions)) or "none"
+            out.append(f"required plugin '{name}' is not installed (distributions registering "
+                       f"rules here: {have}); install it, or drop it from the required plugins")
+        else:
+            out.append(f"required plugin '{name}' is installed but registers no rules in the "
+                       f"'{ENTRY_POINT_GROUP}' entry-point group")
+    return out
+
+
+def require_plugins(registry: Registry, names: Iterable[str] = (), cfg: Config | None = None) -> None:
+    """Raise :class:`RequiredPluginError` unless every plugin named here or in ``cfg`` is installed.
+
+    Names given directly (the command line) are reported as ``--require-plugins``; names from the
+    config point at the config's line.
+    """
+    lines = [f"--require-plugins: {m}" for m in missing_plugins(registry, names)]
+    for name in _config_required(cfg):
+        for m in missing_plugins(registry, [name]):
+            from .config import _line_of
+            line, col = _line_of(cfg.text, name, ("",), cfg.prefix) if cfg else (1, 1)
+            lines.append(f"{cfg.file}:{line}:{col}: {m}")
+    if lines:
+        raise RequiredPluginError("\n".join(lines))
+
+
+def _config_required(cfg: Config | None) -> list[str]:
+    # Config keeps no field for this key (config.py validates it is a list of strings), so read it
+    # from the table again rather than widen Config for one list.
+    if cfg is None or not cfg.text:
+        return []
+    if getattr(cfg, "require_plugins", None) is not None:
+        return list(cfg.require_plugins)
+    from .config import tomllib
+    data = tomllib.loads(cfg.text)
+    table = data.get("tool", {}).get("packwarden", {}) if cfg.prefix else data
+    return list(table.get("require_plugins", []))
 
 
 # --- results ------------------------------------------------------------------------------------
@@ -124,6 +193,9 @@ class DesignResult:
     internal: list[InternalError] = field(default_factory=list)
     #: Electrical rules held back because the netlist has integrity errors.
     skipped: list[str] = field(default_factory=list)
+    #: Rules that ran on this design (enabled by its config and not held back), for reports
+    #: that list passing checks (JUnit).
+    checked: list[str] = field(default_factory=list)
     model: Any = None
 
 
@@ -160,12 +232,17 @@ def is_design_text(head: str) -> bool:
     return False
 
 
-def discover(paths: Iterable[str]) -> list[tuple[Path, str]]:
-    """Files named directly, and design files (``format: packwarden/1``) inside named folders."""
+def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> list[tuple[Path, str]]:
+    """Files named directly, and design files (``format: packwarden/1``) inside named folders.
+
+    A named folder holding no design is an error (in ``errors``): a typo in a CI path must not
+    pass as "nothing to report".
+    """
     out: list[tuple[Path, str]] = []
     for raw in paths:
         p = Path(raw)
         if p.is_dir():
+            before = len(out)
             for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
                 try:
                     with open(f, encoding="utf-8", errors="replace") as fh:
@@ -174,6 +251,9 @@ def discover(paths: Iterable[str]) -> list[tuple[Path, str]]:
                     continue
                 if is_design_text(head):
                     out.append((f, shown_path(f)))
+            if len(out) == before and errors is not None:
+                errors.append(InputError(raw, 1, 1, "no design files (format: packwarden/1) in "
+                                                    "this folder"))
         else:
             out.append((p, raw))
     return out
@@ -201,6 +281,47 @@ class Session:
             except InputError as exc:
                 self.configs[path] = (None, {}, exc)
         return self.configs[path]
+
+    #: Team policies by file, read once per run: (policy or None, its errors).
+    policies: dict[Path, tuple[Any, list[InputError]]] = field(default_factory=dict)
+
+    def policy_for(self, cfg: Config) -> Any:
+        """The team policy ``cfg`` names (``packwarden.policy.Policy``), or None.
+
+        A policy with mistakes is reported once for the run (see :func:`lint`) and checks
+        nothing; the rules still run, so one typo in the policy does not hide every finding.
+        """
+        if cfg.policy is None:
+            return None
+        key = cfg.policy.resolve()
+        if key not in self.policies:
+            from .policy import read_policy
+            shown = shown_path(cfg.policy)
+            root = repository_root(cfg.folder or cfg.policy.parent)
+            line, col = _config_position(cfg, "policy")
+            try:
+                key.relative_to(root.resolve())
+            except ValueError:
+                self.policies[key] = (None, [InputError(
+                    cfg.file or "", line, col, f"policy file {shown} lies outside the repository "
+                    f"of this config ({shown_path(root)}); keep it beside the config")])
+            else:
+                if not cfg.policy.is_file():
+                    self.policies[key] = (None, [InputError(
+                        cfg.file or "", line, col, f"policy file {shown} " + (
+                            "is not a file" if cfg.policy.exists() else "does not exist"))])
+                    return None
+                policy, errors = read_policy(cfg.policy, shown)
+                self.policies[key] = (policy, errors)
+        return self.policies[key][0]
+
+    def policy_errors(self) -> list[InputError]:
+        return [e for _, errors in self.policies.values() for e in errors]
+
+
+def _config_position(cfg: Config, key: str) -> tuple[int, int]:
+    from .config import _line_of
+    return _line_of(cfg.text, key, ("",), cfg.prefix)
 
 
 def lint_file(session: Session, path: Path, shown: str) -> DesignResult:
@@ -275,15 +396,29 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
         if broken_netlist and rule.scope != "netlist":
             result.skipped.append(rid)
             continue
+        result.checked.append(rid)
         ctx = RuleContext(file=result.file, design=design, netlist=netlist, model=model,
                           rule_id=rid, severity=cfg.severity.get(rid, rule.severity), _where=where)
         try:
             override = cfg.severity.get(rid)
             for f in rule.check(ctx, options[rid]) or ():
+                if not isinstance(f, Finding):  # caught here, not later where it takes all down
+                    raise TypeError(f"rule yielded {type(f).__name__}, not a Finding "
+                                    f"(use ctx.finding(...))")
                 # the project's severity override wins even where a rule chose one per finding
                 findings.append(replace(f, severity=override) if override else f)
-        except Exception as exc:  # isolate: one broken rule must not hide the others' findings
+        except (Exception, SystemExit) as exc:  # isolate: one broken rule must not hide the others
             result.internal.append(InternalError(rid, result.file, _describe(exc)))
+    policy = session.policy_for(cfg)
+    if policy is not None:
+        from .policy import check_policy
+
+        def ctx_for(limit) -> RuleContext:
+            return RuleContext(file=result.file, design=design, netlist=netlist, model=model,
+                               rule_id=limit.rule, severity=limit.severity, _where=where)
+        found, held = check_policy(policy, ctx_for, result.figures, netlist, broken_netlist)
+        findings.extend(found)
+        result.skipped.extend(held)
     from .waivers import apply_waivers
     findings = apply_waivers(findings, design, doc, session.today)
     # After the waivers, so their own findings (expired, unused) share the design's identity.
@@ -300,27 +435,42 @@ def _describe(exc: BaseException) -> str:
 
 
 def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | None = None,
-         fail_on: Severity | None = None) -> RunResult:
-    found = discover(paths)
+         fail_on: Severity | None = None,
+         progress: Callable[[int, int, str], None] | None = None,
+         require: Iterable[str] = ()) -> RunResult:
+    """Lint every design found under ``paths``; ``progress(done, total, file)`` after each one.
+
+    ``require`` names plugin distributions that must be installed (``--require-plugins``); with
+    the config's ``require_plugins`` they are checked before any design is read, and a missing
+    one raises :class:`RequiredPluginError`.
+    """
+    discovery_errors: list[InputError] = []
+    found = discover(paths, discovery_errors)
     reg = registry
     cfg_error: InputError | None = None
+    # Team rule folders and required plugins come from the config of the first design's project
+    # (or --config): code is loaded once per run, never per design.
+    first_cfg_path = config or (find_config(found[0][0].parent) if found else None)
+    first_cfg: Config | None = None
+    try:
+        first_cfg = load_config(first_cfg_path, shown_path(first_cfg_path) if first_cfg_path else None)
+    except InputError as exc:
+        cfg_error = exc
     if reg is None:
-        # Team rule folders come from the config of the first design's project (or --config).
-        first_cfg_path = config or (find_config(found[0][0].parent) if found else None)
-        rule_paths: list[Path] = []
-        try:
-            rule_paths = load_config(first_cfg_path, shown_path(first_cfg_path) if first_cfg_path else None).rule_paths
-        except InputError as exc:
-            cfg_error = exc
-        reg = load_registry(rule_paths)
+        reg = load_registry(first_cfg.rule_paths if first_cfg else [])
+        require_plugins(reg, require, first_cfg)
+    else:  # the caller chose the rules (a second pass of --since, tests): only its own demands
+        require_plugins(reg, require)
     session = Session(registry=reg, config_override=config)
-    run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken))
-    for path, shown in found:
+    run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken), errors=discovery_errors)
+    for done, (path, shown) in enumerate(found, 1):
         try:
             run.designs.append(lint_file(session, path, shown))
         except Exception as exc:  # last resort: no input may end the run with a traceback
             run.designs.append(DesignResult(file=shown, internal=[
                 InternalError("engine", shown, _describe(exc))]))
+        if progress is not None:
+            progress(done, len(found), shown)
     # a bad config is reported once, not once per design
     seen: set[str] = set()
     for d in run.designs:
@@ -334,6 +484,8 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
         d.errors = kept
     if cfg_error is not None and str(cfg_error) not in seen:
         run.errors.append(cfg_error)
+    # a policy's mistakes are the run's, reported once however many designs it covers
+    run.errors.extend(e for e in session.policy_errors() if str(e) not in seen)
     if fail_on is not None:
         run.fail_on = fail_on
     else:

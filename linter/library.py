@@ -84,11 +84,22 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
             errors.append(owner.error(where, f"library '{entry}' cannot be resolved"))
             return
         if Path(entry).is_absolute() or not _inside(real, root):
-            what = "links outside" if candidate.is_symlink() or _inside(candidate.absolute(), root) \
+            # Said apart because the fixes differ: a path written to climb out, or a link (inside
+            # the repository as written) that points outside it.
+            lexical = Path(os.path.normpath(base.resolve() / entry))
+            what = "links outside" if not Path(entry).is_absolute() and _inside(lexical, root) \
                 else "escapes"
             errors.append(owner.error(where, f"library path '{entry}' {what} the repository "
                                              f"({shown_path(root) or '.'}); libraries must live "
                                              f"inside it"))
+            return
+        if not real.exists():
+            looked = shown_path(real)
+            errors.append(owner.error(where, f"library '{entry}' not found" +
+                                      (f" (looked for {looked})" if looked != entry else "")))
+            return
+        if real.is_dir():
+            errors.append(owner.error(where, f"library '{entry}' is a directory, not a YAML file"))
             return
         if real in stack:
             chain = " -> ".join(shown_path(p) for p in (*stack, real))

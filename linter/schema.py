@@ -192,6 +192,12 @@ class Range(Strict):
     def _ordered(self) -> "Range":
         if self.min > self.max:
             raise ValueError("min is above max")
+        # Beyond this no lithium pack operates, charges or is stored; such a number is a typo
+        # (a unit or sign slip), and the temperature models are meaningless there [practice].
+        for value in (self.min, self.max):
+            if not -100.0 <= value <= 200.0:
+                raise ValueError(f"{value:g} °C is outside -100 °C to 200 °C, where no battery "
+                                 f"pack works; check the value and its sign")
         return self
 
 
@@ -313,6 +319,48 @@ class Threshold(Strict):
     release_on: list[ReleaseOn] = Field(default_factory=list)
 
 
+class CurrentThreshold(Threshold):
+    """An over-current or short-circuit detection; it may release by retrying on its own."""
+
+    retry_period: Seconds | None = Field(
+        default=None, description="time between automatic retries (with release_on: [auto_retry])")
+
+    @model_validator(mode="after")
+    def _retrying(self) -> "CurrentThreshold":
+        if self.retry_period is not None and ReleaseOn.auto_retry not in self.release_on:
+            raise ValueError("'retry_period' needs 'auto_retry' in 'release_on'")
+        return self
+
+
+class OhmsRange(Strict):
+    min: Ohms | None = None
+    max: Ohms | None = None
+
+    @model_validator(mode="after")
+    def _ordered(self) -> "OhmsRange":
+        if self.min is not None and self.max is not None and self.min > self.max:
+            raise ValueError("min is above max")
+        return self
+
+
+class FaradsRange(Strict):
+    min: Farads | None = None
+    max: Farads | None = None
+
+    @model_validator(mode="after")
+    def _ordered(self) -> "FaradsRange":
+        if self.min is not None and self.max is not None and self.min > self.max:
+            raise ValueError("min is above max")
+        return self
+
+
+class SupplyFilter(Strict):
+    """The protector maker's recommended supply filter: series resistor and capacitor ranges."""
+
+    r: OhmsRange | None = Field(default=None, description="series resistor from the cell's + to supply")
+    c: FaradsRange | None = Field(default=None, description="capacitor from supply to ground")
+
+
 class SupplyCurrent(Strict):
     operating: Tol("A")
     power_down: Tol("A") | None = None
@@ -325,12 +373,12 @@ class Protector(Strict):
     cells: int = Field(default=1, ge=1, le=16)
     overcharge: Threshold
     overdischarge: Threshold
-    overcurrent: Threshold
-    short_circuit: Threshold | None = None
+    overcurrent: CurrentThreshold
+    short_circuit: CurrentThreshold | None = None
     supply_current: SupplyCurrent
     gate_drive: Literal["cell"] | Volts = Field(
         default="cell", description="'cell' when the gates are driven at the cell voltage")
-    supply_filter: dict[str, Any] | None = Field(
+    supply_filter: SupplyFilter | None = Field(
         default=None, description="recommended supply filter: {r: {min, max}, c: {min, max}}")
 
 
@@ -369,6 +417,9 @@ class FetCommon(Strict):
     rds_on_hot_ratio: HotRatio | None = None
     id_max: Amps
     id_pulse_max: Amps | None = None
+    turn_off_time: Seconds | None = Field(
+        default=None, description="drain current fall time when the gate is pulled off, for "
+                                  "turn-off spikes (1 µs assumed when not given)")
     theta_ja: KelvinPerWatt
     tj_max: Celsius = 150.0
     idss: Amps | None = Field(default=None, description="drain leakage at vds_max")
@@ -531,6 +582,9 @@ class PartLibrary(Strict):
 
 def json_schema(which: str) -> dict:
     """The JSON Schema of a design or a part library, in draft-07-compatible keywords."""
+    if which == "policy":  # the team policy's model lives with its checks in policy.py
+        from .policy import policy_json_schema
+        return policy_json_schema()
     model = {"design": Design, "parts": PartLibrary}[which]
     schema = model.model_json_schema(ref_template="#/definitions/{model}", mode="validation")
     defs = schema.pop("$defs", {})

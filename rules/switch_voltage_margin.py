@@ -17,33 +17,47 @@ class Options(RuleOptions):
 def check(ctx, options):
     """An off switch holds the whole difference between the cell stack and whatever sits on the
     pack terminals: the stack itself under load, a charger's open-circuit voltage against a
-    depleted stack, and a reversed charger in series with the stack. Each must stay within the
-    FET's drain-source rating with derating. The gate sees the protector's drive, which must stay
+    depleted stack, a reversed charger in series with the stack, and — when the design gives
+    ``pack.wiring_inductance`` — the stack plus the L·di/dt spike of turning off a short. Each must
+    stay within the FET's drain-source rating with derating. The gate sees the protector's drive, which must stay
     within the gate rating with derating, and must exceed the gate threshold at the lowest cell
     voltage the protector allows, or the FET is not fully on near the end of discharge."""
     m = ctx.model
     gd = m.gate_drive
     seen = set()
+    for ch, why in m.gate_drive_problems:
+        yield ctx.finding(
+            f"{ch.name} ({ch.role} switch, {ch.channel}-channel) cannot be turned on by "
+            f"{m.protector.refdes}: {why}",
+            path=ch.path + ("pins",), element=ch.package, key=f"drive-{ch.name}",
+            hint="use a p-channel FET on the positive rail or an n-channel FET on the negative "
+                 "rail, or a protector with a gate driver (give its drive as gate_drive: 12 V)")
     for ch in m.channels:
         if ch.role is None:
             continue
         part, path = ch.part, ("components", ch.package, "part")
         cases = m.blocking_voltage(ch.role)
+        spike = m.turn_off_spike(ch)
+        if spike is not None:
+            # The turn-off spike of a short rides on the stack voltage; derated here like any
+            # other peak, and against the bare rating (avalanche) in short-circuit-stress.
+            cases = sorted(cases + [(spike.describe(), spike.total)], key=lambda c: -c[1])
         if cases:
             what, v = cases[0]
             limit = part.vds_max * options.vds_derating
             total = v
             if total > limit:
-                spike = ""
                 yield ctx.finding(
-                    f"{ch.name} ({ch.role} switch) must block {fq(total, 'V')} ({what}{spike}) but "
+                    f"{ch.name} ({ch.role} switch) must block {fq(total, 'V')} ({what}) but "
                     f"{fq(options.vds_derating * 100, '%', 2)} of its vds_max {fq(part.vds_max, 'V')} "
                     f"is {fq(limit, 'V')}",
                     path=path, element=ch.package, key=f"vds-{ch.name}",
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
                     hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"
-                         + (", or prevent reverse charger connection" if "reversed" in what else ""))
+                         + (", or prevent reverse charger connection" if "reversed" in what else "")
+                         + (", or lower the wiring inductance, slow the turn-off or clamp the pack "
+                            "terminals with a TVS diode" if "wiring spike" in what else ""))
         if gd is None or ch.package in seen:
             continue
         seen.add(ch.package)
@@ -55,11 +69,11 @@ def check(ctx, options):
                 path=path, element=ch.package, key="vgs",
                 figures=[Figure("gate drive max", gd.high, "V"), Figure("vgs_max", part.vgs_max, "V")],
                 hint=f"use a FET with vgs_max ≥ {fq(gd.high / options.vgs_derating, 'V')}, or clamp the gate")
-        if part.vgs_th.high >= gd.low:
+        if ch.vgs_th_max >= gd.low:
             yield ctx.finding(
-                f"{ch.package} gate threshold max {fq(part.vgs_th.high, 'V')} is not below the lowest "
+                f"{ch.package} gate threshold max {fq(ch.vgs_th_max, 'V')} is not below the lowest "
                 f"gate drive {fq(gd.low, 'V')} (over-discharge detection): the FET is not fully on "
                 f"near the end of discharge",
                 path=path, element=ch.package, key="vgs-th",
-                figures=[Figure("vgs_th max", part.vgs_th.high, "V"), Figure("gate drive min", gd.low, "V")],
+                figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.low, "V")],
                 hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")

@@ -22,7 +22,8 @@ def check(ctx, options):
     margin, else the protector cuts off at the end of every charge) and below the cell's overcharge
     limit; each release must lie on the safe side of its detection; over-discharge detection must
     stay above the cell's lower limit. The protector must be made for the pack's cell count and
-    chemistry. Where a data sheet gives no limit, a documented per-chemistry default is used and
+    chemistry, and in a series stack each cell input (cell1 at the bottom ... cellN at the top)
+    must sense its own tap, since every threshold is per cell. Where a data sheet gives no limit, a documented per-chemistry default is used and
     named in the finding."""
     m = ctx.model
     p, limits, stack = m.protector, m.cell_limits, m.stack
@@ -42,6 +43,18 @@ def check(ctx, options):
             path=ppath, element=p.refdes, key="cell-count",
             figures=[Figure("protector cells", part.cells, ""), Figure("series cells", stack.series, "")],
             hint=f"use a protector for {stack.series} series cell(s)")
+    for pin, net, reached, want in m.cell_taps:
+        if reached != want:
+            where = "no tap of the stack" if reached is None else (
+                "the stack's bottom" if reached == 0 else f"the top of cell {reached}")
+            # A pin on the wrong tap measures two cells, or none, as one: every per-cell threshold
+            # of that pin and its neighbour is then off by a whole cell voltage.
+            yield ctx.finding(
+                f"{p.refdes}.{pin} senses net {net}, {where}, but {pin} must sense the top of cell "
+                f"{want} from the bottom: the per-cell thresholds of that cell and its neighbour "
+                f"compare the wrong voltages",
+                path=("components", p.refdes, "pins", pin), element=p.refdes, key=f"tap-{pin}",
+                hint=f"connect {pin} to the net at the top of cell {want} (cell1 is the bottom cell)")
     if part.chemistry and limits.chemistry not in {c.value for c in part.chemistry}:
         made = ", ".join(c.value for c in part.chemistry)
         yield ctx.finding(

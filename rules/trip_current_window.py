@@ -10,7 +10,8 @@ from packwarden import Example, Figure, RuleOptions, Severity, format_quantity a
           good="load: {continuous: 1.2 A}   # trip window 1.8-7.8 A"))
 def check(ctx, options):
     """Trip current is the detection voltage over the sense resistance, which is usually the
-    switch FETs' own on-resistance. Over detection tolerance, part spread, gate drive (cell
+    switch FETs' own on-resistance, or a shunt resistor between the protector's ground and sense
+    pins (the resistance is the path's transresistance, from a nodal solve, either way). Over detection tolerance, part spread, gate drive (cell
     voltage) and ambient, with self-heating from the load, it spans a window. A load just below
     the trip is never cut off, so the window's maximum must stay within what every element carries
     continuously: the cells' discharge rating and each FET channel's id_max as the current divides.
@@ -44,7 +45,7 @@ def check(ctx, options):
             f"just below the trip is never cut off{assumed(t.high)}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
             key="max-vs-cell", figures=window + [Figure("cell limit", cell_limit, "A")],
-            hint=_resistance_hint(t, t.max / cell_limit, "raise", "maximum", cell_limit))
+            hint=_resistance_hint(t, t.max / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
     # FET channels: current divides across parallel packages as their resistances do
     for ch in m.channels:
         if ch.role is None:
@@ -70,10 +71,11 @@ def check(ctx, options):
             yield ctx.finding(
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
                 f"the pack may cut out in normal use (at {t.low.ambient:.0f} °C ambient, "
-                f"{fq(t.low.vgs, 'V')} gate drive, highest on-resistance){assumed(t.low)}",
+                f"{fq(t.low.vgs, 'V')} gate drive, highest "
+                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.low)}",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
                 figures=window + [Figure(what, current, "A")],
-                hint=_resistance_hint(t, current / t.min, "lower", "minimum", current))
+                hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
     sc, psc = m.short_circuit_trip, m.prospective_short_circuit
     if sc is not None and psc is not None and psc <= sc.max:
         yield ctx.finding(
@@ -89,9 +91,23 @@ def _channel_current(m, t, name):
     return t.high.share.get(name, 0.0) * t.max
 
 
-def _resistance_hint(t, factor, verb, end, target):
-    """How far the sense resistance must move, said as the per-channel on-resistance to look for."""
+def _shunts(m):
+    """The shunt resistors the sense input sees, when it sees no switch channel."""
+    return m.sense_elements if m.sense_by_shunt else ()
+
+
+def _resistance_hint(t, factor, verb, end, target, shunts=()):
+    """How far the sense resistance must move, said as the per-channel on-resistance to look for
+    or, with shunt sensing, as the shunt resistance."""
     op = t.low if end == "minimum" else t.high
+    if shunts:
+        now = op.sense_resistance
+        needed = now / factor if end == "minimum" else now * factor
+        names = ", ".join(shunts)
+        bound = "≤" if end == "minimum" else "≥"
+        return (f"a shunt ({names}) of {bound} {fq(needed, 'Ω')} at its tolerance limit (now "
+                f"{fq(now, 'Ω')}) would bring the {end} trip to {fq(target, 'A')}; or a protector "
+                f"with a {'higher' if end == 'minimum' else 'lower'} over-current detection voltage")
     per = [v for v in op.rds.values()]
     if not per:
         return None

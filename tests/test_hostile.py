@@ -199,7 +199,6 @@ def test_symlinked_library_pointing_outside_the_repository(tmp_path, monkeypatch
     assert_good_linted(run, "clean/good.yaml")
 
 
-@pytest.mark.xfail(strict=True, reason=KNOWN_BUGS.get("library-escape.yaml", "known bug"))
 def test_library_path_climbing_out_of_the_repository(tmp_path, monkeypatch, registry):
     repo = make_repo(tmp_path / "repo")
     (repo / "designs").mkdir()

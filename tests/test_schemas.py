@@ -12,7 +12,7 @@ from packwarden.schema import json_schema
 ROOT = Path(__file__).resolve().parents[1]
 
 
-@pytest.mark.parametrize("which", ["design", "parts"])
+@pytest.mark.parametrize("which", ["design", "parts", "policy"])
 def test_shipped_schema_is_current(which):
     shipped = json.loads((ROOT / "schemas" / f"{which}.schema.json").read_text(encoding="utf-8"))
     assert shipped == json_schema(which), (
@@ -20,7 +20,7 @@ def test_shipped_schema_is_current(which):
         f"schemas/{which}.schema.json`")
 
 
-@pytest.mark.parametrize("which", ["design", "parts"])
+@pytest.mark.parametrize("which", ["design", "parts", "policy"])
 def test_schema_is_valid_draft07(which):
     # Draft-07 keywords so YAML language servers can complete and check designs as people type.
     jsonschema.Draft7Validator.check_schema(json_schema(which))

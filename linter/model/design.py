@@ -95,6 +95,12 @@ class SwitchChannel:
     gate_pin: str  # the pin name of the gate, for messages ("g1", "g")
     path: tuple  # YAML path of the component
 
+    @property
+    def vgs_th_max(self) -> float:
+        """Largest gate threshold magnitude: p-channel sheets print V_GS(th) negative."""
+        t = self.part.vgs_th
+        return max(abs(v) for v in (t.min, t.typ, t.max) if v is not None)
+
 
 @dataclass(frozen=True)
 class OperatingPoint:
@@ -315,6 +321,187 @@ class DesignModel:
     def channels_of(self, role: str) -> list[SwitchChannel]:
         return [ch for ch in self.channels if ch.role == role]
 
+    # --- series stacks: levels, rail side, gate-drive reach, cell taps, what the sense sees ---
+
+    @cached_property
+    def stack_levels(self) -> dict[str, int]:
+        """Net -> level in the stack: 0 at its bottom, ``series`` at its top."""
+        if self.stack is None:
+            return {}
+        level = {self.stack.bottom: 0}
+        for _ in range(len(self.stack.cells)):
+            for c in self.stack.cells:
+                n, p = c.pins["neg"], c.pins["pos"]
+                if n in level and p not in level:
+                    level[p] = level[n] + 1
+        return level
+
+    @cached_property
+    def high_side(self) -> dict[str, bool]:
+        """Channel name -> True when the channel switches the positive rail.
+
+        Read off a solve of the path under load: a channel whose source sits above half the stack
+        voltage is on the positive side [derived], whatever the drawing calls it.
+        """
+        if self.stack is None or not self.channels:
+            return {}
+        emf = self.cell_limits.nominal if self.cell_limits else 3.6
+        net = self.network({ch.name: 1e-3 for ch in self.channels}, cell_emf=emf, cell_r=0.01,
+                           temp=25.0, max_ohms=_SIGNAL_OHMS)
+        try:
+            sol = net.solve(ground=self.stack.bottom)
+        except NetworkError:
+            return {}
+        top = sol.voltages.get(self.stack.top)
+        out = {}
+        for ch in self.channels:
+            v = sol.voltages.get(ch.source)
+            if v is not None and top:
+                out[ch.name] = v > top / 2
+        return out
+
+    @cached_property
+    def gate_drive_problems(self) -> tuple[tuple[SwitchChannel, str], ...]:
+        """Switches the protector's drive cannot turn on, each with the reason.
+
+        With ``gate_drive: cell`` the gate outputs swing between the protector's ground and its
+        supply, so an n-channel switch must sit on the negative rail and a p-channel one on the
+        positive rail; an n-channel switch on the positive rail needs a driver above the stack,
+        declared as a fixed drive (``gate_drive: 12 V``) [practice].
+        """
+        p = self.protector
+        if p is None or p.part.gate_drive != "cell":
+            return ()
+        out = []
+        for ch in self.channels:
+            high = self.high_side.get(ch.name)
+            if ch.role is None or high is None:
+                continue
+            if ch.channel == "n" and high:
+                out.append((ch, "an n-channel switch on the positive rail needs its gate driven "
+                                "above the stack, and with gate_drive: cell the gate cannot rise "
+                                "above its source"))
+            elif ch.channel == "p" and not high:
+                out.append((ch, "a p-channel switch on the negative rail needs its gate pulled "
+                                "below the stack's bottom, and with gate_drive: cell the gate "
+                                "cannot fall below its source"))
+        return tuple(out)
+
+    @cached_property
+    def cell_taps(self) -> tuple[tuple[str, str | None, int | None, int], ...]:
+        """Each cell pin of a multi-cell protector: (pin, net, level it reaches, level it should).
+
+        ``cellK`` senses the top of the K-th cell from the bottom (level K). A pin reaches its tap
+        directly or through one series resistor (an input filter); level None when it reaches no
+        net of the stack.
+        """
+        p, levels = self.protector, self.stack_levels
+        if p is None or p.part.cells < 2 or not levels:
+            return ()
+        out = []
+        for k in range(1, p.part.cells + 1):
+            pin = f"cell{k}"
+            net = p.pins.get(pin)
+            if net is None:
+                continue
+            reached = levels.get(net)
+            if reached is None:
+                for r in self.netlist.of_kind("resistor"):
+                    a, b = r.pins.get("1"), r.pins.get("2")
+                    far = b if a == net else a if b == net else None
+                    if far in levels:
+                        reached = levels[far]
+                        break
+            out.append((pin, net, reached, k))
+        return tuple(out)
+
+    @cached_property
+    def sense_elements(self) -> tuple[str, ...]:
+        """Parts of the power path whose resistance the protector's sense input sees.
+
+        Asked of the solver, not read off the drawing: each element's resistance is doubled in
+        turn, and it counts when the transresistance from load current to sense voltage moves
+        [derived: in a linear network only an element carrying the load current between the
+        sense pins changes that transresistance]. FET channels are named by package.
+        """
+        p, gd = self.protector, self.gate_drive
+        if p is None or self.stack is None or gd is None or not self.channels:
+            return ()
+        g, s = p.pins.get("ground"), p.pins.get("sense")
+        if not g or not s:
+            return ()
+        rds = {ch.name: self.channel_rds(ch, gd.typ, 25.0, "typ")[0] for ch in self.channels}
+        cell_r = self.stack.part.internal_resistance.nominal
+        emf = self.cell_limits.nominal if self.cell_limits else 3.6
+
+        def sense(net: Network) -> float | None:
+            try:
+                sol = net.solve(ground=self.stack.bottom)
+            except NetworkError:
+                return None
+            i = abs(sol.current("(load)"))
+            v = sol.voltage_between(s, g) if s in sol.voltages and g in sol.voltages else None
+            return abs(v) / i if v is not None and i > 0 else None
+
+        base = sense(self.network(rds, cell_emf=emf, cell_r=cell_r, temp=25.0))
+        if not base:
+            return ()
+        found: list[str] = []
+        for ch in self.channels:
+            doubled = dict(rds, **{ch.name: 2 * rds[ch.name]})
+            r = sense(self.network(doubled, cell_emf=emf, cell_r=cell_r, temp=25.0))
+            if r is not None and abs(r - base) > 1e-6 * base and ch.package not in found:
+                found.append(ch.package)
+        for c in self._series_parts():
+            a, b = c.pins.get("1"), c.pins.get("2")
+            if not a or not b or a == b:
+                continue
+            value = self.part_resistance(c, 25.0, "typ")
+            if value > _SIGNAL_OHMS:
+                continue
+            net = self.network(rds, cell_emf=emf, cell_r=cell_r, temp=25.0,
+                               exclude=frozenset({c.refdes}))
+            net.add_resistor(c.refdes, a, b, 2 * value)
+            r = sense(net)
+            if r is not None and abs(r - base) > 1e-6 * base:
+                found.append(c.refdes)
+        return tuple(found)
+
+    @cached_property
+    def sense_by_shunt(self) -> bool:
+        """True when the sense input sees resistors only, no switch channel (shunt sensing)."""
+        packages = {ch.package for ch in self.channels}
+        found = self.sense_elements
+        return bool(found) and not any(e in packages for e in found)
+
+    # --- shelf life and support network (computed in storage.py and support.py) --------------
+
+    @cached_property
+    def storage_budget(self):
+        """Months in storage to the cut-off and on to the cell's lower limit (storage.StorageBudget)."""
+        from .storage import storage_budget
+        return storage_budget(self)
+
+    @cached_property
+    def supply_filter(self):
+        from .support import supply_filter
+        return supply_filter(self)
+
+    @cached_property
+    def sense_resistor(self):
+        from .support import sense_resistor
+        return sense_resistor(self)
+
+    @cached_property
+    def capacitor_stress(self) -> tuple:
+        from .support import capacitor_stress
+        return capacitor_stress(self)
+
+    @cached_property
+    def resistor_stress(self) -> tuple:
+        from .support import resistor_stress
+        return resistor_stress(self)
+
     # --- the power path ------------------------------------------------------------------------
 
     def _series_parts(self) -> list[Component]:
@@ -371,7 +558,8 @@ class DesignModel:
         part = ch.part
         hot = part.rds_on_hot_ratio
         ratio, at = (hot.ratio, hot.at) if hot else (1.5, 125.0)
-        points = [(p.vgs, p.typ, p.max) for p in part.rds_on]
+        # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
+        points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
         try:
             res = rds_on(points, vgs, tj, ratio, at, corner)
         except ValueError as exc:
@@ -572,6 +760,51 @@ class DesignModel:
                 return True
         return False
 
+    # --- stress: heat, short-circuit pulses, copper (computed in stress.py) --------------------
+
+    @cached_property
+    def short_circuit_solution(self) -> tuple[Any, dict]:
+        """(solution, channel on-resistances) of the hard short of :attr:`prospective_short_circuit`.
+
+        The same corner, built the same way, so both give one current (a test holds them
+        together); kept apart so the per-channel currents are there for stress figures.
+        """
+        if self.stack is None or self.cell_voltage is None or self.gate_drive is None:
+            return None, {}
+        rds = {ch.name: self.channel_rds(ch, self.gate_drive.high, self.ambient.low, "min")[0]
+               for ch in self.channels}
+        net = self.network(rds, cell_emf=self.cell_voltage.high,
+                           cell_r=spread_low(self.stack.part.internal_resistance),
+                           temp=self.ambient.low, corner="low", load=_IDEAL)
+        try:
+            return net.solve(ground=self.stack.bottom), rds
+        except NetworkError:
+            return None, rds  # prospective_short_circuit records the problem
+
+    @cached_property
+    def switch_heat(self) -> tuple:
+        """Junction temperature of every switch package per case (stress.HeatCase)."""
+        from .stress import switch_heat
+        return switch_heat(self)
+
+    @cached_property
+    def short_circuit_pulse(self):
+        """The hard short until the protection ends it (stress.ShortCircuitPulse), or None."""
+        from .stress import short_circuit_pulse
+        return short_circuit_pulse(self)
+
+    def turn_off_spike(self, ch: SwitchChannel):
+        """The voltage a discharge switch sees interrupting a short (stress.TurnOffSpike), or None
+        when the design gives no ``pack.wiring_inductance``."""
+        from .stress import turn_off_spike
+        return turn_off_spike(self, ch)
+
+    @cached_property
+    def conductor_loads(self) -> tuple:
+        """Highest permitted current of every trace and wire (stress.ConductorLoad)."""
+        from .stress import conductor_loads
+        return conductor_loads(self)
+
     # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, Any]:
@@ -595,6 +828,11 @@ class DesignModel:
             out["prospective_short_circuit"] = _num(psc)
         if self.gate_drive is not None:
             out.update(gate_drive_min=self.gate_drive.low, gate_drive_max=self.gate_drive.high)
+        sb = self.storage_budget
+        if sb is not None:
+            out["storage_months_to_cutoff"] = _num(sb.to_cutoff.months)
+            if sb.to_lower_limit is not None:
+                out["storage_months_cutoff_to_lower_limit"] = _num(sb.to_lower_limit.months)
         return out
 
 

@@ -1,0 +1,1 @@
+"""Tallgrass Robotics house rules for packwarden (an invented company; an example team package)."""

@@ -1,0 +1,87 @@
+from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from pydantic import Field
+
+
+class Options(RuleOptions):
+    pulse_margin: float = Field(1.0, gt=0, le=1, description=(
+        "fraction of id_pulse_max a channel may carry during a short (1.0: the rating itself; "
+        "id_pulse_max is already an absolute maximum)"))
+
+
+@rule(id="short-circuit-stress",
+      summary="the switches survive a hard short until the protection turns it off",
+      severity=Severity.error, options=Options, example=Example(
+          bad="pack: {wiring_inductance: 200 nH}   # 118 A cut in 1 µs: 23.7 V spike + 4.3 V > 20 V",
+          good="pack: {wiring_inductance: 20 nH}    # 2.4 V spike + 4.3 V, within 20 V"))
+def check(ctx, options):
+    """A hard short across the pack terminals draws the prospective short-circuit current — the
+    highest cell voltage over the lowest cell, switch and copper resistance — through every switch
+    channel in the path, as the current divides between parallel packages, until the longest
+    short-circuit delay has passed (the over-current delay when the short does not reach the
+    short-circuit trip). Each channel must stay within its pulse drain current id_pulse_max; the
+    pulse's I²t is reported beside it. Turning that current off through the pack wiring's
+    inductance adds L·di/dt to the stack voltage across the discharge switch; past vds_max the
+    FET avalanches (no derating here: avalanche is the physical limit — the derated margin is
+    switch-voltage-margin's). The fuse's side of the short is secondary-protection's."""
+    m = ctx.model
+    pulse = m.short_circuit_pulse
+    if pulse is None:
+        return
+    seen = set()
+    for ch in m.channels:
+        ich = pulse.channel_current.get(ch.name, 0.0)
+        path = _part_path(m, ch.package)
+        limit = ch.part.id_pulse_max
+        i2t = pulse.i2t(ch.name)
+        figures = [Figure("prospective short circuit", pulse.current, "A"),
+                   Figure("channel current", ich, "A"), Figure("duration", pulse.duration, "s"),
+                   Figure("I²t", i2t, "A²s")]
+        if limit is None:
+            if ch.package not in seen and ich > ch.part.id_max:
+                seen.add(ch.package)
+                yield ctx.finding(
+                    f"{ch.package} gives no id_pulse_max, so the {fq(ich, 'A')} it carries in a "
+                    f"hard short for {fq(pulse.duration, 's')} cannot be checked",
+                    path=path, element=ch.package, key="no-pulse-rating", severity="info",
+                    figures=figures, hint="add id_pulse_max from the FET data sheet")
+        elif ich > limit * options.pulse_margin:
+            of = (f"{ich / pulse.current * 100:.0f} % of the prospective {fq(pulse.current, 'A')}"
+                  if ich < 0.999 * pulse.current else f"the prospective {fq(pulse.current, 'A')}")
+            yield ctx.finding(
+                f"{ch.name} carries {fq(ich, 'A')} in a hard short ({of}) for up to "
+                f"{fq(pulse.duration, 's')}, the longest "
+                f"{pulse.detection} delay — above its id_pulse_max {fq(limit, 'A')}; I²t "
+                f"{fq(i2t, 'A²s')}",
+                path=path, element=ch.package, key=f"pulse-{ch.name}",
+                figures=figures + [Figure("id_pulse_max", limit, "A")],
+                hint=f"use FETs with id_pulse_max ≥ {fq(ich / options.pulse_margin, 'A')}, share the "
+                     f"current over a second pair in parallel, or limit the short with path "
+                     f"resistance; a protector with a shorter short-circuit delay shortens the stress")
+        spike = m.turn_off_spike(ch)
+        if spike is not None and spike.total > ch.part.vds_max:
+            yield ctx.finding(
+                f"{ch.name} (discharge switch) sees {fq(spike.total, 'V')} when it turns off a "
+                f"short ({spike.describe()}), above its vds_max {fq(ch.part.vds_max, 'V')}: it "
+                f"avalanches",
+                path=("pack", "wiring_inductance"), element=ch.package, key=f"spike-{ch.name}",
+                figures=[Figure("turn-off voltage", spike.total, "V"), Figure("spike", spike.spike, "V"),
+                         Figure("wiring inductance", spike.inductance, "H"),
+                         Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V")],
+                hint=_spike_hint(spike, ch.part.vds_max))
+
+
+def _spike_hint(spike, vds_max):
+    room = vds_max - spike.stack
+    if room > 0:
+        l_max = room * spike.turn_off_time / spike.current
+        t_min = spike.inductance * spike.current / room
+        return (f"keep the loop inductance ≤ {fq(l_max, 'H')} (shorter, twisted or paired wiring), "
+                f"slow the turn-off to ≥ {fq(t_min, 's')} (gate resistor), clamp the pack terminals "
+                f"with a TVS diode, or use FETs rated for more voltage")
+    return "use FETs rated well above the stack voltage, and clamp the pack terminals with a TVS diode"
+
+
+def _part_path(m, refdes):
+    # A library part is named under "part"; an inline one is the component itself.
+    c = m.netlist.components[refdes]
+    return c.path + (("part",) if c.part_name else ())

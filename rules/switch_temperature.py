@@ -1,0 +1,109 @@
+from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden.model import stress
+from packwarden.schema import Q
+from pydantic import Field
+
+
+class Options(RuleOptions):
+    limit: Q("°C") = Field(125.0, description=(
+        "highest junction temperature allowed in service, below the part's own tj_max "
+        "[practice: commercial derating, T_J ≤ 125 °C]"))
+    steady_after: Q("s") = Field(10.0, description=(
+        "a peak this long or longer is judged as a steady state; a shorter one only warns, "
+        "because its steady-state junction temperature is an upper bound [practice: "
+        "junction-to-ambient time constants of small board-mounted packages are tens of seconds]"))
+
+
+CASES = {
+    "continuous": "the continuous load",
+    "peak": "the peak load",
+    "permitted": "the highest current the over-current protection permits indefinitely",
+}
+
+
+@rule(id="switch-temperature",
+      summary="switch junctions stay cool at the load, the peak and the highest permitted current",
+      severity=Severity.error, options=Options, example=Example(
+          bad="Q1: {kind: fet_pair_common_drain, theta_ja: 200 K/W, ...}   # 178 °C just below "
+              "the trip",
+          good="Q1: {part: OR-FET-D20, ...}   # 83 K/W: 116 °C just below the trip"))
+def check(ctx, options):
+    """A protection FET dissipates I²·R_DS(on) in each channel; at the highest ambient its junction
+    sits at T_A + P·R_θJA, and R_DS(on) rises with that temperature, so the balance is solved
+    self-consistently (no balance at or below tj_max is thermal runaway). Three currents matter:
+    the continuous load, the peak load (as a steady state, an upper bound for a short peak), and
+    the worst the protection lets flow for ever — just below the over-current trip, where the
+    dissipation is the detection voltage squared over the sense resistance. That last one is the
+    FET that cooks at a load the protection happily permits: lowering R_DS(on) raises the
+    permitted current and makes it worse, while a lower detection voltage or a lower θJA helps.
+    Each junction must stay below the limit option and the part's tj_max."""
+    m = ctx.model
+    for h in m.switch_heat:
+        part = h.part
+        ceiling = min(options.limit, part.tj_max)
+        if not h.runaway and h.tj <= ceiling:
+            continue
+        path = _part_path(m, h.package)
+        what = CASES[h.case]
+        if h.case == "peak":
+            what = f"{what} {fq(h.current, 'A')} for {fq(h.duration, 's')}"
+        elif h.case == "continuous":
+            what = f"{what} {fq(h.current, 'A')}"
+        else:
+            what = f"{what} ({fq(h.current, 'A')})"
+        severity = None
+        bound = ""
+        if h.case == "peak" and h.duration < options.steady_after:
+            severity = "warning"
+            bound = (f" — a steady-state bound: a {fq(h.duration, 's')} peak heats less; check it "
+                     f"against the data sheet's transient thermal impedance")
+        per = ", ".join(f"{n} {fq(i, 'A')} at {fq(h.rds[n], 'Ω')}" for n, i in h.channel_current.items())
+        where = (f"at {h.ambient:.0f} °C ambient, {fq(h.vgs, 'V')} gate drive, {h.corner} "
+                 f"on-resistance ({per})")
+        figures = [Figure("junction temperature", h.tj, "°C"), Figure("dissipation", h.power, "W"),
+                   Figure("theta_ja", part.theta_ja, "K/W"), Figure("ambient", h.ambient, "°C"),
+                   Figure("pack current", h.current, "A"), Figure("limit", ceiling, "°C")]
+        at_limit = stress.dissipation_at(m, h, ceiling)
+        budget = (ceiling - h.ambient) / at_limit if at_limit > 0 else float("inf")
+        if h.runaway:
+            message = (f"{h.package} runs away thermally at {what} {where}: no steady state at or "
+                       f"below its tj_max {fq(part.tj_max, '°C')} (estimate passed "
+                       f"{fq(h.tj, '°C')} at {fq(h.power, 'W')})")
+        else:
+            if h.tj > part.tj_max:
+                limit_text = f"its tj_max {fq(part.tj_max, '°C')}"
+            else:
+                limit_text = (f"the {fq(options.limit, '°C')} limit (tj_max "
+                              f"{fq(part.tj_max, '°C')})")
+            message = (f"{h.package} junction reaches {fq(h.tj, '°C')} at {what} {where}: "
+                       f"{fq(h.power, 'W')} in {fq(part.theta_ja, 'K/W')}, above {limit_text}")
+        # What the on-resistance rests on where the data sheet ran out, as trip-current-window
+        # says it: a reviewer must know when a figure is an extrapolation.
+        notes = [n for n in h.assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n
+                 or "understates" in n]
+        if notes:
+            bound += f" (assumed: {'; '.join(notes)})"
+        yield ctx.finding(message + bound, path=path, element=h.package, key=h.case,
+                          severity=severity, figures=figures, hint=_hint(h, budget, ceiling))
+
+
+def _hint(h, budget, ceiling):
+    theta = (f"a package or copper area with θJA ≤ {fq(budget, 'K/W')}" if budget > 0
+             else "a cooler location (the ambient alone uses up the budget)")
+    if h.case == "permitted":
+        return (f"{theta}, or a protector with a lower over-current detection voltage (the "
+                f"dissipation at the trip scales with its square); lower R_DS(on) alone raises the "
+                f"permitted current and the heat with it")
+    # The rise is about proportional to R_DS(on) at a fixed current; the hotter junction also
+    # raises R, so this is the least reduction needed, not a guarantee.
+    if h.runaway or h.tj <= h.ambient:
+        return f"{theta}, or FETs with much lower R_DS(on), or a second pair in parallel"
+    cut = max(0.0, 1.0 - (ceiling - h.ambient) / (h.tj - h.ambient)) * 100
+    return (f"{theta}, or FETs with R_DS(on) at least {cut:.0f} % lower, or a second pair in "
+            f"parallel")
+
+
+def _part_path(m, refdes):
+    # A library part is named under "part"; an inline one is the component itself.
+    c = m.netlist.components[refdes]
+    return c.path + (("part",) if c.part_name else ())
