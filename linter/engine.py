@@ -421,6 +421,14 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
         result.skipped.extend(held)
     from .waivers import apply_waivers
     findings = apply_waivers(findings, design, doc, session.today)
+    # The waiver findings are the engine's own; the project's select/ignore/severity apply to them
+    # as to any rule's.
+    hygiene = "waiver-hygiene"
+    if not cfg.enabled(hygiene):
+        findings = [f for f in findings if f.rule != hygiene]
+    elif hygiene in cfg.severity:
+        findings = [replace(f, severity=cfg.severity[hygiene]) if f.rule == hygiene else f
+                    for f in findings]
     # After the waivers, so their own findings (expired, unused) share the design's identity.
     findings = [f.with_fingerprint(design_id) for f in findings]
     findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))

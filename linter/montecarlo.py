@@ -31,6 +31,8 @@ def run_designs(run: RunResult, samples: int, seed: int = DEFAULT_SEED,
             out.append((d, run_yield(d.model, samples, seed, distribution)))
         except (YieldError, ValueError) as exc:
             out.append((d, str(exc)))
+        except Exception as exc:  # no design may end the run with a traceback
+            out.append((d, f"internal error: {type(exc).__name__}: {exc}"))
     return out
 
 

@@ -57,22 +57,28 @@ LIMIT_ID = re.compile(r"^[a-z0-9][a-z0-9-]{0,62}$")
 #: the component a finding about it points at: the protector sets the trip and sense figures
 #: through its detection voltages and gate drive, the cells set the stack's shape.
 #: A test holds this table to what the model reports, so a new figure cannot go unbounded.
-FIGURES: dict[str, tuple[str, str | None]] = {
-    "component_count": ("", None),
-    "cells": ("", "cell"),
-    "series": ("", "cell"),
-    "parallel": ("", "cell"),
-    "trip_current_min": ("A", "protector"),
-    "trip_current_typ": ("A", "protector"),
-    "trip_current_max": ("A", "protector"),
-    "sense_resistance_min": ("Ω", "protector"),
-    "sense_resistance_typ": ("Ω", "protector"),
-    "sense_resistance_max": ("Ω", "protector"),
-    "short_circuit_trip_min": ("A", "protector"),
-    "short_circuit_trip_max": ("A", "protector"),
-    "prospective_short_circuit": ("A", "cell"),
-    "gate_drive_min": ("V", "protector"),
-    "gate_drive_max": ("V", "protector"),
+#: Figures of the switches (junction temperatures) point at the first switch package.
+SWITCHES = ("fet", "fet_pair_common_drain")
+FIGURES: dict[str, tuple[str, tuple[str, ...]]] = {
+    "component_count": ("", ()),
+    "cells": ("", ("cell",)),
+    "series": ("", ("cell",)),
+    "parallel": ("", ("cell",)),
+    "trip_current_min": ("A", ("protector",)),
+    "trip_current_typ": ("A", ("protector",)),
+    "trip_current_max": ("A", ("protector",)),
+    "sense_resistance_min": ("Ω", ("protector",)),
+    "sense_resistance_typ": ("Ω", ("protector",)),
+    "sense_resistance_max": ("Ω", ("protector",)),
+    "short_circuit_trip_min": ("A", ("protector",)),
+    "short_circuit_trip_max": ("A", ("protector",)),
+    "prospective_short_circuit": ("A", ("cell",)),
+    "gate_drive_min": ("V", ("protector",)),
+    "gate_drive_max": ("V", ("protector",)),
+    "switch_tj_continuous": ("°C", SWITCHES),
+    # shelf life of a stored pack: the protector's supply current and the cells' self-discharge
+    "storage_months_to_cutoff": ("months", ("cell",)),
+    "storage_months_cutoff_to_lower_limit": ("months", ("cell",)),
 }
 
 #: Figure name -> unit, for tools and docs.
@@ -417,9 +423,9 @@ def _fmt(value: float, unit: str) -> str:
     return format_quantity(value, unit) if unit else f"{value:g}"
 
 
-def _anchor(kind: str | None, netlist: Any) -> tuple[tuple, str | None]:
-    if kind is not None:
-        found = sorted(netlist.of_kind(kind), key=lambda c: c.refdes)
+def _anchor(kinds: tuple[str, ...], netlist: Any) -> tuple[tuple, str | None]:
+    if kinds:
+        found = sorted(netlist.of_kind(*kinds), key=lambda c: c.refdes)
         if found:
             c = found[0]
             return c.path + (("part",) if c.part_name is not None else ("kind",)), c.refdes

@@ -23,6 +23,11 @@ def check(ctx, options):
     series stack the level that empties first decides. The figures are a budget on data-sheet
     maxima, the cell maker's storage instructions rule."""
     b = ctx.model.storage_budget
+    for problem in ctx.model.problems:
+        if problem.what == "storage":
+            yield ctx.finding(problem.message, path=problem.path, key="ocv-table",
+                              element=ctx.model.stack.cells[0].refdes,
+                              hint="give the cell's ocv points with SoC and voltage both rising")
     if b is None:
         return
     stack = ctx.model.stack

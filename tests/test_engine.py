@@ -556,3 +556,16 @@ def test_severity_override_applies_to_every_finding_of_the_rule(repo: Path) -> N
     [result] = run.designs
     assert [f.severity.value for f in result.findings if f.rule == "unknown-part"] == ["info"]
     assert run.exit_code() == 0
+
+
+def test_config_ignore_and_severity_reach_the_waiver_findings(repo: Path) -> None:
+    text = EXAMPLE + ("waivers:\n  - rule: unknown-part\n    element: Q9\n"
+                      "    reason: kept for a later board revision\n")
+    path = design(repo, text)
+    [before] = [f for f in lint([str(path)]).all_findings() if f.rule == "waiver-hygiene"]
+    assert before.severity.value == "warning"
+    (repo / "packwarden.toml").write_text('[severity]\nwaiver-hygiene = "error"\n', encoding="utf-8")
+    [after] = [f for f in lint([str(path)]).all_findings() if f.rule == "waiver-hygiene"]
+    assert after.severity.value == "error"
+    (repo / "packwarden.toml").write_text('ignore = ["waiver-hygiene"]\n', encoding="utf-8")
+    assert not [f for f in lint([str(path)]).all_findings() if f.rule == "waiver-hygiene"]

@@ -493,6 +493,12 @@ class DesignModel:
         return sense_resistor(self)
 
     @cached_property
+    def support_scenarios(self) -> list:
+        """(case, solution) of the stress cases capacitors and resistors are checked in."""
+        from .support import scenarios
+        return scenarios(self)
+
+    @cached_property
     def capacitor_stress(self) -> tuple:
         from .support import capacitor_stress
         return capacitor_stress(self)
@@ -828,6 +834,11 @@ class DesignModel:
             out["prospective_short_circuit"] = _num(psc)
         if self.gate_drive is not None:
             out.update(gate_drive_min=self.gate_drive.low, gate_drive_max=self.gate_drive.high)
+        # hottest switch junction under the continuous load at the highest ambient (a team policy
+        # bounds it, e.g. 100 °C for a product line); a lower bound when the switch runs away
+        continuous = [h.tj for h in self.switch_heat if h.case == "continuous"]
+        if continuous:
+            out["switch_tj_continuous"] = _num(max(continuous))
         sb = self.storage_budget
         if sb is not None:
             out["storage_months_to_cutoff"] = _num(sb.to_cutoff.months)

@@ -111,7 +111,16 @@ def storage_budget(m: "DesignModel") -> StorageBudget | None:
     cell = stack.part
     notes: list[str] = list(limits.assumptions)
     if cell.ocv:
-        table = ocv_table([(pt.soc / 100.0, pt.voltage) for pt in cell.ocv])
+        try:
+            table = ocv_table([(pt.soc / 100.0, pt.voltage) for pt in cell.ocv])
+        except ValueError as exc:
+            # A table that cannot be inverted is the design's mistake: say where, not crash.
+            from .design import ModelProblem
+            m.problems.append(ModelProblem(
+                "storage", f"the ocv table of {stack.cells[0].refdes} cannot be used: "
+                           f"{str(exc).replace('cell: ', '')} (SoC as a fraction of full)",
+                stack.cells[0].path + ("part",)))
+            return None
     else:
         table = ocv_table(cell.chemistry.value)
         notes.append(f"no cell ocv table: the {table.name} table is used ({table.source})")

@@ -219,7 +219,7 @@ def _balance_switches(m: "DesignModel") -> list[tuple[str, str, str]]:
 
 def capacitor_stress(m: "DesignModel") -> tuple[Stress, ...]:
     """Highest voltage across each capacitor over :func:`scenarios`."""
-    cases = scenarios(m)
+    cases = m.support_scenarios
     out = []
     for c in m.netlist.of_kind("capacitor"):
         pins = _two_pins(c)
@@ -244,7 +244,7 @@ def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
     which the protection never cuts off; each resistor takes its share of it (from the solve at
     the trip maximum's corner) at its highest value.
     """
-    cases = scenarios(m)
+    cases = m.support_scenarios
     path_share = _path_shares(m)
     t = m.overcurrent_trip
     out = []

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+import math
 from dataclasses import asdict
 
 from .. import __version__
@@ -42,4 +43,16 @@ def render(run: RunResult, opts: RenderOptions) -> str:
             "unchanged": [finding_dict(f) for f in cmp.unchanged],
             "absent": [e.as_dict() for e in cmp.absent],
         }
-    return json.dumps(out, indent=2, sort_keys=False, ensure_ascii=False, allow_nan=False) + "\n"
+    return json.dumps(_finite(out), indent=2, sort_keys=False, ensure_ascii=False,
+                      allow_nan=False) + "\n"
+
+
+def _finite(node):
+    """JSON has no infinity or NaN: a figure that is not finite (an open path) is written null."""
+    if isinstance(node, float):
+        return node if math.isfinite(node) else None
+    if isinstance(node, dict):
+        return {k: _finite(v) for k, v in node.items()}
+    if isinstance(node, (list, tuple)):
+        return [_finite(v) for v in node]
+    return node

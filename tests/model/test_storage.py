@@ -192,8 +192,7 @@ def test_the_nmc_dataset_sets_the_cut_off_charge(tmp_path):
     # [published: open NMC dataset, REFERENCES.md] 0.2 % at 2.535 V and 1.0 % at 2.760 V; the
     # orchard probe's 2.55 V over-discharge detection maximum sits at
     # 0.2 + 0.8 × (2.55 − 2.535) / (2.760 − 2.535) = 0.2533 % [derived: linear interpolation].
-    m = _example_copy(tmp_path, "orchard-probe.yaml", "orchard-parts.yaml",
-                      storage="storage: {soc: 40 %, duration: 12 months}\n")
+    m = _example_copy(tmp_path, "orchard-probe.yaml", "orchard-parts.yaml")  # ships at 40 %
     b = m.storage_budget
     assert b.to_cutoff.end_soc * 100 == pytest.approx(0.2 + 0.8 * 0.015 / 0.225, rel=1e-6)
     assert "nmc table" in " ".join(b.assumptions)
@@ -214,3 +213,17 @@ def test_each_level_of_a_stack_is_drained_on_its_own(tmp_path):
     assert bottom - top == pytest.approx(3.60 / 100e3, rel=1e-4)
     # the divider R21/R22 across the whole stack drains every level alike: 14.4 V / 1.15 MΩ
     assert top == pytest.approx(4 * 3.60 / 1.15e6, rel=1e-4)
+
+
+def test_an_ocv_table_that_cannot_be_inverted_is_a_finding_not_a_crash(tmp_path):
+    # 0 % at 3.40 V above 10 % at 3.30 V: no state of charge can be read off such a table.
+    (tmp_path / "packwarden.toml").write_text("")
+    (tmp_path / "lib.yaml").write_text(_fill(LIB, sd="", idss="", empty="3.40 V"), encoding="utf-8")
+    path = tmp_path / "d.yaml"
+    path.write_text(_fill(DESIGN, extra="", soc="44 %", temp="25 °C"), encoding="utf-8")
+    run = lint([str(path)])
+    (result,) = run.designs
+    assert not result.internal
+    [f] = [f for f in result.findings if f.rule == "storage-drain"]
+    assert "the ocv table of BT1 cannot be used: voltage must rise strictly" in f.message
+    assert f.location.path == ("components", "BT1", "part")
