@@ -449,7 +449,7 @@ def test_the_example_team_policy_is_valid() -> None:
     jsonschema.Draft7Validator(schema).validate(yaml.safe_load(TEAM_POLICY.read_text("utf-8")))
     jsonschema.Draft7Validator(schema).validate(yaml.safe_load(BRIEF_POLICY))
     policy = load_policy(TEAM_POLICY)
-    assert [lim.id for lim in policy.limits] == ["beacon-trip-max", "fet-vds-20",
+    assert [lim.id for lim in policy.limits] == ["beacon-trip-max", "junction-100", "fet-vds-20",
                                                  "cell-charge-window", "no-small-fet"]
     assert policy_json_schema()["definitions"]["LimitSpec"]["properties"]["figure"]["anyOf"][0][
         "enum"] == list(FIGURES)
@@ -461,3 +461,25 @@ def test_load_policy_raises_the_first_mistake(tmp_path: Path) -> None:
     with pytest.raises(InputError) as err:
         load_policy(path, "p.yaml")
     assert str(err.value).startswith("p.yaml:1:9: ")
+
+
+def test_a_junction_temperature_limit(repo: Path) -> None:
+    # The issue's own example: a product line keeps its switch junctions at or below 100 °C.
+    with_policy(repo, """\
+        format: packwarden-policy/1
+        limits:
+          - {id: tj-100, figure: switch_tj_continuous, max: 100 °C}
+          - {id: tj-60, figure: switch_tj_continuous, max: 60 °C, reason: sealed enclosure}
+        """)
+    run = lint(["designs/probe.yaml"])
+    [design] = run.designs
+    [heat] = [h for h in design.model.switch_heat if h.case == "continuous"]
+    # T_J = T_A + P · R_θJA [published: data sheet definition]: Q1 (83 K/W) at 55 °C ambient
+    tj = design.figures["switch_tj_continuous"]
+    assert heat.ambient == 55.0
+    assert tj == pytest.approx(55.0 + heat.power * 83.0, abs=0.01)
+    # 1.2 A through two channels of 23-32 mΩ, hot: a few tenths of a watt at most [derived]
+    assert 55.0 < tj < 55.0 + 0.3 * 83.0
+    [finding] = policy_findings(run)
+    assert (finding.rule, finding.element, finding.hint) == ("policy/tj-60", "Q1", "sealed enclosure")
+    assert finding.message == f"switch_tj_continuous {tj:.3g} °C is above the policy maximum 60 °C"
