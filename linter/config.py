@@ -47,6 +47,7 @@ class Config:
     severity: dict[str, Severity] = field(default_factory=dict)
     rule_options: dict[str, dict[str, Any]] = field(default_factory=dict)
     rule_paths: list[Path] = field(default_factory=list)
+    require_plugins: list[str] = field(default_factory=list)
     policy: Path | None = None
     text: str = ""
     #: Dotted name of the table holding the settings: "tool.packwarden" in pyproject.toml, "" in
@@ -170,6 +171,7 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
     cfg.select = table.get("select")
     cfg.ignore = table.get("ignore", [])
     cfg.rule_paths = [path.parent / p for p in table.get("rule_paths", [])]
+    cfg.require_plugins = list(table.get("require_plugins", []))
     if "policy" in table:
         if not isinstance(table["policy"], str):
             raise fail("policy", "'policy' must be a path (string)")

@@ -162,16 +162,7 @@ def require_plugins(registry: Registry, names: Iterable[str] = (), cfg: Config |
 
 
 def _config_required(cfg: Config | None) -> list[str]:
-    # Config keeps no field for this key (config.py validates it is a list of strings), so read it
-    # from the table again rather than widen Config for one list.
-    if cfg is None or not cfg.text:
-        return []
-    if getattr(cfg, "require_plugins", None) is not None:
-        return list(cfg.require_plugins)
-    from .config import tomllib
-    data = tomllib.loads(cfg.text)
-    table = data.get("tool", {}).get("packwarden", {}) if cfg.prefix else data
-    return list(table.get("require_plugins", []))
+    return list(cfg.require_plugins) if cfg is not None else []
 
 
 # --- results ------------------------------------------------------------------------------------
@@ -191,6 +182,8 @@ class DesignResult:
     figures: dict[str, Any] = field(default_factory=dict)
     errors: list[InputError] = field(default_factory=list)
     internal: list[InternalError] = field(default_factory=list)
+    #: True once the design's rules ran (False when its file, config or libraries stopped it).
+    linted: bool = False
     #: Electrical rules held back because the netlist has integrity errors.
     skipped: list[str] = field(default_factory=list)
     #: Rules that ran on this design (enabled by its config and not held back), for reports
@@ -433,6 +426,7 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
     findings = [f.with_fingerprint(design_id) for f in findings]
     findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
     result.findings = findings
+    result.linted = True
 
 
 def _describe(exc: BaseException) -> str:

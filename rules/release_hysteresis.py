@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import stress
-from packwarden.schema import Q
+from packwarden import Q
 from pydantic import Field
 
 

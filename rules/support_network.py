@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.support import DEFAULT_SENSE_R, DEFAULT_SUPPLY_C, DEFAULT_SUPPLY_R
-from packwarden.schema import Q
+from packwarden import Q
 from pydantic import Field
 
 

@@ -1,5 +1,4 @@
-from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
-from packwarden.schema import Q
+from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 
 

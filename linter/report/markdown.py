@@ -51,7 +51,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
     waived = sum(1 for f in findings if f.waived)
     n_input = len(run.input_errors())
     n_internal = sum(len(d.internal) for d in run.designs) + len(run.broken_plugins)
-    linted = sum(1 for d in run.designs if not d.errors)
+    linted = sum(1 for d in run.designs if d.linted)
     code_ = run.exit_code()
     verdict = {0: "passed", 1: "failed: findings", 2: "failed: input could not be used"}[code_]
 

@@ -52,7 +52,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
             lines.append("")
     if not opts.quiet:
         n_err = len(run.input_errors()) + sum(len(d.internal) for d in run.designs)
-        linted = sum(1 for d in run.designs if not d.errors)
+        linted = sum(1 for d in run.designs if d.linted)
         summary = (f"{linted} design(s) linted, {len(run.designs) - linted} could not be read; "
                    f"{counts[Severity.error]} error(s), {counts[Severity.warning]} warning(s), "
                    f"{counts[Severity.info]} info, {waived} waived")
