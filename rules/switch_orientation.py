@@ -1,6 +1,7 @@
 from packwarden import Example, Severity, rule
 
 _OTHER = {"discharge": "charge", "charge": "discharge"}
+_VERB = {"discharge": "discharges", "charge": "charges"}
 
 
 @rule(id="switch-orientation",
@@ -30,29 +31,35 @@ def check(ctx, options):
             continue
         blocked_dir, open_dir = role, _OTHER[role]
         leak = m.conducts(off=role, direction=blocked_dir)
+        blocks_both = m.conducts(off=role, direction=open_dir) is None
+        revive = ("a charger cannot revive an over-discharged pack" if role == "discharge"
+                  else "the pack cannot be discharged after an overcharge cut")
         if leak is not None:
             culprit = next((h for h in leak.hops if h.via == "body diode"), None)
             if culprit is not None:
                 ch = next(c for c in m.channels if c.name == culprit.branch)
+                # One fact, reported once: a body diode the wrong way round both lets the blocked
+                # direction through and (when it is the only path) stops the other one.
+                also = f", and {revive}" if blocks_both else ""
                 yield ctx.finding(
-                    f"with the {role} switches off, {blocked_dir} current still flows through the body "
-                    f"diode of {ch.name} ({culprit.from_net} → {culprit.to_net}): the {role} switch "
-                    f"does not block",
+                    f"{ch.name} ({role} switch) is turned round: its body diode conducts "
+                    f"{culprit.from_net} → {culprit.to_net}, in the {blocked_dir} direction, so with "
+                    f"the {role} switches off the pack still {_VERB[blocked_dir]}{also}",
                     path=ch.path + ("pins",), element=ch.package, key=f"{role}-leak-{ch.name}",
                     hint=f"turn {ch.name} round: swap its drain and source nets, or swap the gate nets "
                          f"so the other channel is the {role} switch")
-            else:
-                route = " → ".join(leak.nets)
-                yield ctx.finding(
-                    f"with the {role} switches off, {blocked_dir} current bypasses them ({route})",
-                    path=("components",), element=m.protector.refdes, key=f"{role}-bypass",
-                    hint=f"put every {blocked_dir} path through a {role} switch")
-        if m.conducts(off=role, direction=open_dir) is None:
+                continue
+            route = " → ".join(leak.nets)
+            yield ctx.finding(
+                f"with the {role} switches off, {blocked_dir} current bypasses them ({route})",
+                path=("components",), element=m.protector.refdes, key=f"{role}-bypass",
+                hint=f"put every {blocked_dir} path through a {role} switch")
+        if blocks_both:
             names = ", ".join(c.name for c in chans)
             yield ctx.finding(
-                f"with the {role} switches ({names}) off, {open_dir} current cannot flow either: "
-                f"a body diode points the wrong way, so the pack cannot be "
-                f"{'charged out of over-discharge' if role == 'discharge' else 'discharged after an overcharge cut'}",
+                f"with the {role} switches ({names}) off, {open_dir} current cannot flow either, "
+                f"so {revive}",
                 path=chans[0].path + ("pins",), element=chans[0].package, key=f"{role}-blocks-both",
-                hint=f"check the drain/source nets of {names}: the {role} FETs' body diodes must "
-                     f"conduct in the {open_dir} direction")
+                hint=f"check the drain/source nets of {names} and of the switches in series with "
+                     f"them: with the {role} FETs off, their body diodes must conduct in the "
+                     f"{open_dir} direction")
