@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from ..api import Severity
+from ..quantities import format_quantity
 from ..engine import RunResult
 from . import RenderOptions
 
@@ -11,6 +12,30 @@ CAUTION = ("Caution: lithium cells can vent, burn or explode. This review is an 
            "licensed engineering practice; local codes and regulations prevail.")
 
 _COLOURS = {Severity.error: "\033[31m", Severity.warning: "\033[33m", Severity.info: "\033[36m"}
+
+
+# A run over one design ends with its key figures, so a clean result still shows the numbers a
+# reviewer would check; batches and hooks keep to findings (the JSON format carries every figure).
+_FIGURE_LINES_UP_TO = 1
+
+
+def key_figures(fig: dict) -> str:
+    def a(x):
+        return format_quantity(x, "A")
+
+    parts = []
+    if fig.get("trip_current_min") is not None and fig.get("trip_current_max") is not None:
+        typ = fig.get("trip_current_typ")
+        parts.append(f"over-current trip {a(fig['trip_current_min'])}–{a(fig['trip_current_max'])}"
+                     + (f" (typ {a(typ)})" if typ is not None else ""))
+    if fig.get("short_circuit_trip_min") is not None and fig.get("short_circuit_trip_max") is not None:
+        parts.append(f"short-circuit trip {a(fig['short_circuit_trip_min'])}–"
+                     f"{a(fig['short_circuit_trip_max'])}")
+    if fig.get("prospective_short_circuit") is not None:
+        parts.append(f"prospective short circuit {a(fig['prospective_short_circuit'])}")
+    if fig.get("series") and fig.get("parallel"):
+        parts.insert(0, f"{fig['series']}S{fig['parallel']}P")
+    return "; ".join(parts)
 
 
 def render(run: RunResult, opts: RenderOptions) -> str:
@@ -44,6 +69,10 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                          f"{f.rule}: {f.message}{tag}")
             if f.hint and not opts.quiet:
                 block.append(f"    hint: {f.hint}")
+        if d.linted and not opts.quiet and len(run.designs) <= _FIGURE_LINES_UP_TO:
+            figures = key_figures(d.figures)
+            if figures:
+                block.append(f"{d.file}: figures: {figures}")
         if d.skipped and not opts.quiet:
             block.append(f"{d.file}: note: {len(d.skipped)} electrical rule(s) held back until the "
                          f"netlist errors above are fixed")
