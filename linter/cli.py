@@ -174,17 +174,26 @@ def _designs_only(paths: List[str]) -> List[str]:
 
 class DocsKind(str, Enum):
     rules = "rules"
+    format_ = "format"  # named so as not to shadow str.format
 
 
 @app.command()
 def docs(
-    kind: DocsKind = typer.Argument(DocsKind.rules, help="which reference: rules"),
+    kind: DocsKind = typer.Argument(DocsKind.rules, help="which reference: rules or format"),
     output: Optional[Path] = typer.Option(None, "--output", "-o", help="write it here"),
 ) -> None:
-    """Print the reference generated from metadata: `docs rules` is docs/rules.md."""
-    from .docs import builtin_rules, render_rules
-    from .engine import load_registry
-    text = render_rules(builtin_rules(load_registry().rules))
+    """Print the reference generated from metadata: `docs rules` is docs/rules.md, `docs format`
+    docs/format.md."""
+    from .docs import DocsError, builtin_rules, render_format, render_rules
+    if kind is DocsKind.format_:
+        try:
+            text = render_format()
+        except DocsError as exc:
+            sys.stderr.write(f"{exc}\n")
+            raise typer.Exit(2)
+    else:
+        from .engine import load_registry
+        text = render_rules(builtin_rules(load_registry().rules))
     if output is not None:
         output.write_text(text, encoding="utf-8")
     else:

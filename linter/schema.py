@@ -94,9 +94,14 @@ class Toleranced(Strict):
     Resolved limits are in ``min``/``typ``/``max``; a limit the data sheet does not give is None.
     """
 
-    typ: float | None = None
-    min: float | None = None
-    max: float | None = None
+    typ: float | None = Field(default=None, description=(
+        "typical value in SI units, None when the data sheet gives none"))
+    min: float | None = Field(default=None, description=(
+        "lowest value in SI units: the data sheet's min, or typ - tol; None when neither is "
+        "given"))
+    max: float | None = Field(default=None, description=(
+        "highest value in SI units: the data sheet's max, or typ + tol; None when neither is "
+        "given"))
 
     @property
     def low(self) -> float:
@@ -123,9 +128,12 @@ def Tol(unit: str) -> Any:  # noqa: N802
     q = Q(unit)
 
     class Given(Strict):
-        typ: q | None = None
-        min: q | None = None
-        max: q | None = None
+        typ: q | None = Field(default=None, description=(
+            f"typical value as the data sheet prints it, in {spec.name}, e.g. '{_example(unit)}'"))
+        min: q | None = Field(default=None, description=(
+            f"minimum the data sheet guarantees, in {spec.name}; the linter's worst cases use it"))
+        max: q | None = Field(default=None, description=(
+            f"maximum the data sheet guarantees, in {spec.name}; the linter's worst cases use it"))
         tol: Annotated[str | float | None, Field(description=(
             f"tolerance around typ: absolute in {spec.symbol} or a percentage ('1 %')"))] = None
 
@@ -185,8 +193,10 @@ def _resolve(given: Any, unit: str) -> Toleranced:
 # --- design-level sections ----------------------------------------------------------------------
 
 class Range(Strict):
-    min: Celsius
-    max: Celsius
+    """A temperature range, lowest to highest."""
+
+    min: Celsius = Field(description="lowest temperature of the range, in degrees Celsius")
+    max: Celsius = Field(description="highest temperature of the range, in degrees Celsius")
 
     @model_validator(mode="after")
     def _ordered(self) -> "Range":
@@ -202,31 +212,66 @@ class Range(Strict):
 
 
 class DesignInfo(Strict):
-    name: str = Field(min_length=1, max_length=200)
-    revision: str | None = Field(default=None, max_length=50)
-    description: str | None = Field(default=None, max_length=2000)
+    """What the design is: the name and revision the reports are headed with."""
+
+    name: str = Field(min_length=1, max_length=200, description=(
+        "product or board name, as the reports head the design (up to 200 characters)"))
+    revision: str | None = Field(default=None, max_length=50, description=(
+        "board or schematic revision, e.g. 'C'; shown in the HTML report"))
+    description: str | None = Field(default=None, max_length=2000, description=(
+        "free text about the design (up to 2000 characters); shown in the HTML report"))
 
 
 class Terminals(Strict):
-    pos: str = Field(default="P+", description="net where the charger and load connect, positive")
-    neg: str = Field(default="P-", description="net where the charger and load connect, negative")
+    """The nets of the pack's two terminals."""
+
+    pos: str = Field(default="P+", description=(
+        "net of the pack's positive terminal, where charger and load connect; the linter puts the "
+        "load, the charger and the hard short across the terminals, and exempts them from "
+        "single-connection-net"))
+    neg: str = Field(default="P-", description=(
+        "net of the pack's negative terminal, where charger and load connect; the linter puts the "
+        "load, the charger and the hard short across the terminals, and exempts them from "
+        "single-connection-net"))
 
 
 class Pack(Strict):
-    ambient: Range = Field(description="ambient temperature range the pack operates in")
-    terminals: Terminals = Field(default_factory=Terminals)
-    wiring_inductance: Henries | None = Field(
-        default=None, description="loop inductance of the pack wiring, for turn-off spikes")
+    """The pack as a whole: where it works and where its terminals are."""
+
+    ambient: Range = Field(description=(
+        "ambient temperature range the pack works in, {min, max} in °C: the highest end heats "
+        "the switches (switch-temperature) and sets the over-current trip minimum, the lowest end "
+        "the trip maximum, the prospective short circuit and the cell's rebound"))
+    terminals: Terminals = Field(default_factory=Terminals, description=(
+        "nets of the pack terminals, {pos, neg}; P+ and P- unless named otherwise"))
+    wiring_inductance: Henries | None = Field(default=None, description=(
+        "loop inductance of the wiring from the cells through the board to the load, in henries "
+        "(e.g. '200 nH'); when given, the L·di/dt spike "
+        "of turning off a short circuit is added to the voltage the discharge switch must block "
+        "(switch-voltage-margin, short-circuit-stress)"))
 
 
 class Peak(Strict):
-    current: Amps
-    duration: Seconds
+    """A load peak above the continuous load."""
+
+    current: Amps = Field(description=(
+        "peak load current drawn from the pack terminals, in amperes; a steady-state heat case of "
+        "switch-temperature, and the over-current trip minimum must clear it when it lasts longer "
+        "than the shortest over-current delay"))
+    duration: Seconds = Field(description=(
+        "how long the peak lasts, in seconds, e.g. '40 ms'; compared with the protector's "
+        "over-current and over-discharge delays"))
 
 
 class Load(Strict):
-    continuous: Amps
-    peak: Peak | None = None
+    """What the product draws from the pack."""
+
+    continuous: Amps = Field(description=(
+        "continuous load current drawn from the pack terminals, in amperes: the over-current trip "
+        "minimum must clear it (trip-current-window) and the switches must carry it cool at the "
+        "highest ambient (switch-temperature)"))
+    peak: Peak | None = Field(default=None, description=(
+        "a peak load above the continuous one, {current, duration}"))
 
 
 class ReversePolarity(str, Enum):
@@ -235,31 +280,71 @@ class ReversePolarity(str, Enum):
 
 
 class Charger(Strict):
-    voltage: Tol("V") = Field(description="regulated charge voltage of the whole pack")
-    current: Amps
-    open_circuit_max: Volts = Field(description="worst-case voltage at the pack terminals with no cell")
-    reverse_polarity: ReversePolarity = ReversePolarity.possible
-    temperature_window: Range | None = Field(
-        default=None, description="temperatures outside which the charger stops charging")
+    """The charger the pack is charged with, as seen at the pack terminals."""
+
+    voltage: Tol("V") = Field(description=(
+        "regulated charge voltage of the whole pack with its tolerance (toleranced volts, e.g. "
+        "{typ: 4.20 V, tol: 0.5 %}); divided by the series cell count, its maximum must stay "
+        "within the cell's upper_limit and below the overcharge detection (threshold-ladder)"))
+    current: Amps = Field(description=(
+        "charge current, in amperes, shared by the cells in parallel: it must not exceed their "
+        "max_current.charge (charge-conditions), and it sets the cell's rebound when an overcharge "
+        "cut-off stops it (release-hysteresis)"))
+    open_circuit_max: Volts = Field(description=(
+        "highest voltage the charger puts on the pack terminals with no cell connected, worst case "
+        "over its faults, in volts: the charge switch must block it against a depleted stack, and "
+        "reversed it adds to the stack across the discharge switch, the sense-pin resistor and the "
+        "capacitors"))
+    reverse_polarity: ReversePolarity = Field(default=ReversePolarity.possible, description=(
+        "'possible' when the charger can be connected the wrong way round (no keyed connector), "
+        "'prevented' when the mechanics rule it out; with 'possible' the reversed-charger cases "
+        "are checked (switch-voltage-margin, support-network)"))
+    temperature_window: Range | None = Field(default=None, description=(
+        "temperatures outside which the charger stops charging (its NTC input or own sensing), "
+        "{min, max} in °C; must lie inside the cell's charge_temperature (charge-conditions); "
+        "without it, an ambient range beyond the cell's window is a warning"))
 
 
 class Storage(Strict):
-    soc: Percent = Field(description="state of charge the product ships or is stored at")
-    duration: Q("months")
-    temperature: Celsius = 25.0
+    """How the product is stored or shipped before use."""
+
+    soc: Percent = Field(description=(
+        "state of charge the pack ships or is stored at, in percent of full, e.g. '40 %'; "
+        "storage-drain counts the charge above the over-discharge cut-off from it"))
+    duration: Q("months") = Field(description=(
+        "longest time on the shelf, in months (of 730 hours), e.g. '12 months'; the pack must "
+        "last it above the cut-off (warning) and above the cell's lower limit (error)"))
+    temperature: Celsius = Field(default=25.0, description=(
+        "storage temperature, in °C; the cell's 25 °C self-discharge is scaled by doubling per "
+        "10 °C [practice]"))
 
 
 class Waiver(Strict):
-    rule: str = Field(min_length=1)
-    element: str | None = None
-    reason: str = Field(min_length=3)
-    approved_by: str | None = None
-    expires: datetime.date | None = Field(default=None, description="YYYY-MM-DD")
+    """An accepted finding, on the record: which rule, which element, why and until when."""
+
+    rule: str = Field(min_length=1, description=(
+        "id of the rule whose findings are accepted, e.g. 'trip-current-window'"))
+    element: str | None = Field(default=None, description=(
+        "the element the finding concerns, usually a reference designator such as 'U1'; without "
+        "it the waiver covers every finding of the rule in this design"))
+    reason: str = Field(min_length=3, description=(
+        "why the finding is accepted, e.g. a test report number (at least 3 characters); shown "
+        "beside each waived finding"))
+    approved_by: str | None = Field(default=None, description=(
+        "who accepted the risk; kept on record, not checked"))
+    expires: datetime.date | None = Field(default=None, description=(
+        "last day the waiver applies, YYYY-MM-DD; after it the findings count again and "
+        "waiver-hygiene reports the expired waiver as an error"))
 
 
 NetName = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
                     Field(min_length=1, max_length=100)]
 Pins = Union[dict[str, NetName], list[NetName]]
+
+_PINS_TEXT = ("nets the component's pins connect to: a mapping pin -> net, e.g. {pos: B+, neg: "
+              "B-}; two-terminal parts may give a list of nets in pin order, e.g. [B+, P+]. Nets "
+              "are joined by name; docs/format.md lists each kind's pins")
+_NOTE_TEXT = "free text for reviewers, e.g. an assembly remark; not checked"
 
 
 # --- part kinds ---------------------------------------------------------------------------------
@@ -274,35 +359,78 @@ class Chemistry(str, Enum):
 
 
 class CellVoltages(Strict):
-    charge: Volts = Field(description="standard charge voltage")
-    upper_limit: Volts | None = Field(default=None, description="highest charge voltage allowed")
-    overcharge_limit: Volts | None = Field(
-        default=None, description="voltage the cell must never see, even under a fault")
-    nominal: Volts
-    cutoff: Volts = Field(description="discharge cut-off voltage")
-    lower_limit: Volts | None = Field(default=None, description="never discharge below this")
+    """The cell's voltage limits, per cell, as its data sheet gives them."""
+
+    charge: Volts = Field(description=(
+        "standard charge voltage (the constant-voltage set point of the data sheet's charge "
+        "method), per cell, in volts; upper_limit defaults to it plus 50 mV"))
+    upper_limit: Volts | None = Field(default=None, description=(
+        "highest charge voltage the cell maker allows (IEC 62133-2's upper limit charging "
+        "voltage), per cell, in volts; the charger's maximum per cell must not exceed it "
+        "(threshold-ladder); when absent, charge + 50 mV [practice]"))
+    overcharge_limit: Volts | None = Field(default=None, description=(
+        "voltage the cell must never reach, even when the charger fails (the data sheet's "
+        "'never exceed'), per cell, in volts; the overcharge detection maximum must stay below it "
+        "(threshold-ladder); when absent, the chemistry's default"))
+    nominal: Volts = Field(description=(
+        "nominal (rated mean) voltage per cell, in volts; the cells' source voltage in the "
+        "linter's solves of the power path"))
+    cutoff: Volts = Field(description=(
+        "discharge cut-off voltage the rated capacity is measured to, per cell, in volts; quoted "
+        "beside the over-discharge detection in findings"))
+    lower_limit: Volts | None = Field(default=None, description=(
+        "voltage the cell must never be discharged below (the data sheet's 'never discharge "
+        "below'), per cell, in volts; the over-discharge detection minimum must stay above it "
+        "(threshold-ladder) and a stored pack must not sink to it (storage-drain); when absent, "
+        "the chemistry's default"))
 
 
 class CellCurrents(Strict):
-    discharge: Amps
-    charge: Amps
+    """The cell's current ratings, per cell."""
+
+    discharge: Amps = Field(description=(
+        "maximum continuous discharge current per cell, in amperes; times the cells in parallel, "
+        "the over-current trip maximum must not exceed it (trip-current-window)"))
+    charge: Amps = Field(description=(
+        "maximum charge current per cell, in amperes; times the cells in parallel, the charger "
+        "current must not exceed it (charge-conditions)"))
 
 
 class OcvPoint(Strict):
-    soc: Percent
-    voltage: Volts
+    """One row of an open-circuit voltage table."""
+
+    soc: Percent = Field(description="state of charge, in percent of full, e.g. '40 %'")
+    voltage: Volts = Field(description=(
+        "open-circuit (rested) voltage per cell at that state of charge, in volts, at 25 °C"))
 
 
 class Cell(Strict):
-    kind: Literal["cell"]
-    chemistry: Chemistry
-    capacity: AmpHours
-    voltage: CellVoltages
-    internal_resistance: Tol("Ω")
-    max_current: CellCurrents
-    charge_temperature: Range | None = None
-    self_discharge: Q("%/month") | None = None
-    ocv: list[OcvPoint] | None = Field(default=None, description="the cell's own OCV-SoC table")
+    """A lithium-ion cell; cells in series and parallel form the stack from their pins."""
+
+    kind: Literal["cell"] = Field(description="the part kind: 'cell'")
+    chemistry: Chemistry = Field(description=(
+        "cell chemistry: lco, nmc, nca, lfp, lmo or lto; picks the default voltage limits and "
+        "OCV table where the data sheet is silent, and must be one the protector is made for"))
+    capacity: AmpHours = Field(description=(
+        "rated capacity, in ampere-hours, e.g. '3400 mAh'; the charge storage-drain budgets"))
+    voltage: CellVoltages = Field(description=(
+        "voltage limits per cell: {charge, upper_limit, overcharge_limit, nominal, cutoff, "
+        "lower_limit}"))
+    internal_resistance: Tol("Ω") = Field(description=(
+        "DC internal resistance per cell (toleranced ohms, the data sheet's typ and max; an AC "
+        "1 kHz figure reads low): its lowest value sets the prospective short-circuit current, its "
+        "highest the voltage rebound after a cut-off, raised further at cold"))
+    max_current: CellCurrents = Field(description=(
+        "current ratings per cell: {discharge, charge}"))
+    charge_temperature: Range | None = Field(default=None, description=(
+        "temperatures the cell may be charged at, {min, max} in °C; when absent, 0-45 °C "
+        "[practice] (charge-conditions)"))
+    self_discharge: Q("%/month") | None = Field(default=None, description=(
+        "self-discharge at 25 °C, in percent of capacity per month, e.g. '2 %/month'; when "
+        "absent, 2 %/month [practice] (storage-drain)"))
+    ocv: list[OcvPoint] | None = Field(default=None, description=(
+        "the cell's own open-circuit voltage table, a list of {soc, voltage}; when absent, the "
+        "chemistry's table; storage-drain turns voltages into charge with it"))
 
 
 class ReleaseOn(str, Enum):
@@ -313,17 +441,33 @@ class ReleaseOn(str, Enum):
 
 
 class Threshold(Strict):
-    detect: Tol("V")
-    release: Tol("V") | None = None
-    delay: Tol("s")
-    release_on: list[ReleaseOn] = Field(default_factory=list)
+    """One detection of the protector: where it trips, after how long, and what releases it."""
+
+    detect: Tol("V") = Field(description=(
+        "detection voltage with its accuracy (toleranced volts): per cell for overcharge and "
+        "over-discharge; between the sense and ground pins for over-current and short circuit, "
+        "where divided by the sense resistance it gives the trip current"))
+    release: Tol("V") | None = Field(default=None, description=(
+        "release (recovery) voltage per cell, for a release by voltage (toleranced volts); it must "
+        "lie on the safe side of the detection (threshold-ladder) by more than the cell's rebound "
+        "(release-hysteresis)"))
+    delay: Tol("s") = Field(description=(
+        "detection delay time (toleranced seconds): a load peak longer than its shortest must not "
+        "trip (trip-current-window); its longest is how long an overload or short flows "
+        "(short-circuit-stress, secondary-protection)"))
+    release_on: list[ReleaseOn] = Field(default_factory=list, description=(
+        "what releases the protection once tripped, any of: voltage (the cell recovers past "
+        "release), charger (a charger is connected), load_removal (the load is removed), "
+        "auto_retry (it retries on its own)"))
 
 
 class CurrentThreshold(Threshold):
     """An over-current or short-circuit detection; it may release by retrying on its own."""
 
-    retry_period: Seconds | None = Field(
-        default=None, description="time between automatic retries (with release_on: [auto_retry])")
+    retry_period: Seconds | None = Field(default=None, description=(
+        "time between automatic retries, in seconds (with release_on: [auto_retry]); each retry "
+        "repeats the fault current into the switches (release-hysteresis); when absent, 0.1 s "
+        "[memory]"))
 
     @model_validator(mode="after")
     def _retrying(self) -> "CurrentThreshold":
@@ -333,8 +477,10 @@ class CurrentThreshold(Threshold):
 
 
 class OhmsRange(Strict):
-    min: Ohms | None = None
-    max: Ohms | None = None
+    """A recommended resistance range."""
+
+    min: Ohms | None = Field(default=None, description="lowest recommended resistance, in ohms")
+    max: Ohms | None = Field(default=None, description="highest recommended resistance, in ohms")
 
     @model_validator(mode="after")
     def _ordered(self) -> "OhmsRange":
@@ -344,8 +490,12 @@ class OhmsRange(Strict):
 
 
 class FaradsRange(Strict):
-    min: Farads | None = None
-    max: Farads | None = None
+    """A recommended capacitance range."""
+
+    min: Farads | None = Field(default=None, description=(
+        "lowest recommended capacitance, in farads"))
+    max: Farads | None = Field(default=None, description=(
+        "highest recommended capacitance, in farads"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "FaradsRange":
@@ -357,29 +507,57 @@ class FaradsRange(Strict):
 class SupplyFilter(Strict):
     """The protector maker's recommended supply filter: series resistor and capacitor ranges."""
 
-    r: OhmsRange | None = Field(default=None, description="series resistor from the cell's + to supply")
-    c: FaradsRange | None = Field(default=None, description="capacitor from supply to ground")
+    r: OhmsRange | None = Field(default=None, description=(
+        "recommended series resistor from the cell's positive terminal to the supply pin, "
+        "{min, max} in ohms; when absent, 300 Ω-1 kΩ [practice] (support-network)"))
+    c: FaradsRange | None = Field(default=None, description=(
+        "recommended capacitor from the supply pin to ground, {min, max} in farads; when absent, "
+        "22 nF-1 µF [practice] (support-network)"))
 
 
 class SupplyCurrent(Strict):
-    operating: Tol("A")
-    power_down: Tol("A") | None = None
+    """The protector's own current consumption."""
+
+    operating: Tol("A") = Field(description=(
+        "supply current in normal operation (toleranced amperes, the data sheet's current "
+        "consumption); its maximum times the supply filter resistance shifts a single-cell "
+        "protector's thresholds (support-network), and it drains a stored pack (storage-drain)"))
+    power_down: Tol("A") | None = Field(default=None, description=(
+        "supply current after an over-discharge cut-off (power-down or standby, toleranced "
+        "amperes); it drains the cells on towards their lower limit; when absent, the operating "
+        "current"))
 
 
 class Protector(Strict):
-    kind: Literal["protector"]
-    chemistry: list[Chemistry] | None = Field(
-        default=None, description="chemistries the protector's thresholds are made for")
-    cells: int = Field(default=1, ge=1, le=16)
-    overcharge: Threshold
-    overdischarge: Threshold
-    overcurrent: CurrentThreshold
-    short_circuit: CurrentThreshold | None = None
-    supply_current: SupplyCurrent
-    gate_drive: Literal["cell"] | Volts = Field(
-        default="cell", description="'cell' when the gates are driven at the cell voltage")
-    supply_filter: SupplyFilter | None = Field(
-        default=None, description="recommended supply filter: {r: {min, max}, c: {min, max}}")
+    """A battery protector: watches the cells and drives the charge and discharge switches."""
+
+    kind: Literal["protector"] = Field(description="the part kind: 'protector'")
+    chemistry: list[Chemistry] | None = Field(default=None, description=(
+        "cell chemistries the protector's thresholds are made for, e.g. [lco, nmc, nca]; a cell "
+        "of another chemistry is an error (threshold-ladder)"))
+    cells: int = Field(default=1, ge=1, le=16, description=(
+        "number of cells in series it protects, 1-16; must equal the stack's series count; above "
+        "1 it has the pins cell1..cellN and balance1..balanceN"))
+    overcharge: Threshold = Field(description=(
+        "overcharge detection, per cell: {detect, release, delay, release_on}"))
+    overdischarge: Threshold = Field(description=(
+        "over-discharge detection, per cell: {detect, release, delay, release_on}; its "
+        "detection is also the lowest cell voltage, and so the lowest gate drive, in service"))
+    overcurrent: CurrentThreshold = Field(description=(
+        "discharge over-current detection, across the sense and ground pins: {detect, release, "
+        "delay, release_on, retry_period}"))
+    short_circuit: CurrentThreshold | None = Field(default=None, description=(
+        "short-circuit detection, across the sense and ground pins: {detect, release, delay, "
+        "release_on, retry_period}"))
+    supply_current: SupplyCurrent = Field(description=(
+        "the protector's own current: {operating, power_down}"))
+    gate_drive: Literal["cell"] | Volts = Field(default="cell", description=(
+        "'cell' when the gate outputs swing between ground and supply, so the drive is the cell "
+        "voltage (the stack voltage for a multi-cell protector); or a fixed drive in volts, e.g. "
+        "'12 V' from a charge pump; it sets the switches' on-resistance and is checked against "
+        "their vgs_max and vgs_th"))
+    supply_filter: SupplyFilter | None = Field(default=None, description=(
+        "the maker's recommended supply filter: {r: {min, max}, c: {min, max}}"))
 
 
 class Channel(str, Enum):
@@ -388,9 +566,15 @@ class Channel(str, Enum):
 
 
 class RdsOnPoint(Strict):
-    vgs: Volts
-    typ: Ohms | None = None
-    max: Ohms | None = None
+    """One row of a data sheet's on-resistance table, at 25 °C."""
+
+    vgs: Volts = Field(description=(
+        "gate-source voltage of the row, in volts (p-channel data sheets print it negative; read "
+        "as a magnitude)"))
+    typ: Ohms | None = Field(default=None, description=(
+        "typical R_DS(on) at that gate voltage and 25 °C, in ohms, e.g. '25 mΩ'"))
+    max: Ohms | None = Field(default=None, description=(
+        "maximum R_DS(on) at that gate voltage and 25 °C, in ohms"))
 
     @model_validator(mode="after")
     def _given(self) -> "RdsOnPoint":
@@ -404,33 +588,71 @@ class RdsOnPoint(Strict):
 
 
 class HotRatio(Strict):
-    at: Celsius = 125.0
-    ratio: float = Field(gt=0.5, lt=5.0)
+    """How much the on-resistance rises when the junction is hot."""
+
+    at: Celsius = Field(default=125.0, description=(
+        "junction temperature the ratio is read at, in °C"))
+    ratio: float = Field(gt=0.5, lt=5.0, description=(
+        "R_DS(on) at that temperature over R_DS(on) at 25 °C, from the data sheet's normalised "
+        "on-resistance curve, e.g. 1.44 (a plain number between 0.5 and 5)"))
 
 
 class FetCommon(Strict):
-    channel: Channel
-    vds_max: Volts
-    vgs_max: Volts
-    vgs_th: Tol("V")
-    rds_on: list[RdsOnPoint] = Field(min_length=1, max_length=20)
-    rds_on_hot_ratio: HotRatio | None = None
-    id_max: Amps
-    id_pulse_max: Amps | None = None
-    turn_off_time: Seconds | None = Field(
-        default=None, description="drain current fall time when the gate is pulled off, for "
-                                  "turn-off spikes (1 µs assumed when not given)")
-    theta_ja: KelvinPerWatt
-    tj_max: Celsius = 150.0
-    idss: Amps | None = Field(default=None, description="drain leakage at vds_max")
+    """Parameters every switch MOSFET gives, per channel for a pair."""
+
+    channel: Channel = Field(description=(
+        "channel type, 'n' or 'p'; decides which rail the switch can sit on with gate_drive: "
+        "cell and the direction of its body diode"))
+    vds_max: Volts = Field(description=(
+        "drain-source voltage rating V_DS (absolute maximum), in volts: the worst voltage the off "
+        "switch blocks must stay within a derated share of it, 80 % by default "
+        "(switch-voltage-margin), a turn-off spike within it (short-circuit-stress)"))
+    vgs_max: Volts = Field(description=(
+        "gate-source voltage rating V_GS (absolute maximum), in volts; the highest gate drive "
+        "must stay within a derated share of it, 70 % by default (switch-voltage-margin)"))
+    vgs_th: Tol("V") = Field(description=(
+        "gate threshold voltage V_GS(th) (toleranced volts, e.g. {min: 0.5 V, max: 1.0 V}); its "
+        "max must sit below the lowest gate drive, the over-discharge detection with gate_drive: "
+        "cell, or the FET is not fully on near the end of discharge (switch-voltage-margin)"))
+    rds_on: list[RdsOnPoint] = Field(min_length=1, max_length=20, description=(
+        "on-resistance table at 25 °C, one row per gate voltage the data sheet gives: a list of "
+        "{vgs, typ, max}, 1-20 rows; interpolated to the gate drive, extrapolated below the "
+        "lowest row with a note"))
+    rds_on_hot_ratio: HotRatio | None = Field(default=None, description=(
+        "rise of R_DS(on) with junction temperature, {at, ratio}; when absent, 1.5 at 125 °C "
+        "[practice]"))
+    id_max: Amps = Field(description=(
+        "continuous drain current rating I_D per channel, in amperes; each channel's share of "
+        "the over-current trip maximum must not exceed it (trip-current-window)"))
+    id_pulse_max: Amps | None = Field(default=None, description=(
+        "pulsed drain current rating I_DM per channel, in amperes; a hard short's channel current "
+        "must stay within it until the protection turns it off (short-circuit-stress)"))
+    turn_off_time: Seconds | None = Field(default=None, description=(
+        "drain current fall time when the gate is pulled off, in seconds; with "
+        "pack.wiring_inductance it sets the turn-off spike (1 µs assumed when not given)"))
+    theta_ja: KelvinPerWatt = Field(description=(
+        "junction-to-ambient thermal resistance R_θJA on the board as built, in K/W, for the "
+        "whole package; the junction sits at ambient + dissipation × theta_ja "
+        "(switch-temperature)"))
+    tj_max: Celsius = Field(default=150.0, description=(
+        "maximum junction temperature T_J, in °C; the junctions must stay below it "
+        "(switch-temperature), and no thermal balance below it is thermal runaway"))
+    idss: Amps | None = Field(default=None, description=(
+        "zero-gate-voltage drain leakage I_DSS at vds_max, in amperes; the discharge switches' "
+        "leakage counts as a drain on a stored pack (storage-drain)"))
 
 
 class Fet(FetCommon):
-    kind: Literal["fet"]
+    """A discrete MOSFET used as a charge or discharge switch."""
+
+    kind: Literal["fet"] = Field(description="the part kind: 'fet'")
 
 
 class FetPair(FetCommon):
-    kind: Literal["fet_pair_common_drain"]
+    """Two MOSFETs sharing one drain in one package: the usual charge and discharge switch pair."""
+
+    kind: Literal["fet_pair_common_drain"] = Field(description=(
+        "the part kind: 'fet_pair_common_drain'"))
 
 
 class FuseSpeed(str, Enum):
@@ -439,35 +661,73 @@ class FuseSpeed(str, Enum):
 
 
 class Fuse(Strict):
-    kind: Literal["fuse"]
-    rated_current: Amps
-    rated_voltage: Volts
-    breaking_capacity: Amps
-    melting_i2t: AmpSquaredSeconds | None = None
-    speed: FuseSpeed = FuseSpeed.time_lag
-    resistance: Ohms | None = Field(default=None, description="cold resistance")
+    """A fuse: the secondary protection in series with the power path."""
+
+    kind: Literal["fuse"] = Field(description="the part kind: 'fuse'")
+    rated_current: Amps = Field(description=(
+        "rated current I_n, in amperes; derated (to 75 % by default) it must carry the "
+        "over-current trip maximum (secondary-protection)"))
+    rated_voltage: Volts = Field(description=(
+        "rated voltage, in volts; at least the highest pack or charger voltage "
+        "(secondary-protection)"))
+    breaking_capacity: Amps = Field(description=(
+        "breaking capacity (rated interrupting current), in amperes; at least the prospective "
+        "short-circuit current (secondary-protection)"))
+    melting_i2t: AmpSquaredSeconds | None = Field(default=None, description=(
+        "melting (pre-arcing) I²t, in A²s, e.g. '95 A2s'; the I²t let through during the "
+        "longest over-current and short-circuit delays must stay below a share of it, 48 % by "
+        "default (secondary-protection); when absent, an info finding"))
+    speed: FuseSpeed = Field(default=FuseSpeed.time_lag, description=(
+        "'quick_acting' or 'time_lag', as IEC 60127 names them; recorded for reviewers, not yet "
+        "used by a rule"))
+    resistance: Ohms | None = Field(default=None, description=(
+        "cold resistance, in ohms; part of the power path's resistance (taken as near zero when "
+        "absent)"))
 
 
 class Ptc(Strict):
-    kind: Literal["ptc"]
-    hold_current: Amps
-    trip_current: Amps
-    rated_voltage: Volts
-    max_current: Amps
-    resistance: Tol("Ω")
+    """A resettable PTC fuse used as the secondary protection."""
+
+    kind: Literal["ptc"] = Field(description="the part kind: 'ptc'")
+    hold_current: Amps = Field(description=(
+        "hold current I_hold, in amperes, the highest it carries without tripping; at least the "
+        "continuous load (secondary-protection)"))
+    trip_current: Amps = Field(description=(
+        "trip current I_trip, in amperes; recorded, not yet used by a rule"))
+    rated_voltage: Volts = Field(description=(
+        "rated voltage V_max, in volts; at least the highest pack or charger voltage "
+        "(secondary-protection)"))
+    max_current: Amps = Field(description=(
+        "highest fault current it withstands, I_max, in amperes; recorded, not yet used by a rule"))
+    resistance: Tol("Ω") = Field(description=(
+        "resistance before tripping (toleranced ohms, the data sheet's R_min and R_max); part of "
+        "the power path's resistance at each corner"))
 
 
 class Resistor(Strict):
-    kind: Literal["resistor"]
-    value: Ohms
-    tol: Percent = 1.0
-    power: Watts | None = None
+    """A resistor: a shunt in the power path, or a signal part (supply filter, sense, divider)."""
+
+    kind: Literal["resistor"] = Field(description="the part kind: 'resistor'")
+    value: Ohms = Field(description=(
+        "resistance, in ohms, e.g. '470 Ω'; a resistor of 1 Ω or less is taken to carry the "
+        "pack's current (a shunt), a larger one a signal"))
+    tol: Percent = Field(default=1.0, description=(
+        "resistance tolerance, in percent; the worst cases and the --yield run use value ± tol"))
+    power: Watts | None = Field(default=None, description=(
+        "power rating, in watts; its worst dissipation must stay within a derated share of it, "
+        "50 % by default (support-network); when absent, not checked"))
 
 
 class Capacitor(Strict):
-    kind: Literal["capacitor"]
-    value: Farads
-    voltage: Volts | None = None
+    """A capacitor: the protector's supply filter, or a decoupling capacitor."""
+
+    kind: Literal["capacitor"] = Field(description="the part kind: 'capacitor'")
+    value: Farads = Field(description=(
+        "capacitance, in farads, e.g. '100 nF'; the supply filter's capacitor is compared with "
+        "the recommended range (support-network)"))
+    voltage: Volts | None = Field(default=None, description=(
+        "voltage rating, in volts; the highest voltage across it must stay within a derated "
+        "share of it, 80 % by default (support-network); when absent, not checked"))
 
 
 class Layer(str, Enum):
@@ -476,12 +736,21 @@ class Layer(str, Enum):
 
 
 class Trace(Strict):
-    kind: Literal["trace"]
-    width: Metres
-    length: Metres
-    thickness: Metres | None = None
-    copper_weight: Q("oz") | None = None
-    layer: Layer = Layer.outer
+    """A copper trace of the power path, rated by the IPC-2221 conductor formula."""
+
+    kind: Literal["trace"] = Field(description="the part kind: 'trace'")
+    width: Metres = Field(description=(
+        "trace width, in metres, e.g. '2 mm'; with the copper thickness it gives the "
+        "cross-section IPC-2221 rates (conductor-capacity)"))
+    length: Metres = Field(description=(
+        "trace length, in metres, e.g. '20 mm'; with width and thickness it gives the copper "
+        "resistance in the power path (IEC 60028 resistivity)"))
+    thickness: Metres | None = Field(default=None, description=(
+        "finished copper thickness, in metres, e.g. '35 um'; give it or copper_weight"))
+    copper_weight: Q("oz") | None = Field(default=None, description=(
+        "copper weight in ounces per square foot, e.g. '1 oz' (35 µm); give it or thickness"))
+    layer: Layer = Field(default=Layer.outer, description=(
+        "'outer' or 'inner' layer; IPC-2221 rates inner traces at half the current"))
 
     @model_validator(mode="after")
     def _copper(self) -> "Trace":
@@ -491,18 +760,29 @@ class Trace(Strict):
 
 
 class Wire(Strict):
-    kind: Literal["wire"]
-    rated_current: Amps
-    resistance: Ohms | None = None
-    length: Metres | None = None
-    cross_section: Q("m") | None = Field(default=None, description="not used yet")
+    """A wire or cable of the power path."""
+
+    kind: Literal["wire"] = Field(description="the part kind: 'wire'")
+    rated_current: Amps = Field(description=(
+        "current rating of the wire as installed, in amperes; at least the highest current the "
+        "protection permits through it (conductor-capacity)"))
+    resistance: Ohms | None = Field(default=None, description=(
+        "resistance of the whole wire, in ohms; part of the power path (near zero when absent)"))
+    length: Metres | None = Field(default=None, description=(
+        "wire length, in metres; recorded, not yet used"))
 
 
 class Diode(Strict):
-    kind: Literal["diode"]
-    forward_voltage: Volts = 0.7
-    led: bool = False
-    current: Amps | None = Field(default=None, description="current when lit, for LEDs")
+    """A diode or LED; an LED the cells can light drains a stored pack."""
+
+    kind: Literal["diode"] = Field(description="the part kind: 'diode'")
+    forward_voltage: Volts = Field(default=0.7, description=(
+        "forward voltage V_F, in volts; the diode conducts above it in the linter's solves"))
+    led: bool = Field(default=False, description=(
+        "true for an LED: lit from the cells it counts as a storage drain (storage-drain)"))
+    current: Amps | None = Field(default=None, description=(
+        "current when lit, in amperes, for LEDs; counted as the drain instead of the solved "
+        "current"))
 
 
 PART_KINDS: dict[str, type[Strict]] = {
@@ -523,15 +803,17 @@ Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items()
 class PartRef(Strict):
     """A component that uses a library part by name."""
 
-    part: str = Field(min_length=1, max_length=100)
-    pins: Pins
-    note: str | None = None
+    part: str = Field(min_length=1, max_length=100, description=(
+        "name of a part in one of the design's libraries, e.g. 'OR-FET-D20'"))
+    pins: Pins = Field(description=_PINS_TEXT)
+    note: str | None = Field(default=None, description=_NOTE_TEXT)
 
 
 def _inline(kind: str, model: type[Strict]) -> type[Strict]:
     return type(f"Inline{model.__name__}", (model,), {
         "__annotations__": {"pins": Pins, "note": str | None},
-        "note": None,
+        "pins": Field(description=_PINS_TEXT),
+        "note": Field(default=None, description=_NOTE_TEXT),
         "__doc__": f"A {kind} given inline, with its parameters.",
     })
 
@@ -561,21 +843,42 @@ RefDes = Annotated[str, Field(pattern=r"^[A-Za-z][A-Za-z0-9_.\-]{0,39}$")]
 
 
 class Design(Strict):
-    format: Literal["packwarden/1"] = Field(alias="format")
-    design: DesignInfo
-    libraries: list[str] = Field(default_factory=list, max_length=50)
-    pack: Pack
-    load: Load
-    charger: Charger | None = None
-    storage: Storage | None = None
-    components: dict[RefDes, Component] = Field(max_length=20000)
-    waivers: list[Waiver] = Field(default_factory=list)
+    """A battery-protection design: the pack, its load and charger, and the netlist."""
+
+    format: Literal["packwarden/1"] = Field(alias="format", description=(
+        "the format and its version: 'packwarden/1'"))
+    design: DesignInfo = Field(description="what the design is: {name, revision, description}")
+    libraries: list[str] = Field(default_factory=list, max_length=50, description=(
+        "part library files, relative to this design and inside its repository, e.g. "
+        "[parts/orchard-parts.yaml]; up to 50"))
+    pack: Pack = Field(description="the pack: {ambient, terminals, wiring_inductance}")
+    load: Load = Field(description="what the product draws from the pack: {continuous, peak}")
+    charger: Charger | None = Field(default=None, description=(
+        "the charger: {voltage, current, open_circuit_max, reverse_polarity, "
+        "temperature_window}; without it the charging checks are skipped"))
+    storage: Storage | None = Field(default=None, description=(
+        "how the product is stored or shipped: {soc, duration, temperature}; without it "
+        "storage-drain is skipped"))
+    components: dict[RefDes, Component] = Field(max_length=20000, description=(
+        "the parts on the board, keyed by reference designator (a letter, then up to 39 letters, "
+        "digits, '_', '.' or '-'): each uses a library part ({part, pins}) or gives its kind and "
+        "parameters inline ({kind, ..., pins})"))
+    waivers: list[Waiver] = Field(default_factory=list, description=(
+        "accepted findings, each {rule, element, reason, approved_by, expires}"))
 
 
 class PartLibrary(Strict):
-    format: Literal["packwarden-parts/1"]
-    include: list[str] = Field(default_factory=list, max_length=50)
-    parts: dict[Annotated[str, Field(min_length=1, max_length=100)], Part] = Field(default_factory=dict)
+    """A part library: parts by name, each defined by its kind and data-sheet parameters."""
+
+    format: Literal["packwarden-parts/1"] = Field(description=(
+        "the format and its version: 'packwarden-parts/1'"))
+    include: list[str] = Field(default_factory=list, max_length=50, description=(
+        "further library files whose parts this one brings in, relative to this file and inside "
+        "the repository; up to 50"))
+    parts: dict[Annotated[str, Field(min_length=1, max_length=100)], Part] = Field(
+        default_factory=dict, description=(
+            "parts by name (up to 100 characters, unique across a design's libraries), each with "
+            "its kind and parameters"))
 
 
 # --- JSON Schema --------------------------------------------------------------------------------
