@@ -44,7 +44,7 @@ from pydantic import ValidationError
 
 from .api import Finding, Severity
 from .config import Config
-from .engine import Registry, Session, lint_file, load_registry
+from .engine import Registry, RunResult, Session, lint, lint_file, load_registry
 from .library import shown_path
 from .loader import Document, InputError, load_file
 
@@ -326,3 +326,32 @@ def _diff(case: Case, missing: list[Expected], extra: list[Finding], actual: lis
     lines.append(f"all findings of {case.rule} ({len(actual)}):")
     lines += [f"    {_show(f)}" for f in actual] or ["    (none)"]
     return "\n".join(lines)
+
+
+def lint_variant(folder: str | Path, design: str | Path, library: str | Path, *,
+                 replace: Iterable[tuple[str, str]] = (), lib_replace: Iterable[tuple[str, str]] = (),
+                 extra: str = "", prefix: str = "") -> RunResult:
+    """Lint a variant of ``design`` (a design that names ``parts/<library file>``) in ``folder``.
+
+    The design and its library are copied into ``folder`` (which becomes a repository root), each
+    ``(old, new)`` in ``replace``/``lib_replace`` is applied — every ``old`` must occur, so a test
+    cannot silently stop testing what it meant to — and ``prefix``/``extra`` text is put before and
+    after the design. Useful for "the example, with one thing changed" tests of a rule.
+    """
+    folder, design, library = Path(folder), Path(design), Path(library)
+    (folder / "packwarden.toml").write_text("", encoding="utf-8")
+    (folder / "parts").mkdir(exist_ok=True)
+    (folder / "parts" / library.name).write_text(
+        _replaced(library.read_text(encoding="utf-8"), lib_replace), encoding="utf-8")
+    path = folder / design.name
+    path.write_text(prefix + _replaced(design.read_text(encoding="utf-8"), replace) + extra,
+                    encoding="utf-8")
+    return lint([str(path)])
+
+
+def _replaced(text: str, subs: Iterable[tuple[str, str]]) -> str:
+    for old, new in subs:
+        if old not in text:
+            raise CaseError(f"text to replace not found: {old!r}")
+        text = text.replace(old, new)
+    return text

@@ -4,7 +4,7 @@ from pathlib import Path
 
 import pytest
 
-from packwarden.engine import lint
+from packwarden.testing import lint_variant
 
 REPO = Path(__file__).resolve().parents[2]
 RIDGE = ("ridgeline-tool-4s2p.yaml", "ridgeline-parts.yaml")
@@ -12,20 +12,9 @@ ORCHARD = ("orchard-probe.yaml", "orchard-parts.yaml")
 
 
 def _run(tmp_path, name, library, replace=(), lib_replace=(), extra=""):
-    (tmp_path / "packwarden.toml").write_text("")
-    (tmp_path / "parts").mkdir(exist_ok=True)
-    lib = (REPO / "example_designs/parts" / library).read_text()
-    for a, b in lib_replace:
-        assert a in lib, a
-        lib = lib.replace(a, b)
-    (tmp_path / "parts" / library).write_text(lib)
-    text = (REPO / "example_designs" / name).read_text()
-    for a, b in replace:
-        assert a in text, a
-        text = text.replace(a, b)
-    path = tmp_path / name
-    path.write_text(text + extra)
-    run = lint([str(path)])
+    run = lint_variant(tmp_path, REPO / "example_designs" / name,
+                       REPO / "example_designs/parts" / library,
+                       replace=replace, lib_replace=lib_replace, extra=extra)
     assert not run.input_errors(), [str(e) for e in run.input_errors()]
     (result,) = run.designs
     assert not result.internal, result.internal

@@ -7,6 +7,7 @@ import pytest
 from packwarden.engine import lint
 from packwarden.model import ocv
 from packwarden.model.storage import DEFAULT_SELF_DISCHARGE
+from packwarden.testing import lint_variant
 
 REPO = Path(__file__).resolve().parents[2]
 
@@ -176,12 +177,8 @@ def test_fet_leakage_counts_the_discharge_switch(tmp_path):
 
 def _example_copy(tmp_path, name: str, library: str, extra: str = "", storage: str = ""):
     """The model of an example design copied into ``tmp_path`` with its library, plus lines."""
-    (tmp_path / "packwarden.toml").write_text("")
-    (tmp_path / "parts").mkdir()
-    (tmp_path / "parts" / library).write_text((REPO / "example_designs/parts" / library).read_text())
-    path = tmp_path / name
-    path.write_text(storage + (REPO / "example_designs" / name).read_text() + extra)
-    run = lint([str(path)])
+    run = lint_variant(tmp_path, REPO / "example_designs" / name,
+                       REPO / "example_designs/parts" / library, prefix=storage, extra=extra)
     assert not run.input_errors(), [str(e) for e in run.input_errors()]
     (result,) = run.designs
     assert not result.internal, result.internal

@@ -4,8 +4,8 @@ from pathlib import Path
 
 import pytest
 
-from packwarden.engine import lint
 from packwarden.model.support import DEFAULT_SENSE_R, DEFAULT_SUPPLY_C, DEFAULT_SUPPLY_R
+from packwarden.testing import lint_variant
 
 REPO = Path(__file__).resolve().parents[2]
 
@@ -13,20 +13,9 @@ REPO = Path(__file__).resolve().parents[2]
 def _copy(tmp_path, name: str, library: str, replace: tuple[tuple[str, str], ...] = (),
           extra: str = "", lib_replace: tuple[tuple[str, str], ...] = ()):
     """Lint a copy of an example design (and its library) made in ``tmp_path``."""
-    (tmp_path / "packwarden.toml").write_text("")
-    (tmp_path / "parts").mkdir(exist_ok=True)
-    lib = (REPO / "example_designs/parts" / library).read_text()
-    for a, b in lib_replace:
-        assert a in lib, a
-        lib = lib.replace(a, b)
-    (tmp_path / "parts" / library).write_text(lib)
-    text = (REPO / "example_designs" / name).read_text()
-    for a, b in replace:
-        assert a in text, a
-        text = text.replace(a, b)
-    path = tmp_path / name
-    path.write_text(text + extra)
-    return lint([str(path)])
+    return lint_variant(tmp_path, REPO / "example_designs" / name,
+                        REPO / "example_designs/parts" / library,
+                        replace=replace, lib_replace=lib_replace, extra=extra)
 
 
 def _model(tmp_path, *args, **kwargs):
