@@ -51,32 +51,23 @@ def check(ctx, options):
         return
     yield from _supply_filter(ctx, m, p, options)
     yield from _sense_resistor(ctx, m, p, options)
-    for s in m.capacitor_stress:
-        c = s.component
-        if s.rating is None:
-            continue
-        limit = s.rating * options.capacitor_derating
-        if s.value > limit:
-            yield ctx.finding(
-                f"{c.refdes} sees {fq(s.value, 'V')} ({s.case}) but "
-                f"{fq(options.capacitor_derating * 100, '%', 2)} of its {fq(s.rating, 'V')} rating "
-                f"is {fq(limit, 'V')}",
-                path=_at(c, "voltage"), element=c.refdes, key="capacitor-voltage",
-                figures=[Figure("voltage", s.value, "V"), Figure("rated voltage", s.rating, "V")],
-                hint=f"use a capacitor rated ≥ {fq(s.value / options.capacitor_derating, 'V')}")
-    for s in m.resistor_stress:
-        c = s.component
-        if s.rating is None:
-            continue
-        limit = s.rating * options.resistor_derating
-        if s.value > limit:
-            yield ctx.finding(
-                f"{c.refdes} dissipates {fq(s.value, 'W')} ({s.case}) but "
-                f"{fq(options.resistor_derating * 100, '%', 2)} of its {fq(s.rating, 'W')} rating "
-                f"is {fq(limit, 'W')}",
-                path=_at(c, "power"), element=c.refdes, key="resistor-power",
-                figures=[Figure("power", s.value, "W"), Figure("rated power", s.rating, "W")],
-                hint=f"use a resistor rated ≥ {fq(s.value / options.resistor_derating, 'W')}")
+    # Capacitors against their voltage rating, resistors against their power rating: one check.
+    for stresses, derating, unit, verb, field, what in (
+            (m.capacitor_stress, options.capacitor_derating, "V", "sees", "voltage", "capacitor"),
+            (m.resistor_stress, options.resistor_derating, "W", "dissipates", "power", "resistor")):
+        for s in stresses:
+            c = s.component
+            if s.rating is None:
+                continue
+            limit = s.rating * derating
+            if s.value > limit:
+                yield ctx.finding(
+                    f"{c.refdes} {verb} {fq(s.value, unit)} ({s.case}) but "
+                    f"{fq(derating * 100, '%', 2)} of its {fq(s.rating, unit)} rating "
+                    f"is {fq(limit, unit)}",
+                    path=_at(c, field), element=c.refdes, key=f"{what}-{field}",
+                    figures=[Figure(field, s.value, unit), Figure(f"rated {field}", s.rating, unit)],
+                    hint=f"use a {what} rated ≥ {fq(s.value / derating, unit)}")
 
 
 def _supply_filter(ctx, m, p, options):
