@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import json
 import os
 import sys
 from enum import Enum
@@ -79,11 +78,13 @@ def check(
     distribution: Distribution = typer.Option(
         Distribution.uniform, "--distribution",
         help="--yield draws: uniform within the limits, or normal with the tolerance as 3σ"),
+    jobs: Optional[int] = typer.Option(
+        None, "--jobs", "-j", metavar="N", min=1,
+        help="worker processes (default: one per processor for a batch of 16 designs or more, "
+             "else 1; the html format and --yield lint in one process)"),
 ) -> None:
     """Lint designs; exit 0 clean, 1 findings at or above --fail-on, 2 input could not be used."""
     from .api import Severity
-    from .baseline import compare, lint_since, read_baseline
-    from .baseline import write_baseline as record_baseline
     from .engine import Registry, RequiredPluginError, lint
     from .loader import InputError
     from .progress import progress_for
@@ -101,9 +102,13 @@ def check(
         paths = _designs_only(paths)
     level = Severity(fail_on.value) if fail_on else None
     bar = progress_for(sys.stderr, quiet=quiet)
+    # The HTML report and the yield run read each design's model, which stays in the process
+    # that built it: they lint in this one.
+    needs_models = format == Format.html or bool(yield_samples)
     try:
         run = lint(paths, config=config, fail_on=level, progress=bar,
-                   require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()])
+                   require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()],
+                   jobs=1 if needs_models else jobs, keep_models=needs_models)
     except RequiredPluginError as exc:
         sys.stderr.write(f"{exc}\n")
         raise typer.Exit(2)
@@ -118,6 +123,7 @@ def check(
     comparison = None
     try:
         if write_baseline is not None:
+            from .baseline import write_baseline as record_baseline
             try:
                 n = record_baseline(run, write_baseline)
             except OSError as exc:
@@ -125,8 +131,10 @@ def check(
                                  f"cannot write the baseline: {exc.strerror or exc}") from None
             note(f"{n} finding(s) recorded in baseline {write_baseline}")
         if baseline is not None:
+            from .baseline import compare, read_baseline
             run, comparison = compare(run, read_baseline(baseline, str(baseline)), str(baseline))
         elif since is not None:
+            from .baseline import compare, lint_since
             entries, earlier_errors = lint_since(since, paths, Registry(rules=dict(run.rules)),
                                                  config=config, fail_on=level)
             run, comparison = compare(run, entries, f"git revision {since}")
@@ -204,6 +212,8 @@ def docs(
 def schema(kind: SchemaKind = typer.Argument(SchemaKind.design,
                                              help="design, parts or policy")) -> None:
     """Print the JSON Schema of design files, part libraries or team policy files."""
+    import json
+
     from .schema import json_schema
     sys.stdout.write(json.dumps(json_schema(kind.value), indent=2, ensure_ascii=False) + "\n")
 
@@ -294,6 +304,18 @@ def main() -> None:
         app()
     except KeyboardInterrupt:  # pragma: no cover
         sys.exit(130)
+    except SystemExit as exc:
+        code = 0 if exc.code is None else exc.code
+        if not isinstance(code, int):
+            raise
+        # The command is done and its output written: leave without the interpreter's teardown,
+        # which frees every module and object one by one and is a twentieth of a short run.
+        try:
+            sys.stdout.flush()
+            sys.stderr.flush()
+        except (OSError, ValueError):
+            raise exc from None  # a closed pipe: let Python report it as it always does
+        os._exit(code)
 
 
 if __name__ == "__main__":  # pragma: no cover

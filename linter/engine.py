@@ -9,7 +9,6 @@ import datetime as _dt
 import importlib.util
 import os
 import sys
-import traceback
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any, Callable, Iterable
@@ -57,18 +56,28 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     from importlib.metadata import entry_points
 
     reg = Registry()
+    names: dict[int, str] = {}
+
+    def dist_name(ep) -> str:
+        # A distribution's name is read from its metadata file on every access; its entry
+        # points share one distribution object, so each is read once.
+        key = id(ep.dist)
+        if key not in names:
+            names[key] = ep.dist.name
+        return names[key]
 
     def order(ep) -> tuple:
         # packwarden's own rules first, then plugins by distribution: when a plugin reuses a
         # built-in id, the plugin is the one reported, and the outcome never depends on a name.
-        dist = ep.dist.name if ep.dist else ""
+        dist = dist_name(ep) if ep.dist else ""
         return (dist != "packwarden", dist, ep.name)
 
-    eps = sorted(entry_points(group=ENTRY_POINT_GROUP), key=order)
+    found = list(entry_points(group=ENTRY_POINT_GROUP))
+    eps = sorted(found, key=order)
     for ep in eps:
-        plugin = ep.dist.name if ep.dist else ep.module
+        plugin = dist_name(ep) if ep.dist else ep.module
         if ep.dist is not None:
-            reg.distributions.add(normalize_name(ep.dist.name))
+            reg.distributions.add(normalize_name(dist_name(ep)))
         origin = f"{plugin}:{ep.name}"
         try:
             obj = ep.load()
@@ -264,8 +273,24 @@ class Session:
     config_override: Path | None = None
     today: _dt.date = field(default_factory=_dt.date.today)
 
+    #: Per folder of designs: the config found above it, and its repository root (a batch
+    #: holds thousands of designs in a few folders; each walk up the tree is done once).
+    config_paths: dict[Path, Path | None] = field(default_factory=dict)
+    roots: dict[Path, Path] = field(default_factory=dict)
+
+    def root_for(self, folder: Path) -> Path:
+        root = self.roots.get(folder)
+        if root is None:
+            root = self.roots[folder] = repository_root(folder)
+        return root
+
     def config_for(self, design: Path) -> tuple[Config | None, dict, InputError | None]:
-        path = self.config_override or find_config(design.parent)
+        path = self.config_override
+        if path is None:
+            folder = design.parent
+            if folder not in self.config_paths:
+                self.config_paths[folder] = find_config(folder)
+            path = self.config_paths[folder]
         if path not in self.configs:
             try:
                 cfg = load_config(path, shown_path(path) if path else None)
@@ -334,7 +359,7 @@ def lint_file(session: Session, path: Path, shown: str) -> DesignResult:
         result.errors.extend(errors)
         return result
     result.name = design.design.name
-    root = repository_root(path.parent)
+    root = session.root_for(path.parent)
     resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root)
     if resolved.errors:
         result.errors.extend(resolved.errors)
@@ -430,21 +455,43 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
 
 
 def _describe(exc: BaseException) -> str:
+    import traceback
     tb = traceback.extract_tb(exc.__traceback__)
     last = tb[-1] if tb else None
     where = f" (at {os.path.basename(last.filename)}:{last.lineno})" if last else ""
     return f"{type(exc).__name__}: {exc}{where}"
 
 
+#: With ``jobs=None`` a batch of at least this many designs is split over worker processes; a
+#: smaller one is linted in this process, where a worker's start and its own reading of the part
+#: libraries would cost more than the workers save.
+PARALLEL_MIN_DESIGNS = 16
+
+
+def default_jobs() -> int:
+    """Processors this process may run on."""
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except (AttributeError, OSError):  # pragma: no cover - not Linux
+        return max(1, os.cpu_count() or 1)
+
+
 def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | None = None,
          fail_on: Severity | None = None,
          progress: Callable[[int, int, str], None] | None = None,
-         require: Iterable[str] = ()) -> RunResult:
+         require: Iterable[str] = (), jobs: int | None = 1,
+         keep_models: bool = True) -> RunResult:
     """Lint every design found under ``paths``; ``progress(done, total, file)`` after each one.
 
     ``require`` names plugin distributions that must be installed (``--require-plugins``); with
     the config's ``require_plugins`` they are checked before any design is read, and a missing
     one raises :class:`RequiredPluginError`.
+
+    ``jobs`` is the number of worker processes: 1 lints in this process; None takes one per
+    processor for a batch of :data:`PARALLEL_MIN_DESIGNS` designs or more. Each worker keeps its
+    own session, so a part library is read once per worker, and the results come back in the
+    order of the designs, the same as in one process. Worker results carry no ``model``; nor do
+    any results when ``keep_models`` is False (the HTML report and ``--yield`` need them).
     """
     discovery_errors: list[InputError] = []
     found = discover(paths, discovery_errors)
@@ -458,21 +505,26 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
         first_cfg = load_config(first_cfg_path, shown_path(first_cfg_path) if first_cfg_path else None)
     except InputError as exc:
         cfg_error = exc
+    rule_paths = first_cfg.rule_paths if first_cfg else []
     if reg is None:
-        reg = load_registry(first_cfg.rule_paths if first_cfg else [])
+        reg = load_registry(rule_paths)
         require_plugins(reg, require, first_cfg)
     else:  # the caller chose the rules (a second pass of --since, tests): only its own demands
         require_plugins(reg, require)
     session = Session(registry=reg, config_override=config)
     run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken), errors=discovery_errors)
-    for done, (path, shown) in enumerate(found, 1):
-        try:
-            run.designs.append(lint_file(session, path, shown))
-        except Exception as exc:  # last resort: no input may end the run with a traceback
-            run.designs.append(DesignResult(file=shown, internal=[
-                InternalError("engine", shown, _describe(exc))]))
-        if progress is not None:
-            progress(done, len(found), shown)
+    workers = _worker_count(jobs, len(found), rebuildable=registry is None)
+    if workers > 1:
+        run.designs = _lint_in_workers(session, found, workers, progress, rule_paths)
+        _adopt(session, found, run.designs)
+    else:
+        for done, (path, shown) in enumerate(found, 1):
+            result = _lint_one(session, path, shown)
+            if not keep_models:
+                result.model = None
+            run.designs.append(result)
+            if progress is not None:
+                progress(done, len(found), shown)
     # a bad config is reported once, not once per design
     seen: set[str] = set()
     for d in run.designs:
@@ -494,6 +546,111 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
         cfgs = [c for c, _, _ in session.configs.values() if c is not None]
         run.fail_on = cfgs[0].fail_on if cfgs else Severity.error
     return run
+
+
+def _lint_one(session: Session, path: Path, shown: str) -> DesignResult:
+    try:
+        return lint_file(session, path, shown)
+    except Exception as exc:  # last resort: no input may end the run with a traceback
+        return DesignResult(file=shown, internal=[InternalError("engine", shown, _describe(exc))])
+
+
+# --- worker processes -------------------------------------------------------------------------
+
+def _worker_count(jobs: int | None, designs: int, rebuildable: bool) -> int:
+    if jobs is None:
+        jobs = default_jobs() if designs >= PARALLEL_MIN_DESIGNS else 1
+    workers = max(1, min(jobs, designs))
+    if workers > 1 and not _FORK and not rebuildable:
+        # Without fork a worker must load the rules itself, and a registry the caller built
+        # cannot be rebuilt there.
+        return 1
+    return workers
+
+
+# Forked workers start with the registry, libraries and imports of this process at no cost;
+# elsewhere (spawn) each worker imports packwarden and loads the rules itself.
+_FORK = sys.platform.startswith("linux")
+_WORKER_SESSION: Session | None = None
+
+
+def _worker_start(registry: Registry | None, rule_paths: list[Path], config: Path | None,
+                  today: _dt.date) -> None:
+    global _WORKER_SESSION
+    if registry is None:
+        registry = load_registry(rule_paths)
+    _WORKER_SESSION = Session(registry=registry, config_override=config, today=today)
+
+
+def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
+    assert _WORKER_SESSION is not None
+    out = []
+    for path, shown in chunk:
+        result = _lint_one(_WORKER_SESSION, path, shown)
+        result.model = None  # the model stays behind: it is large, and only this process has it
+        out.append(result)
+    return out
+
+
+def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: int,
+                     progress: Callable[[int, int, str], None] | None,
+                     rule_paths: list[Path]) -> list[DesignResult]:
+    """Results of ``found``, in order, linted in chunks by ``workers`` processes.
+
+    A chunk whose worker fails (killed, or a result that cannot be sent back) is linted here
+    instead, so a run never loses a design.
+    """
+    import concurrent.futures as futures
+    import multiprocessing
+
+    ctx = multiprocessing.get_context("fork" if _FORK else "spawn")
+    # Chunks small enough that two workers stay busy to the end, large enough that sending
+    # them costs little next to linting them.
+    size = max(1, min(64, len(found) // (workers * 8)))
+    chunks = [found[i:i + size] for i in range(0, len(found), size)]
+    out: list[DesignResult] = []
+    pool = futures.ProcessPoolExecutor(
+        workers, mp_context=ctx, initializer=_worker_start,
+        initargs=(session.registry if _FORK else None, rule_paths, session.config_override,
+                  session.today))
+    try:
+        pending = [pool.submit(_worker_lint, chunk) for chunk in chunks]
+        for chunk, job in zip(chunks, pending):
+            try:
+                results = job.result()
+            except Exception:
+                results = _worker_fallback(session, chunk)
+            for (_, shown), result in zip(chunk, results):
+                out.append(result)
+                if progress is not None:
+                    progress(len(out), len(found), shown)
+    except BaseException:
+        pool.shutdown(wait=False, cancel_futures=True)
+        raise
+    pool.shutdown()
+    return out
+
+
+def _worker_fallback(session: Session, chunk: list[tuple[Path, str]]) -> list[DesignResult]:
+    results = [_lint_one(session, path, shown) for path, shown in chunk]
+    for result in results:
+        result.model = None
+    return results
+
+
+def _adopt(session: Session, found: list[tuple[Path, str]], results: list[DesignResult]) -> None:
+    """Give this process's session what the workers' sessions learnt, as one process would have.
+
+    The configs are read here in the order of the designs (the first one's fail-on is the run's),
+    a config error from a worker is replaced by this session's own, so it is reported once, and
+    the policies are read in the order the designs that ran their rules name them.
+    """
+    for (path, _), result in zip(found, results):
+        cfg, _, error = session.config_for(path)
+        if error is not None:
+            result.errors = [error if str(e) == str(error) else e for e in result.errors]
+        elif cfg is not None and result.linted:
+            session.policy_for(cfg)
 
 
 def _is_config(err: InputError, session: Session) -> bool:

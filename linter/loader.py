@@ -59,6 +59,10 @@ class InputError(Exception):
         # always one line: a newline or control character from the input is shown escaped
         return _one_line(f"{self.file}:{self.line}:{self.column}: {self.message}")
 
+    def __reduce__(self):
+        # Exceptions pickle their ``args`` (the message alone); batch workers send errors back.
+        return (type(self), (self.file, self.line, self.column, self.message))
+
 
 def _one_line(text: str) -> str:
     return "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
@@ -144,11 +148,7 @@ def load_text(text: str, shown: str) -> Document:
     if not text.strip():
         raise InputError(shown, 1, 1, "empty file")
     try:
-        # The event pass refuses aliases, merge keys, deep nesting and node floods before any
-        # node is built: composing a flood is what takes the time, and an alias is only exactly
-        # placed in the event stream (compose hands back the anchored node instead).
-        explicit_str = _prescan(text, shown)
-        node = yaml.compose(text, Loader=_Loader)
+        read = _read(text, shown)
     except yaml.reader.ReaderError as exc:
         line, col = _line_col(text, _reader_index(text, exc.position))
         char = exc.character
@@ -177,30 +177,75 @@ def load_text(text: str, shown: str) -> Document:
         raise InputError(shown, 1, 1, f"YAML error: {first}") from None
     except RecursionError:
         raise InputError(shown, 1, 1, f"nesting deeper than {MAX_DEPTH} levels") from None
-    if node is None or (isinstance(node, yaml.ScalarNode) and node.value == "" and not node.style):
+    if read is None:
         raise InputError(shown, 1, 1, "empty file")  # nothing, or only `---`
-    builder = _Builder(shown, explicit_str)
-    data = builder.build(node, (), 0)
-    return Document(shown, data, builder.positions, builder.key_positions)
+    data, positions, key_positions = read
+    return Document(shown, data, positions, key_positions)
 
 
-def _prescan(text: str, shown: str) -> set:
-    """Check the parser's events; return the positions of scalars explicitly tagged as text."""
-    explicit_str: set = set()
-    stack: list[list[bool]] = []  # per open collection: [is a mapping, next node is a key]
+def _read(text: str, shown: str) -> tuple[object, dict, dict] | None:
+    """The first document's data and positions, in one pass over the parser's events.
+
+    Three kinds of check, each reported as if it ran over the whole file before the next one:
+
+    1. on the events: aliases, merge keys, node count and depth, core tags other than ``!!str``
+       (refused where they are written, before anything is built, so a flood costs nothing);
+    2. on the document: one document only, no anchor defined twice (as libyaml's composer says);
+    3. on the values: plain-text keys, allowed tags, no duplicate keys, numbers that fit.
+
+    A check of a later kind that fails is held until the whole stream has passed the earlier
+    ones; None means the file holds no value at all.
+    """
+    parser = _Loader(text)
+    try:
+        return _events(parser, shown)
+    finally:
+        parser.dispose()
+
+
+def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
+    resolve = _resolve
+    stack: list[list] = []  # per open collection: [is a mapping, next node is a key, build frame]
     count = 0
-    for event in yaml.parse(text, Loader=_Loader):
-        if isinstance(event, (yaml.MappingEndEvent, yaml.SequenceEndEvent)):
+    documents = 0
+    anchors: dict[str, yaml.Mark] = {}
+    root_mark = None
+    late_document: Exception | None = None  # check 2, the first to fail
+    late_value: InputError | None = None  # check 3, the first to fail
+    composing = False  # inside the first document, no document check failed yet
+    building = False  # and no value check failed yet
+    root: list = []
+    root_empty = False
+    positions: dict = {}
+    key_positions: dict = {}
+    for event in iter(parser.get_event, None):
+        kind = type(event)
+        if kind is yaml.MappingEndEvent or kind is yaml.SequenceEndEvent:
             stack.pop()
             continue
-        if not isinstance(event, yaml.NodeEvent):
-            continue  # stream and document boundaries
-        is_key = bool(stack) and stack[-1][0] and stack[-1][1]
-        if stack and stack[-1][0]:
-            stack[-1][1] = not stack[-1][1]
+        if kind is yaml.DocumentStartEvent:
+            documents += 1
+            if documents == 2 and late_document is None:
+                late_document = yaml.composer.ComposerError(
+                    "expected a single document in the stream", root_mark,
+                    "but found another document", event.start_mark)
+            composing = documents == 1 and late_document is None
+            building = composing and late_value is None
+            continue
+        if kind is yaml.DocumentEndEvent:
+            composing = building = False
+            continue
+        if kind is not yaml.ScalarEvent and kind is not yaml.MappingStartEvent \
+                and kind is not yaml.SequenceStartEvent and kind is not yaml.AliasEvent:
+            continue  # stream start and end
+        # 1. the event checks
+        top = stack[-1] if stack else None
+        is_key = top is not None and top[0] and top[1]
+        if top is not None and top[0]:
+            top[1] = not top[1]
         mark = event.start_mark
         line, col = mark.line + 1, mark.column + 1
-        if isinstance(event, yaml.AliasEvent):
+        if kind is yaml.AliasEvent:
             raise InputError(shown, line, col, f"alias '*{event.anchor}' is not allowed; write "
                                                f"the value out")
         count += 1
@@ -209,20 +254,137 @@ def _prescan(text: str, shown: str) -> set:
                                                f"values); the file is too large to check")
         if len(stack) > MAX_DEPTH:
             raise InputError(shown, line, col, f"nesting deeper than {MAX_DEPTH} levels")
-        if isinstance(event, yaml.ScalarEvent):
-            if is_key and (event.tag == _MERGE_TAG or
-                           (event.value == "<<" and event.tag is None and event.implicit[0])):
+        tag = event.tag
+        explicit_str = False
+        if kind is yaml.ScalarEvent:
+            if is_key and (tag == _MERGE_TAG or
+                           (event.value == "<<" and tag is None and event.implicit[0])):
                 raise InputError(shown, line, col, "merge keys (<<) are not allowed; write the "
                                                    "keys out")
-            if event.tag in ("!", _CORE + "str"):
-                explicit_str.add((line, col))  # `!!str 12` is the text '12'
-            elif event.tag is not None and event.tag in _CORE_TAGS:
+            if tag == "!" or tag == _STR_TAG:
+                explicit_str = True  # `!!str 12` is the text '12'
+            elif tag is not None and tag in _CORE_TAGS:
                 # `!!int '12'` or `!!bool yes` would ask YAML 1.1 to decide what the text means
-                raise InputError(shown, line, col, f"YAML tag '{_short_tag(event.tag)}' is not "
+                raise InputError(shown, line, col, f"YAML tag '{_short_tag(tag)}' is not "
                                                    f"allowed; write the value plainly")
-        else:
-            stack.append([isinstance(event, yaml.MappingStartEvent), True])
-    return explicit_str
+        if kind is not yaml.ScalarEvent:
+            stack.append([kind is yaml.MappingStartEvent, True, None])
+        if not composing:
+            continue
+        # 2. the document checks
+        if event.anchor is not None:
+            first = anchors.get(event.anchor)
+            if first is not None:
+                late_document = yaml.composer.ComposerError(
+                    "found duplicate anchor; first occurrence", first, "second occurrence", mark)
+                composing = building = False
+                continue
+            anchors[event.anchor] = mark
+        if not building:
+            continue
+        # 3. the values, built as the events arrive
+        try:
+            if top is None:  # the document's root
+                root_mark = mark
+                root_empty = kind is yaml.ScalarEvent and event.value == "" and not event.style
+                value = _value(event, kind, tag, explicit_str, resolve, shown)
+                positions[()] = Position(line, col)
+                root.append(value)
+                if kind is not yaml.ScalarEvent:
+                    stack[-1][2] = _frame(value, (), 0)
+                continue
+            frame = top[2]
+            container, path, depth = frame[0], frame[1], frame[2]
+            if type(container) is dict:
+                if is_key:
+                    if kind is not yaml.ScalarEvent:
+                        raise InputError(shown, line, col, "mapping keys must be plain text")
+                    key = event.value  # keys are always text: `1:`, `on:` and `no:` are names
+                    resolved = tag if tag is not None and tag != "!" else resolve(
+                        yaml.ScalarNode, key, event.implicit)
+                    if resolved == _MERGE_TAG:
+                        raise InputError(shown, line, col, "merge keys (<<) are not allowed; "
+                                                           "write the keys out")
+                    if resolved not in _CORE_TAGS:
+                        raise InputError(shown, line, col,
+                                         f"YAML tag '{_short_tag(resolved)}' is not allowed")
+                    first_line = frame[3]
+                    if key in first_line:
+                        raise InputError(shown, line, col, f"duplicate key '{key}' (first on "
+                                                           f"line {first_line[key]})")
+                    first_line[key] = line
+                    frame[4] = path + (key,)
+                    key_positions[frame[4]] = Position(line, col)
+                    continue
+                child = frame[4]
+                value = _value(event, kind, tag, explicit_str, resolve, shown)
+                container[child[-1]] = value
+            else:
+                child = path + (len(container),)
+                value = _value(event, kind, tag, explicit_str, resolve, shown)
+                container.append(value)
+            positions[child] = Position(line, col)
+            if kind is not yaml.ScalarEvent:
+                stack[-1][2] = _frame(value, child, depth + 1)
+        except InputError as exc:
+            late_value = exc
+            building = False
+    if late_document is not None:
+        raise late_document
+    if root_mark is None or root_empty:
+        return None
+    if late_value is not None:
+        raise late_value
+    return root[0], positions, key_positions
+
+
+def _frame(container: object, path: tuple, depth: int) -> list:
+    # [container, its path, its depth, first line of each key (mappings), path of the pending key]
+    return [container, path, depth, {}, None]
+
+
+def _value(event: yaml.NodeEvent, kind: type, tag: str | None, explicit_str: bool, resolve,
+           shown: str) -> object:
+    """The value of a node event: a new, empty list or dict for a collection."""
+    mark = event.start_mark
+    if tag is None or tag == "!":
+        node_kind = yaml.ScalarNode if kind is yaml.ScalarEvent else \
+            yaml.MappingNode if kind is yaml.MappingStartEvent else yaml.SequenceNode
+        tag = resolve(node_kind, event.value if kind is yaml.ScalarEvent else None,
+                      event.implicit)
+    # Only the core tags that plain text resolves to implicitly; anything else (!!python/...,
+    # !!binary, !!set, local !tags) would ask for a constructor, and none is ever run.
+    if tag not in _CORE_TAGS:
+        raise InputError(shown, mark.line + 1, mark.column + 1,
+                         f"YAML tag '{_short_tag(tag)}' is not allowed")
+    if kind is yaml.MappingStartEvent:
+        return {}
+    if kind is yaml.SequenceStartEvent:
+        return []
+    value = event.value
+    if event.style or explicit_str:  # quoted or block scalar, or `!!str`: always text
+        return value  # (libyaml gives '' for plain)
+    if value in ("", "~", "null", "Null", "NULL"):
+        return None
+    if value in ("true", "True", "TRUE"):
+        return True
+    if value in ("false", "False", "FALSE"):
+        return False
+    if _INT.match(value):
+        try:
+            return int(value)
+        except ValueError:  # Python refuses to convert thousands of digits
+            raise InputError(shown, mark.line + 1, mark.column + 1,
+                             f"a number of {len(value)} digits is too long") from None
+    if _FLOAT.match(value):
+        number = float(value)
+        if number in (float("inf"), float("-inf")):
+            raise InputError(shown, mark.line + 1, mark.column + 1,
+                             f"'{value}' is too large to be a finite number")
+        return number
+    if _NONFINITE.match(value):
+        raise InputError(shown, mark.line + 1, mark.column + 1, f"'{value}' is not a finite number")
+    return value
 
 
 def _reader_index(text: str, position: int) -> int:
@@ -237,101 +399,28 @@ def _line_col(text: str, index: int) -> tuple[int, int]:
     return line, index - (text.rfind("\n", 0, index) + 1) + 1
 
 
-class _Builder:
-    def __init__(self, file: str, explicit_str: set | None = None):
-        self.file = file
-        self.explicit_str = explicit_str or set()
-        self.positions: dict = {}
-        self.key_positions: dict = {}
-        self.seen: set[int] = set()
-        self.count = 0
-
-    def fail(self, node: yaml.Node, message: str) -> InputError:
-        return InputError(self.file, node.start_mark.line + 1, node.start_mark.column + 1, message)
-
-    def build(self, node: yaml.Node, path: tuple, depth: int) -> object:
-        if depth > MAX_DEPTH:
-            raise self.fail(node, f"nesting deeper than {MAX_DEPTH} levels")
-        self.count += 1
-        if self.count > MAX_NODES:
-            raise self.fail(node, f"more than {MAX_NODES} YAML nodes")
-        if id(node) in self.seen:
-            # compose() hands back the anchored node again for every alias, with the anchor's
-            # marks: point at the key that holds the alias instead.
-            pos = self.key_positions.get(path) or Position(node.start_mark.line + 1,
-                                                           node.start_mark.column + 1)
-            raise InputError(self.file, pos.line, pos.column,
-                             "aliases (*name) are not allowed; write the value out")
-        self.seen.add(id(node))
-        self.positions[path] = Position(node.start_mark.line + 1, node.start_mark.column + 1)
-        if isinstance(node, yaml.ScalarNode):
-            return self.scalar(node)
-        if isinstance(node, yaml.SequenceNode):
-            self.check_tag(node)
-            return [self.build(item, path + (i,), depth + 1) for i, item in enumerate(node.value)]
-        if isinstance(node, yaml.MappingNode):
-            self.check_tag(node)
-            return self.mapping(node, path, depth)
-        raise self.fail(node, "unsupported YAML node")  # pragma: no cover
-
-    def mapping(self, node: yaml.MappingNode, path: tuple, depth: int) -> dict:
-        out: dict = {}
-        first_line: dict = {}
-        for key_node, value_node in node.value:
-            if not isinstance(key_node, yaml.ScalarNode):
-                raise self.fail(key_node, "mapping keys must be plain text")
-            if key_node.tag == _MERGE_TAG or (key_node.value == "<<" and key_node.style is None):
-                raise self.fail(key_node, "merge keys (<<) are not allowed; write the keys out")
-            self.check_tag(key_node)
-            key = key_node.value  # keys are always text: `1:`, `on:` and `no:` are names here
-            line = key_node.start_mark.line + 1
-            if key in out:
-                raise self.fail(key_node, f"duplicate key '{key}' (first on line {first_line[key]})")
-            first_line[key] = line
-            kpath = path + (key,)
-            self.key_positions[kpath] = Position(line, key_node.start_mark.column + 1)
-            out[key] = self.build(value_node, kpath, depth + 1)
-        return out
-
-    def check_tag(self, node: yaml.Node) -> None:
-        # Only the core tags that plain text resolves to implicitly; anything else (!!python/...,
-        # !!binary, !!set, local !tags) would ask for a constructor, and none is ever run.
-        if node.tag not in _CORE_TAGS:
-            raise self.fail(node, f"YAML tag '{_short_tag(node.tag)}' is not allowed")
-
-    def scalar(self, node: yaml.ScalarNode) -> object:
-        self.check_tag(node)
-        value = node.value
-        if node.style:  # quoted or block scalar: always text (libyaml gives '' for plain)
-            return value
-        if (node.start_mark.line + 1, node.start_mark.column + 1) in self.explicit_str:
-            return value
-        if value in ("", "~", "null", "Null", "NULL"):
-            return None
-        if value in ("true", "True", "TRUE"):
-            return True
-        if value in ("false", "False", "FALSE"):
-            return False
-        if _INT.match(value):
-            try:
-                return int(value)
-            except ValueError:  # Python refuses to convert thousands of digits
-                raise self.fail(node, f"a number of {len(value)} digits is too long") from None
-        if _FLOAT.match(value):
-            number = float(value)
-            if number in (float("inf"), float("-inf")):
-                raise self.fail(node, f"'{value}' is too large to be a finite number")
-            return number
-        if _NONFINITE.match(value):
-            raise self.fail(node, f"'{value}' is not a finite number")
-        return value
-
-
 def _short_tag(tag: str) -> str:
     return "!!" + tag[len(_CORE):] if tag.startswith(_CORE) else tag
 
 
 _CORE = "tag:yaml.org,2002:"
 _MERGE_TAG = _CORE + "merge"
+_STR_TAG = _CORE + "str"
 _CORE_TAGS = frozenset(_CORE + name for name in
                        ("str", "int", "float", "bool", "null", "timestamp", "map", "seq"))
+# What libyaml's composer asks of the loader's resolver for a node without a tag: the same rules,
+# remembered per text (a design repeats its part names, nets and pin names many times).
+_RESOLVER = yaml.resolver.Resolver()
+_RESOLVED: dict = {}
+
+
+def _resolve(kind: type, value: str | None, implicit) -> str:
+    if kind is not yaml.ScalarNode or len(value) > 100:
+        return _RESOLVER.resolve(kind, value, implicit)
+    key = (value, implicit)
+    tag = _RESOLVED.get(key)
+    if tag is None:
+        if len(_RESOLVED) > 50_000:
+            _RESOLVED.clear()
+        tag = _RESOLVED[key] = _RESOLVER.resolve(kind, value, implicit)
+    return tag

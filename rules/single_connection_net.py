@@ -10,6 +10,7 @@ def check(ctx, options):
     connection. The pack terminals (where charger and load connect off-board) and the internal
     common drain of a FET pair are exempt."""
     terminals = set(ctx.netlist.terminals)
+    similar = _Similar(ctx.netlist.nets)
     for net, refs in sorted(ctx.netlist.nets.items()):
         if len(refs) != 1 or net in terminals:
             continue
@@ -19,7 +20,7 @@ def check(ctx, options):
             continue
         if comp.kind is None:
             continue  # an unknown part may well have an internal node there; unknown-part says so
-        others = sorted(n for n in ctx.netlist.nets if n != net and _close(n, net))
+        others = similar.to(net)
         hint = (f"did you mean '{others[0]}'?" if others else
                 f"connect net '{net}' to its other end, or remove it")
         yield ctx.finding(f"net '{net}' connects only {ref.component}.{ref.pin}",
@@ -33,6 +34,36 @@ def _pins(ctx, refdes):
     return ctx.design.components[refdes].pins
 
 
-def _close(a: str, b: str) -> bool:
-    import difflib
-    return difflib.SequenceMatcher(None, a.lower(), b.lower()).ratio() >= 0.75
+class _Similar:
+    """The nets whose names read like a given one: difflib's similarity ratio of at least 0.75.
+
+    Asked for every dangling net of a netlist that may hold thousands, so only the names whose
+    length allows that ratio are compared at all: the ratio is at most 2·min(a, b)/(a + b) for
+    names of lengths a and b [published: difflib.SequenceMatcher.real_quick_ratio, an upper bound
+    of ratio()].
+    """
+
+    def __init__(self, nets) -> None:
+        import difflib
+        self.matcher = difflib.SequenceMatcher(None)
+        self.by_length: dict[int, list[tuple[str, str]]] = {}
+        for n in nets:
+            low = n.lower()
+            self.by_length.setdefault(len(low), []).append((n, low))
+
+    def to(self, net: str) -> list[str]:
+        low = net.lower()
+        lb = len(low)
+        s = self.matcher
+        s.set_seq2(low)
+        out = []
+        for la, names in self.by_length.items():
+            if la + lb and 2.0 * min(la, lb) / (la + lb) < 0.75:
+                continue  # not even names of these lengths that match best reach the ratio
+            for n, a in names:
+                if n == net:
+                    continue
+                s.set_seq1(a)
+                if s.quick_ratio() >= 0.75 and s.ratio() >= 0.75:
+                    out.append(n)
+        return sorted(out)

@@ -7,6 +7,7 @@ nodal solve of the power path. Corners are explicit, so a finding can say at whi
 
 from __future__ import annotations
 
+import heapq
 import math
 from dataclasses import dataclass, field
 from functools import cached_property
@@ -16,7 +17,7 @@ from ..netlist import Component, Netlist
 from ..schema import Design, Toleranced
 from . import copper
 from .cells import cell_window
-from .network import Network, NetworkError
+from .network import Network, NetworkError, Switch
 from .rdson import rds_on
 
 # A load placed across the pack terminals to excite the path in a solve; the network is linear
@@ -158,6 +159,10 @@ class DesignModel:
         self.design = design
         self.netlist = netlist
         self.problems: list[ModelProblem] = []
+        # Memos of pure functions of their arguments: the thermal fixed points and the corners
+        # ask for the same on-resistances, part resistances, branches and operating points many
+        # times over, and a large pack's path is rebuilt for every solve.
+        self._memo: dict = {}
 
     # --- what is in the design -----------------------------------------------------------------
 
@@ -189,19 +194,9 @@ class DesignModel:
             bottom = bottoms[0] if bottoms else cells[0].pins["neg"]
         else:
             bottom = bottoms[0]
-        level = {bottom: 0}
-        changed = True
-        while changed:
-            changed = False
-            for c in cells:
-                n, p = c.pins["neg"], c.pins["pos"]
-                if n in level and level.get(p) != level[n] + 1:
-                    if p in level:
-                        problems.append(f"{c.refdes} closes a loop in the cell stack")
-                        changed = False
-                        break
-                    level[p] = level[n] + 1
-                    changed = True
+        level, loop = _stack_levels(cells, bottom, stop_at_loop=True)
+        if loop is not None:
+            problems.append(f"{loop.refdes} closes a loop in the cell stack")
         series = max(level.values()) if level else 1
         top = max(level, key=lambda n: (level[n], n))
         per_level: dict[int, int] = {}
@@ -286,7 +281,7 @@ class DesignModel:
                 continue
             out[net] = role
             # a series gate resistor: its far end, when that net holds only gates
-            for r in self.netlist.of_kind("resistor"):
+            for r in self._resistors_at.get(net, ()):
                 a, b = r.pins.get("1"), r.pins.get("2")
                 far = b if a == net else a if b == net else None
                 if far and far not in out and all(
@@ -294,6 +289,17 @@ class DesignModel:
                         and ref.pin.startswith("g") or ref.component == r.refdes
                         for ref in self.netlist.nets.get(far, [])):
                     out[far] = role
+        return out
+
+    @cached_property
+    def _resistors_at(self) -> dict[str, list[Component]]:
+        """Net -> the resistors with a pin on it, in design order: a protector pin's filter or
+        gate resistor is looked up here, not in a pass over every resistor per pin."""
+        out: dict[str, list[Component]] = {}
+        for r in self.netlist.of_kind("resistor"):
+            for net in dict.fromkeys((r.pins.get("1"), r.pins.get("2"))):
+                if net is not None:
+                    out.setdefault(net, []).append(r)
         return out
 
     @cached_property
@@ -328,13 +334,7 @@ class DesignModel:
         """Net -> level in the stack: 0 at its bottom, ``series`` at its top."""
         if self.stack is None:
             return {}
-        level = {self.stack.bottom: 0}
-        for _ in range(len(self.stack.cells)):
-            for c in self.stack.cells:
-                n, p = c.pins["neg"], c.pins["pos"]
-                if n in level and p not in level:
-                    level[p] = level[n] + 1
-        return level
+        return _stack_levels(self.stack.cells, self.stack.bottom, stop_at_loop=False)[0]
 
     @cached_property
     def high_side(self) -> dict[str, bool]:
@@ -406,7 +406,7 @@ class DesignModel:
                 continue
             reached = levels.get(net)
             if reached is None:
-                for r in self.netlist.of_kind("resistor"):
+                for r in self._resistors_at.get(net, ()):
                     a, b = r.pins.get("1"), r.pins.get("2")
                     far = b if a == net else a if b == net else None
                     if far in levels:
@@ -510,11 +510,22 @@ class DesignModel:
 
     # --- the power path ------------------------------------------------------------------------
 
+    @cached_property
+    def _path_parts(self) -> tuple[Component, ...]:
+        return tuple(self.netlist.of_kind("fuse", "ptc", "resistor", "trace", "wire"))
+
     def _series_parts(self) -> list[Component]:
-        return self.netlist.of_kind("fuse", "ptc", "resistor", "trace", "wire")
+        return list(self._path_parts)
 
     def part_resistance(self, c: Component, temp: float, corner: str) -> float:
         """Resistance of a non-switch part in the path at ``temp`` for a corner (low/typ/high)."""
+        key = ("part", c.refdes, _key(temp), corner)
+        value = self._memo.get(key)
+        if value is None:
+            value = self._memo[key] = self._part_resistance(c, temp, corner)
+        return value
+
+    def _part_resistance(self, c: Component, temp: float, corner: str) -> float:
         part = c.part
         if c.kind == "resistor":
             k = {"low": 1 - part.tol / 100, "typ": 1.0, "high": 1 + part.tol / 100}[corner]
@@ -539,52 +550,110 @@ class DesignModel:
 
         ``exclude`` leaves parts out (to ask what happens without a fuse); ``max_ohms`` leaves out
         resistors above it, which carry signals, not the pack's current.
+
+        Branches are immutable, so each one is built and checked once per value and reused: the
+        cells of a large pack are the same in nearly every solve, and only the switch channels
+        change from one thermal iteration to the next. The network is the one the ``add_*``
+        calls in this order would build.
         """
-        net = Network()
+        memo = self._memo
         if self.stack is not None and cells:
-            for c in self.stack.cells:
-                net.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
+            key = ("cells", _key(cell_emf), _key(cell_r))
+            base = memo.get(key)
+            if base is None:
+                base = Network()
+                for c in self.stack.cells:
+                    base.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
+                memo[key] = base
+            net = base.copy()
+        else:
+            net = Network()
         for ch in self.channels:
             on = True if switches_on is None else switches_on.get(ch.name, True)
-            net.add_mosfet(ch.name, drain=ch.drain, source=ch.source, channel=ch.channel,
-                           ohms_on=rds.get(ch.name, 1.0), on=on)
-        for c in self._series_parts():
+            net.add(self._switch(ch, rds.get(ch.name, 1.0), on))
+        for c in self._path_parts:
             a, b = c.pins.get("1"), c.pins.get("2")
             if a and b and a != b and c.refdes not in exclude:
                 r = self.part_resistance(c, temp, corner)
                 if r <= max_ohms:
-                    net.add_resistor(c.refdes, a, b, r)
+                    net.add(self._resistor(c.refdes, a, b, r))
         if load is not None:
             pos, neg = self.terminals
             if pos != neg:
-                net.add_resistor("(load)", pos, neg, load)
+                net.add(self._resistor("(load)", pos, neg, load))
         return net
+
+    def _resistor(self, name: str, a: str, b: str, ohms: float):
+        key = ("resistor", name, a, b, _key(ohms))
+        branch = self._memo.get(key)
+        if branch is None:
+            branch = self._memo[key] = Network().add_resistor(name, a, b, ohms)
+        return branch
+
+    def _switch(self, ch: SwitchChannel, ohms: float, on: bool):
+        # The channel's resistance changes with every thermal iteration, so only the checked
+        # first one is kept; the others copy its nets and body diode and take the new value,
+        # after the same check add_switch makes.
+        template = self._memo.get(("switch", ch.name))
+        if template is None:
+            template = self._memo[("switch", ch.name)] = Network().add_mosfet(
+                ch.name, drain=ch.drain, source=ch.source, channel=ch.channel, ohms_on=ohms, on=on)
+            return template
+        if (type(ohms) is float and type(on) is bool and ohms > 0.0 and math.isfinite(ohms)
+                and math.isfinite(1.0 / ohms)):
+            return Switch(template.name, template.a, template.b, ohms, on, template.body_diode)
+        return Network().add_mosfet(ch.name, drain=ch.drain, source=ch.source,
+                                    channel=ch.channel, ohms_on=ohms, on=on)
 
     def channel_rds(self, ch: SwitchChannel, vgs: float, tj: float, corner: str) -> tuple[float, tuple[str, ...]]:
         part = ch.part
         hot = part.rds_on_hot_ratio
-        ratio, at = (hot.ratio, hot.at) if hot else (1.5, 125.0)
-        # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
-        points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
-        try:
-            res = rds_on(points, vgs, tj, ratio, at, corner)
-        except ValueError as exc:
-            # One table row and a gate drive below it: no slope to extrapolate. Use the row, and
-            # say loudly that this understates the resistance, rather than stop the review.
-            row = min(points)
-            res = rds_on([row], row[0], tj, ratio, at, corner)
-            return res.value, res.assumptions + (
+        key = ("rds", id(part), _key(vgs), _key(tj), corner)
+        hit = self._memo.get(key)
+        if hit is None:
+            ratio, at = (hot.ratio, hot.at) if hot else (1.5, 125.0)
+            # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
+            points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
+            try:
+                res = rds_on(points, vgs, tj, ratio, at, corner)
+                hit = (res.value, res.assumptions, None)
+            except ValueError as exc:
+                # One table row and a gate drive below it: no slope to extrapolate. Use the row,
+                # and say loudly that this understates the resistance, rather than stop the review.
+                row = min(points)
+                res = rds_on([row], row[0], tj, ratio, at, corner)
+                hit = (res.value, res.assumptions, (exc, row))
+            self._memo[key] = hit
+        value, notes, failed = hit
+        if failed is not None:
+            exc, row = failed
+            return value, notes + (
                 f"{ch.package}: {exc}; the {row[0]:g} V row is used and understates R_DS(on) — "
                 f"add a second rds_on row",)
-        notes = res.assumptions
         if hot is None:
             notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
                              f"[practice: 1.4-1.6 for 20 V parts]",)
-        return res.value, notes
+        return value, notes
 
     def operating_point(self, current: float, ambient: float, vgs: float, corner: str,
                         self_heating: bool = True) -> OperatingPoint:
-        """Steady state of the path carrying ``current``, switches on, at ``corner`` (typ|max|min)."""
+        """Steady state of the path carrying ``current``, switches on, at ``corner`` (typ|max|min).
+
+        The trip windows and the switch heat ask for the same points (the continuous load at
+        the highest ambient and lowest drive, for one); each is computed once.
+        """
+        key = ("op", _key(current), _key(ambient), _key(vgs), corner, self_heating)
+        hit = self._memo.get(key)
+        if hit is None:
+            before = len(self.problems)
+            op = self._operating_point(current, ambient, vgs, corner, self_heating)
+            hit = self._memo[key] = (op, self.problems[before:])
+        else:
+            self.problems.extend(hit[1])  # as a fresh computation would have recorded them
+        return hit[0]
+
+    def _operating_point(self, current: float, ambient: float, vgs: float, corner: str,
+                         self_heating: bool) -> OperatingPoint:
         packages = {ch.package: ch.part for ch in self.channels}
         tj = {p: ambient for p in packages}
         rcorner = {"max": "high", "min": "low", "typ": "typ"}[corner]
@@ -594,10 +663,13 @@ class DesignModel:
         converged, runaway = True, False
         notes: list[str] = []
         for _ in range(_THERMAL_ITERATIONS):
-            rds, notes = {}, []
+            rds, notes, seen = {}, [], set()
             for ch in self.channels:
                 rds[ch.name], n = self.channel_rds(ch, vgs, tj[ch.package], corner)
-                notes += [x for x in n if x not in notes]
+                for x in n:
+                    if x not in seen:
+                        seen.add(x)
+                        notes.append(x)
             sol, sense, path_r = self._solve(rds, ambient, rcorner, cell_r)
             i_load = abs(sol.current("(load)")) if sol is not None else 0.0
             share = {ch.name: abs(sol.current(ch.name)) / i_load if sol and i_load else 0.0
@@ -845,6 +917,52 @@ class DesignModel:
             if sb.to_lower_limit is not None:
                 out["storage_months_cutoff_to_lower_limit"] = _num(sb.to_lower_limit.months)
         return out
+
+
+def _stack_levels(cells: tuple[Component, ...], bottom: str,
+                  stop_at_loop: bool) -> tuple[dict[str, int], Component | None]:
+    """Net -> level, climbing the cells from ``bottom``: a cell's positive net is one level above
+    its negative net, the first cell to reach a net setting its level.
+
+    The result is that of sweeping the cells in design order, again and again, until a sweep
+    changes nothing; with ``stop_at_loop`` the sweeps stop at the first cell whose two nets
+    already hold levels that are not one apart (that cell is returned). Each cell is looked at
+    once, when its negative net gets its level, so a long chain listed top-down costs no more
+    than one listed bottom-up [derived: a cell can change something only at its first look
+    after its negative net is known; later sweeps see the same levels].
+    """
+    by_neg: dict[str, list[int]] = {}
+    for i, c in enumerate(cells):
+        by_neg.setdefault(c.pins["neg"], []).append(i)
+    level = {bottom: 0}
+    now = list(by_neg.get(bottom, ()))  # cells to look at in the current sweep, by position
+    sweeps = 0
+    while now and (stop_at_loop or sweeps < len(cells)):
+        sweeps += 1
+        heapq.heapify(now)
+        later: list[int] = []
+        while now:
+            i = heapq.heappop(now)
+            c = cells[i]
+            n, p = c.pins["neg"], c.pins["pos"]
+            if p in level:
+                if stop_at_loop and level[p] != level[n] + 1:
+                    return level, c
+                continue
+            level[p] = level[n] + 1
+            for j in by_neg.get(p, ()):
+                # a cell after this one sees the new level in this sweep, one before it in the next
+                if j > i:
+                    heapq.heappush(now, j)
+                else:
+                    later.append(j)
+        now = later
+    return level, None
+
+
+def _key(x: float) -> Any:
+    """A number as a memo key: 0.0 and -0.0 are equal keys but print apart ("-0 °C")."""
+    return (x, math.copysign(1.0, x)) if x == 0.0 else x
 
 
 def spread_low(t: Toleranced) -> float:

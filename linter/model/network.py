@@ -24,6 +24,7 @@ import heapq
 import math
 from collections import deque
 from dataclasses import dataclass, replace
+from itertools import islice
 from types import MappingProxyType
 from typing import Iterable, Literal, Mapping, Union
 
@@ -288,6 +289,11 @@ class Network:
         # Insertion order of nets, so results and searches are deterministic.
         self._nets: dict[str, None] = {}
         self._index_cache: dict[str, int] = {}
+        # A copy remembers its original and how many branches it took: branches are only ever
+        # appended, so the solver's per-branch terms of those are the original's (a design's
+        # cells, the same in most of its solves, are then prepared once).
+        self._origin: tuple[Network, int] | None = None
+        self._prepared: tuple[int, list, list, float] | None = None
 
     # ----------------------------------------------------------------- building
 
@@ -362,6 +368,24 @@ class Network:
             raise NetworkError(f"{name}: channel must be 'n' or 'p', got {channel!r}")
         return self.add_switch(name, drain, source, ohms_on, on, diode, v_forward=v_forward,
                                r_on=r_on)
+
+    def add(self, branch: Branch) -> Branch:
+        """Add a branch that an ``add_*`` method of some network built earlier.
+
+        Branches are immutable, so one built (and checked) once can sit in any number of
+        networks: the design model builds its many variants of one power path this way.
+        """
+        if not isinstance(branch, (Resistor, Source, Diode, Switch)):
+            raise NetworkError(f"not a branch: {branch!r}")
+        return self._add(branch)
+
+    def copy(self) -> Network:
+        """An independent copy, to be extended without changing this network."""
+        copy = Network()
+        copy._branches = dict(self._branches)
+        copy._nets = dict(self._nets)
+        copy._origin = (self, len(self._branches))
+        return copy
 
     def with_switch_states(self, states: Mapping[str, bool]) -> Network:
         """A copy with the named switches set on (``True``) or off (``False``)."""
@@ -498,6 +522,42 @@ class Network:
 
     # ----------------------------------------------------------------- operating point
 
+    def _terms(self, index: dict[str, int]) -> tuple[list, list, float]:
+        """The solver's linear and diode terms of every branch, in order, and the voltage bound
+        of the sources (1 V plus every EMF)."""
+        linear: list = []
+        diodes: list = []
+        volt_scale = 1.0
+        branches = self._branches.values()
+        skip = 0
+        if self._origin is not None:
+            origin, count = self._origin
+            prepared = origin._prepared
+            if prepared is None or prepared[0] != len(origin._branches):
+                prepared = origin._prepared = (len(origin._branches),
+                                               *origin._terms(origin._net_index()))
+            if prepared[0] == count:
+                linear, diodes, volt_scale = list(prepared[1]), list(prepared[2]), prepared[3]
+                skip = count
+        for br in islice(branches, skip, None):
+            ia, ib = index[br.a], index[br.b]
+            if isinstance(br, Resistor):
+                linear.append((br.name, 1, ia, ib, 1.0 / br.ohms, 0.0))
+            elif isinstance(br, Source):
+                linear.append((br.name, 1, ia, ib, 1.0 / br.r_internal, br.volts))
+                volt_scale += abs(br.volts)
+            elif isinstance(br, Diode):
+                diodes.append((br.name, 1, ia, ib, br.v_forward, 1.0 / br.r_on))
+            else:
+                if br.on:
+                    linear.append((br.name, 1, ia, ib, 1.0 / br.ohms_on, 0.0))
+                bd = br.body_diode
+                if bd is not None:
+                    sign = 1 if bd.anode == br.a else -1
+                    diodes.append((br.name, sign, index[bd.anode], index[bd.cathode],
+                                   bd.v_forward, 1.0 / bd.r_on))
+        return linear, diodes, volt_scale
+
     def solve(self, ground: str, *, max_iterations: int = _DEFAULT_MAX_ITERATIONS) -> Solution:
         """DC operating point with ``ground`` at 0 V.
 
@@ -519,34 +579,13 @@ class Network:
         n = len(index)
         ig = index[ground]
 
-        linear: list[tuple[str, int, int, int, float, float]] = []  # owner, sign, p, q, g, e
-        diodes: list[tuple[str, int, int, int, float, float]] = []  # owner, sign, p, q, vf, g_on
-        # No node can sit further from ground than all EMFs and knees added up (superposition),
-        # so this bounds every voltage the tolerances are relative to.
-        volt_scale = 1.0
-        g_min = math.inf
-        for br in self._branches.values():
-            ia, ib = index[br.a], index[br.b]
-            if isinstance(br, Resistor):
-                linear.append((br.name, 1, ia, ib, 1.0 / br.ohms, 0.0))
-            elif isinstance(br, Source):
-                linear.append((br.name, 1, ia, ib, 1.0 / br.r_internal, br.volts))
-                volt_scale += abs(br.volts)
-            elif isinstance(br, Diode):
-                diodes.append((br.name, 1, ia, ib, br.v_forward, 1.0 / br.r_on))
-            else:
-                if br.on:
-                    linear.append((br.name, 1, ia, ib, 1.0 / br.ohms_on, 0.0))
-                bd = br.body_diode
-                if bd is not None:
-                    sign = 1 if bd.anode == br.a else -1
-                    diodes.append((br.name, sign, index[bd.anode], index[bd.cathode],
-                                   bd.v_forward, 1.0 / bd.r_on))
-        for item in linear:
-            g_min = min(g_min, item[4])
-        for item in diodes:
-            g_min = min(g_min, item[5])
-            volt_scale += item[4]
+        # owner, sign, p, q, g, e / owner, sign, p, q, vf, g_on; and the bound on voltages
+        linear, diodes, volt_scale = self._terms(index)
+        g_min = min([item[4] for item in linear], default=math.inf)
+        if diodes:
+            g_min = min(g_min, min([item[5] for item in diodes]))
+            for item in diodes:
+                volt_scale += item[4]
         g_leak = g_min * _LEAK_FRACTION
         v_tol = volt_scale * _STATE_TOLERANCE
         linear_elements: list[_Element] = [(p, q, g, e) for _, _, p, q, g, e in linear]
@@ -563,11 +602,11 @@ class Network:
         while True:
             iterations += 1
             exact = linear_elements + [(p, q, g_on, vf) for (_, _, p, q, vf, g_on), s
-                                       in zip(diodes, on) if s]
+                                       in zip(diodes, on) if s] if diodes else linear_elements
             component = _components(n, exact)
             leaks = [(p, q, g_leak, vf) for (_, _, p, q, vf, _), s in zip(diodes, on)
                      if not s and p != q
-                     and (component[p] < 0 or component[p] != component[q])]
+                     and (component[p] < 0 or component[p] != component[q])] if diodes else []
             if leaks:
                 elements = exact + leaks
                 reference, unknowns = _references(n, _components(n, elements), ig)
@@ -632,20 +671,28 @@ class Network:
 def _components(n: int, elements: Iterable[_Element]) -> list[int]:
     """Connected-component label per node; ``-1`` for a node no element touches."""
     parent = list(range(n))
-
-    def find(x: int) -> int:
-        while parent[x] != x:
-            parent[x] = parent[parent[x]]
-            x = parent[x]
-        return x
-
     touched = [False] * n
-    for p, q, _, _ in elements:
+    # Parallel parts (the cells of a parallel group) join the same two nodes: once is enough.
+    for p, q in {(p, q) for p, q, _, _ in elements}:
         touched[p] = touched[q] = True
-        rp, rq = find(p), find(q)
-        if rp != rq:
-            parent[rp] = rq
-    return [find(i) if touched[i] else -1 for i in range(n)]
+        while parent[p] != p:
+            parent[p] = parent[parent[p]]
+            p = parent[p]
+        while parent[q] != q:
+            parent[q] = parent[parent[q]]
+            q = parent[q]
+        if p != q:
+            parent[p] = q
+    out = []
+    for i in range(n):
+        if touched[i]:
+            while parent[i] != i:
+                parent[i] = parent[parent[i]]
+                i = parent[i]
+            out.append(i)
+        else:
+            out.append(-1)
+    return out
 
 
 def _references(n: int, component: list[int], ground: int) -> tuple[list[bool], list[int]]:
@@ -698,39 +745,46 @@ def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
     leak_e = [0.0] * n
     rhs = [0.0] * n
 
-    def add_leak(i: int, g: float, e: float) -> None:
-        g0 = leak_g[i]
-        if g0:
-            total = g0 + g
-            leak_e[i] = (g0 * leak_e[i] + g * e) / total
-            leak_g[i] = total
-        else:
-            leak_g[i] = g
-            leak_e[i] = e
-
-    def add_edge(gi: dict[int, float], ei: dict[int, float], j: int, g: float, e: float) -> None:
-        g0 = gi.get(j)
-        if g0 is None:
-            gi[j] = g
-            ei[j] = e
-        else:
-            total = g0 + g
-            ei[j] = (g0 * ei[j] + g * e) / total
-            gi[j] = total
-
+    # Stamping merges parallel branches as it goes: conductances add, and the EMF becomes their
+    # conductance-weighted mean. Written out in the loop (it runs once per branch per solve).
     for p, q, g, e in elements:
         if p == q:
             continue
         rp, rq = reference[p], reference[q]
         if rp and rq:
             continue
-        if rq:
-            add_leak(p, g, e)
-        elif rp:
-            add_leak(q, g, -e)
+        if rp or rq:
+            if rq:
+                i = p
+            else:
+                i, e = q, -e
+            g0 = leak_g[i]
+            if g0:
+                total = g0 + g
+                leak_e[i] = (g0 * leak_e[i] + g * e) / total
+                leak_g[i] = total
+            else:
+                leak_g[i] = g
+                leak_e[i] = e
+            continue
+        gi, ei = G[p], E[p]
+        g0 = gi.get(q)
+        if g0 is None:
+            gi[q] = g
+            ei[q] = e
         else:
-            add_edge(G[p], E[p], q, g, e)
-            add_edge(G[q], E[q], p, g, -e)
+            total = g0 + g
+            ei[q] = (g0 * ei[q] + g * e) / total
+            gi[q] = total
+        gi, ei, e = G[q], E[q], -e
+        g0 = gi.get(p)
+        if g0 is None:
+            gi[p] = g
+            ei[p] = e
+        else:
+            total = g0 + g
+            ei[p] = (g0 * ei[p] + g * e) / total
+            gi[p] = total
     if injections:
         for i, amps in injections.items():
             rhs[i] += amps
@@ -760,7 +814,15 @@ def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
             del ei[k]
             f = gki / d
             if gR:
-                add_leak(i, f * gR, eR - eki)
+                g, e = f * gR, eR - eki
+                g0 = leak_g[i]
+                if g0:
+                    total = g0 + g
+                    leak_e[i] = (g0 * leak_e[i] + g * e) / total
+                    leak_g[i] = total
+                else:
+                    leak_g[i] = g
+                    leak_e[i] = e
             if sk:
                 rhs[i] += f * sk
             for j, gkj, ekj in star:

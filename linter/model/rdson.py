@@ -76,7 +76,7 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
     if corner not in ("typ", "max", "min"):
         raise ValueError(f"corner must be 'typ', 'max' or 'min', got {corner!r}")
     _finite(vgs=vgs, tj=tj)
-    rows = _fill(points)
+    rows = _filled(points)
     assumptions: list[str] = []
     extrapolated = False
 
@@ -153,6 +153,24 @@ def temperature_factor(tj: float, hot_ratio: float, hot_at: float = 125.0) -> fl
             f"the linear temperature model gives a factor of {factor:.3g} at {tj:g} °C; "
             f"the temperature is far outside where it means anything")
     return factor
+
+
+# The rows of a table as _fill makes them, by table: a thermal balance asks for one part's
+# R_DS(on) at many temperatures, and the table is the same every time.
+_FILLED: dict[tuple, list[_Filled]] = {}
+
+
+def _filled(points: Iterable[Sequence[Optional[float]]]) -> list[_Filled]:
+    key = tuple(points) if isinstance(points, (list, tuple)) else None
+    if key is None or not all(type(row) is tuple and len(row) == 3 and all(
+            v is None or (type(v) is float and v != 0.0) for v in row) for row in key):
+        return _fill(points)  # what cannot be a key, or a zero whose sign would print
+    rows = _FILLED.get(key)
+    if rows is None:
+        if len(_FILLED) > 256:
+            _FILLED.clear()
+        rows = _FILLED[key] = _fill(key)
+    return rows
 
 
 def _fill(points: Iterable[Sequence[Optional[float]]]) -> list[_Filled]:

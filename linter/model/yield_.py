@@ -182,27 +182,50 @@ class Tree:
         return [self.name] if self.op == "leaf" else [n for c in self.children for n in c.leaves()]
 
 
-def _conductance(tree: Tree, r: dict, memo: dict) -> np.ndarray:
-    if tree.op == "leaf":
+def _conductance(tree: Tree, r: dict, memo: dict, kept: dict | None = None,
+                 marks: dict | None = None) -> np.ndarray:
+    """Conductance of ``tree`` per build. ``kept`` holds those of the subtrees that ``marks``
+    leaves unmarked, whose values stay the same from one call to the next (a thermal loop changes
+    the switches only, and a large pack has hundreds of cells)."""
+    if kept is not None and id(tree) in kept:
+        g = kept[id(tree)]
+    elif tree.op == "leaf":
         g = 1.0 / r[tree.name]
     elif tree.op == "series":
-        g = 1.0 / sum(1.0 / _conductance(c, r, memo) for c in tree.children)
+        g = 1.0 / sum(1.0 / _conductance(c, r, memo, kept, marks) for c in tree.children)
     else:
-        g = sum(_conductance(c, r, memo) for c in tree.children)
+        g = sum(_conductance(c, r, memo, kept, marks) for c in tree.children)
     memo[id(tree)] = g
+    if kept is not None and not marks[id(tree)]:
+        kept[id(tree)] = g
     return g
 
 
-def _distribute(tree: Tree, current: np.ndarray, memo: dict, out: dict) -> None:
+def _mark(tree: Tree, names: frozenset, marks: dict) -> bool:
+    """Mark every subtree holding one of ``names``; return the mark of ``tree``."""
+    if tree.op == "leaf":
+        found = tree.name in names
+    else:
+        found = False
+        for c in tree.children:
+            found = _mark(c, names, marks) or found
+    marks[id(tree)] = found
+    return found
+
+
+def _distribute(tree: Tree, current: np.ndarray, memo: dict, out: dict,
+                marks: dict | None = None) -> None:
     if tree.op == "leaf":
         out[tree.name] = current
     elif tree.op == "series":
         for c in tree.children:
-            _distribute(c, current, memo, out)
+            if marks is None or marks[id(c)]:
+                _distribute(c, current, memo, out, marks)
     else:
         total = memo[id(tree)]
         for c in tree.children:
-            _distribute(c, current * memo[id(c)] / total, memo, out)
+            if marks is None or marks[id(c)]:  # the parts asked for lie below here
+                _distribute(c, current * memo[id(c)] / total, memo, out, marks)
 
 
 @dataclass
@@ -294,8 +317,13 @@ class LinearPath:
     def leaves(self) -> list[str]:
         return [n for t, _, _ in self.branches for n in t.leaves()]
 
-    def solve(self, r: dict, builds: int) -> tuple[np.ndarray, dict]:
+    def solve(self, r: dict, builds: int, wanted: Sequence[str] | None = None,
+              kept: dict | None = None) -> tuple[np.ndarray, dict]:
         """(node voltages (nodes, builds), leaf currents) for a unit load current, ground 0 V.
+
+        ``wanted`` limits the currents to those parts; with ``kept`` (a dict the caller keeps
+        between calls) the conductances of subtrees holding none of them are reused, so their
+        parts' values must not change between those calls.
 
         ``r`` maps each part to its resistances, one per build (or one for all). The remaining nodal equations are
         eliminated without pivoting, vectorised across builds: the grounded Laplacian is
@@ -303,7 +331,16 @@ class LinearPath:
         result the scalar solver in network.py also relies on].
         """
         memo: dict = {}
-        g = [np.broadcast_to(_conductance(t, r, memo), (builds,)) for t, _, _ in self.branches]
+        marks: dict | None = None
+        if wanted is not None:
+            marks = {}
+            names = frozenset(wanted)
+            for t, _, _ in self.branches:
+                _mark(t, names, marks)
+        else:
+            kept = None
+        g = [np.broadcast_to(_conductance(t, r, memo, kept, marks), (builds,))
+             for t, _, _ in self.branches]
         n = len(self.nodes)
         unknown = [i for i in range(n) if i != self.ground]
         pos = {node: k for k, node in enumerate(unknown)}
@@ -338,7 +375,8 @@ class LinearPath:
             v[node] = x[k]
         currents: dict = {}
         for gk, (t, i, j) in zip(g, self.branches):
-            _distribute(t, gk * (v[i] - v[j]), memo, currents)
+            if marks is None or marks[id(t)]:
+                _distribute(t, gk * (v[i] - v[j]), memo, currents, marks)
         return v, currents
 
 
@@ -519,18 +557,25 @@ def _run(m: "DesignModel", samples: int, seed: int, distribution: Distribution) 
             return {name: b * temperature_factor_batch(tj[package_of[name]], *tables[name][1])
                     for name, b in base.items()}
 
-        def sense(r: dict) -> tuple[np.ndarray, dict]:
-            v, cur = path.solve(r, nb)
+        switches = [ch.name for ch in m.channels if ch.name in on_path]
+
+        def sense(r: dict, kept: dict | None = None) -> tuple[np.ndarray, dict]:
+            # Only the switches' currents are used; the other parts keep their values through a
+            # thermal loop, so ``kept`` carries their conductances from one iteration to the next.
+            v, cur = path.solve(r, nb, wanted=switches, kept=kept)
             return np.abs(v[s_node] - v[g_node]), cur
+
+        hot_parts = parts(a.high)
+        kept: dict = {}  # conductances of what is not a switch, at the highest ambient
 
         def heated(base: dict, current_of) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
             """Self-heated steady state at the highest ambient: (sense R, hottest Tj, failing)."""
             tj = {pk: np.full(nb, a.high) for pk in packages}
             over = np.zeros(nb, bool)
-            others = parts(a.high)
+            others = hot_parts
             for _ in range(_THERMAL_ITERATIONS):
                 rds = at(base, tj)
-                rs, cur = sense({**others, **rds})
+                rs, cur = sense({**others, **rds}, kept)
                 amps = current_of(rs)
                 power = {pk: np.zeros(nb) for pk in packages}
                 for name, r in rds.items():

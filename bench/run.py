@@ -1,0 +1,690 @@
+#!/usr/bin/env python3
+"""packwarden's speed benchmark (issue 7): one run, every target, a table and a JSON file.
+
+    .venv/bin/python bench/run.py            # the full corpus: about ten minutes on two cores
+    .venv/bin/python bench/run.py --tiny     # everything on a tiny corpus, in seconds (the test)
+
+It writes a corpus into a temporary folder, made from the examples: single-cell designs (the
+Orchard probe with its name and load varied), 4S2P packs (the Ridgeline tool pack, likewise),
+large 16S x 20P packs with ten parallel FETs per switch (about 400 components, with an inline
+16-cell protector that has RL-GUARD-4S's thresholds) and a scaling series from 10 to 2 000
+components. Then, in one run:
+
+* cold single-file lint: the whole ``packwarden check FILE`` process, median of repeated runs;
+* batch throughput over 10 000 designs, all cores (``--jobs``), and the peak memory of the whole
+  process tree (RSS of every process summed, sampled from /proc);
+* scaling: time per design against its component count;
+* the floor on the same files: libyaml parsing alone (``yaml.compose`` with ``CSafeLoader``, in
+  process) and, as the peer a user might reach for, schema-only validation with the
+  general-purpose ``check-jsonschema`` command (one file per process, and the whole batch);
+* the Monte Carlo yield run, 100 000 samples.
+
+Bytecode: the measured processes run with bytecode caching on, as on a user's machine, after a
+warm-up run has written the caches (``PYTHONDONTWRITEBYTECODE`` is removed from their
+environment). The cold lint is also measured with no bytecode cache at all (every module, the
+standard library's too, compiled at start-up) and printed beside it.
+
+Speed figures belong here, never in the unit tests: ``tests/test_bench.py`` only runs ``--tiny``.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import platform
+import resource
+import shutil
+import statistics
+import subprocess
+import sys
+import tempfile
+import threading
+import time
+from pathlib import Path
+
+REPO = Path(__file__).resolve().parent.parent
+EXAMPLES = REPO / "example_designs"
+ORCHARD = EXAMPLES / "orchard-probe.yaml"
+RIDGELINE = EXAMPLES / "ridgeline-tool-4s2p.yaml"
+RIDGELINE_PARTS = EXAMPLES / "parts" / "ridgeline-parts.yaml"
+ORCHARD_PARTS = EXAMPLES / "parts" / "orchard-parts.yaml"
+DESIGN_SCHEMA = REPO / "schemas" / "design.schema.json"
+
+# The issue's targets.
+TARGET_FLOOR_RATIO = 3.0
+TARGET_COLD = 0.3  # s
+TARGET_SCALING = 12.0  # time ratio allowed for ten times the components
+TARGET_MEMORY = 150.0  # MB
+TARGET_MONTE_CARLO = 1.0  # s for 100 000 samples
+
+FULL = dict(single=5000, pack4s2p=4900, large=100, scaling=[10, 20, 50, 100, 200, 500, 1000, 2000],
+            cold_runs=11, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3)
+TINY = dict(single=12, pack4s2p=6, large=2, scaling=[10, 20, 50, 100], cold_runs=2,
+            scaling_runs=2, mc_samples=2_000, mc_runs=1, floor_runs=1)
+
+
+# --- the corpus ------------------------------------------------------------------------------
+
+def single_cell(i: int) -> str:
+    """The Orchard probe, its name and continuous load varied (0.5 .. 1.3 A, below its trip)."""
+    text = ORCHARD.read_text(encoding="utf-8")
+    load = 0.5 + (i % 9) / 10
+    return (text.replace("name: Orchard soil probe,", f"name: Probe {i:05d},")
+            .replace("  continuous: 1.2 A", f"  continuous: {load:.1f} A")
+            .replace("libraries: [parts/orchard-parts.yaml]",
+                     "libraries: [../../parts/orchard-parts.yaml]"))
+
+
+def pack_4s2p(i: int) -> str:
+    """The Ridgeline 4S2P tool pack, its name and continuous load varied (8 .. 16 A)."""
+    text = RIDGELINE.read_text(encoding="utf-8")
+    load = 8 + (i % 9)
+    return (text.replace("name: Ridgeline hedge-trimmer pack 4S2P,", f"name: Tool pack {i:05d},")
+            .replace("  continuous: 12 A", f"  continuous: {load} A")
+            .replace("libraries: [parts/ridgeline-parts.yaml]",
+                     "libraries: [../../parts/ridgeline-parts.yaml]"))
+
+
+def _protector(cells: int) -> dict:
+    """RL-GUARD-4S's thresholds from the Ridgeline library, as an inline part with ``cells``."""
+    import yaml
+    part = dict(yaml.safe_load(RIDGELINE_PARTS.read_text(encoding="utf-8"))["parts"]["RL-GUARD-4S"])
+    part["cells"] = cells
+    return part
+
+
+def component_plan(target: int) -> tuple[int, int, int, bool, int]:
+    """(series, parallel, FETs per switch, sense and monitor parts, extra capacitors) making a
+    pack of exactly ``target`` components."""
+    series = 1 if target < 20 else 2 if target < 50 else 4 if target < 100 else 16
+    fets = max(1, target // 40)
+    extras = target >= 20
+    base = 1 + (2 * series if series > 1 else 0) + 4 * fets + 4 + (4 if extras else 0)
+    parallel = max(1, (target - base) // series)
+    caps = target - base - series * parallel
+    if caps < 0:
+        raise ValueError(f"no pack plan makes {target} components")
+    return series, parallel, fets, extras, caps
+
+
+def pack(name: str, series: int, parallel: int, fets: int, *, extras: bool = True, caps: int = 0,
+         load: float = 15.0) -> str:
+    """A pack of Ridgeline parts: ``series`` x ``parallel`` cells, a protector with ``series``
+    cell inputs (tap filters and bleed resistors), ``fets`` p-channel FETs in parallel per
+    switch on the positive rail, each with its own gate resistor, a fuse and a low-side shunt."""
+    levels = ["B-"] + [f"B{k}" for k in range(1, series)] + ["B+"]
+    lines = [
+        "# A generated benchmark pack (bench/run.py) of invented parts.",
+        "format: packwarden/1",
+        f"design: {{name: {name}, revision: A}}",
+        "libraries: [../../parts/ridgeline-parts.yaml]",
+        "pack:",
+        "  ambient: {min: -10 °C, max: 50 °C}",
+        "load:",
+        f"  continuous: {load:g} A",
+        f"  peak: {{current: {min(load * 2, 28):g} A, duration: 300 ms}}",
+        "charger:",
+        f"  voltage: {{typ: {4.2 * series:.1f} V, tol: 0.5 %}}",
+        "  current: 2 A",
+        f"  open_circuit_max: {4.2 * series * 1.1:.1f} V",
+        "  reverse_polarity: prevented",
+        "  temperature_window: {min: 0 °C, max: 45 °C}",
+        "storage: {soc: 30 %, duration: 6 months, temperature: 25 °C}",
+        "components:",
+    ]
+    n = 0
+    for level in range(series):
+        for _ in range(parallel):
+            n += 1
+            lines.append(f"  BT{n}: {{part: RL-CELL-2500, pins: {{pos: {levels[level + 1]}, "
+                         f"neg: {levels[level]}}}}}")
+    protector = _protector(series)
+    pins = {"supply": "VDD", "ground": "B-", "sense": "SNS" if extras else "P-",
+            "discharge_gate": "DG", "charge_gate": "CG"}
+    if series > 1:
+        for k in range(1, series + 1):
+            pins[f"cell{k}"] = f"T{k}"
+            pins[f"balance{k}"] = f"BAL{k}"
+    protector["pins"] = pins
+    # JSON is YAML: the protector's block, copied from the library, is written as one flow map.
+    lines.append("  U1: " + json.dumps(protector, ensure_ascii=False))
+    if series > 1:
+        for k in range(1, series + 1):
+            lines.append(f"  RT{k}: {{part: RL-RES-1K0, pins: [{levels[k]}, T{k}]}}")
+            lines.append(f"  RB{k}: {{part: RL-RES-100-HALFW, pins: [{levels[k]}, BAL{k}]}}")
+    lines += ["  R1: {part: RL-RES-330, pins: [B+, VDD]}",
+              "  C1: {part: RL-CAP-1U-25V, pins: [VDD, B-]}",
+              "  F1: {part: RL-FUSE-60A, pins: [B+, BF]}",
+              "  RSH: {part: RL-SHUNT-1M5, pins: [B-, P-]}"]
+    for k in range(1, fets + 1):
+        lines.append(f"  QD{k}: {{part: RL-PFET-30, pins: {{s: BF, g: GD{k}, d: MID}}}}")
+        lines.append(f"  RGD{k}: {{part: RL-RES-1K0, pins: [DG, GD{k}]}}")
+        lines.append(f"  QC{k}: {{part: RL-PFET-30, pins: {{s: P+, g: GC{k}, d: MID}}}}")
+        lines.append(f"  RGC{k}: {{part: RL-RES-1K0, pins: [CG, GC{k}]}}")
+    if extras:
+        lines += ["  R2: {part: RL-RES-1K0, pins: [SNS, P-]}",
+                  "  R21: {part: RL-RES-1M0, pins: [B+, VMON]}",
+                  "  R22: {part: RL-RES-150K, pins: [VMON, B-]}",
+                  "  C2: {part: RL-CAP-100N-50V, pins: [P+, P-]}"]
+    for k in range(caps):
+        lines.append(f"  CX{k + 1}: {{part: RL-CAP-100N-50V, pins: [P+, P-]}}")
+    return "\n".join(lines) + "\n"
+
+
+def scaling_pack(target: int) -> str:
+    series, parallel, fets, extras, caps = component_plan(target)
+    return pack(f"Scaling pack {target}", series, parallel, fets, extras=extras, caps=caps,
+                load=min(2.0 * parallel, 15.0))
+
+
+def large_pack(i: int) -> str:
+    return pack(f"Large pack {i:04d}", 16, 20, 10, load=15.0 + (i % 9))
+
+
+def make_corpus(root: Path, cfg: dict) -> dict:
+    """Write the corpus under ``root``; return its files by kind."""
+    (root / "parts").mkdir(parents=True)
+    shutil.copy(ORCHARD_PARTS, root / "parts" / "orchard-parts.yaml")
+    shutil.copy(RIDGELINE_PARTS, root / "parts" / "ridgeline-parts.yaml")
+    # The corpus is a repository of its own: its config marks the root that libraries must lie in.
+    (root / "packwarden.toml").write_text("# benchmark corpus\n", encoding="utf-8")
+    files: dict[str, list[Path]] = {}
+    for kind, make in (("single", single_cell), ("pack4s2p", pack_4s2p), ("large", large_pack)):
+        folder = root / "batch" / kind
+        folder.mkdir(parents=True)
+        files[kind] = []
+        for i in range(cfg[kind]):
+            path = folder / f"{kind}-{i:05d}.yaml"
+            path.write_text(make(i), encoding="utf-8")
+            files[kind].append(path)
+    folder = root / "scaling" / "packs"
+    folder.mkdir(parents=True)
+    files["scaling"] = []
+    for target in cfg["scaling"]:
+        path = folder / f"scale-{target:04d}.yaml"
+        path.write_text(scaling_pack(target), encoding="utf-8")
+        files["scaling"].append(path)
+    return files
+
+
+# --- measuring processes ---------------------------------------------------------------------
+
+def cached_env() -> dict:
+    """The environment of a user's machine: bytecode is cached."""
+    env = dict(os.environ)
+    env.pop("PYTHONDONTWRITEBYTECODE", None)
+    env.pop("PYTHONPYCACHEPREFIX", None)
+    env["NO_COLOR"] = "1"
+    return env
+
+
+def uncached_env(prefix: Path) -> dict:
+    """No bytecode cache at all: caches are looked for in an empty folder and never written."""
+    env = cached_env()
+    env["PYTHONDONTWRITEBYTECODE"] = "1"
+    env["PYTHONPYCACHEPREFIX"] = str(prefix)
+    return env
+
+
+def packwarden_cmd() -> list[str]:
+    script = Path(sys.executable).with_name("packwarden")
+    return [str(script)] if script.exists() else [sys.executable, "-m", "packwarden.cli"]
+
+
+def peer_cmd() -> list[str] | None:
+    script = Path(sys.executable).with_name("check-jsonschema")
+    if script.exists():
+        return [str(script)]
+    found = shutil.which("check-jsonschema")
+    return [found] if found else None
+
+
+def ensure_peer(install: bool) -> tuple[list[str] | None, str]:
+    cmd = peer_cmd()
+    if cmd is not None or not install:
+        return cmd, "" if cmd else "check-jsonschema is not installed (pip install -e '.[bench]')"
+    print("installing check-jsonschema into this environment (the bench extra) ...", flush=True)
+    proc = subprocess.run([sys.executable, "-m", "pip", "install", "-q", "check-jsonschema"],
+                          capture_output=True, text=True)
+    cmd = peer_cmd()
+    if cmd is None:
+        return None, ("check-jsonschema could not be installed: "
+                      + (proc.stderr.strip().splitlines() or ["pip failed"])[-1])
+    return cmd, ""
+
+
+def peer_args(cmd: list[str]) -> list[str]:
+    # The schema's patterns are written for Python's (and pydantic's) regex dialect; the peer's
+    # default ECMAScript dialect refuses one of them, so the dialect is named.
+    return cmd + ["--regex-variant", "python", "--schemafile", str(DESIGN_SCHEMA)]
+
+
+def timed(cmd: list[str], env: dict, ok=(0, 1), cwd: Path | None = None) -> float:
+    t0 = time.perf_counter()
+    proc = subprocess.run(cmd, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
+                          cwd=cwd)
+    elapsed = time.perf_counter() - t0
+    if proc.returncode not in ok:
+        raise RuntimeError(f"{' '.join(cmd[:4])} ... exited {proc.returncode}: "
+                           f"{proc.stderr.decode(errors='replace')[-2000:]}")
+    return elapsed
+
+
+def median_of(runs: int, cmd: list[str], env: dict, **kw) -> dict:
+    times = [timed(cmd, env, **kw) for _ in range(runs)]
+    return {"median_s": statistics.median(times), "min_s": min(times), "max_s": max(times),
+            "runs": runs}
+
+
+class TreeMemory:
+    """Peak resident memory of a process and all its descendants, sampled from /proc."""
+
+    def __init__(self, pid: int, interval: float = 0.01):
+        self.pid, self.interval = pid, interval
+        self.peak_rss = 0
+        self.peak_pss = 0
+        self.peak_processes = 0
+        self._stop = threading.Event()
+        self._thread = threading.Thread(target=self._run, daemon=True)
+
+    def __enter__(self) -> "TreeMemory":
+        self._thread.start()
+        return self
+
+    def __exit__(self, *exc) -> None:
+        self._stop.set()
+        self._thread.join()
+
+    def _tree(self) -> list[int]:
+        children: dict[int, list[int]] = {}
+        for entry in os.listdir("/proc"):
+            if not entry.isdigit():
+                continue
+            try:
+                with open(f"/proc/{entry}/stat", "rb") as fh:
+                    stat = fh.read()
+            except OSError:
+                continue
+            ppid = int(stat[stat.rfind(b")") + 2:].split()[1])
+            children.setdefault(ppid, []).append(int(entry))
+        out, todo = [], [self.pid]
+        while todo:
+            pid = todo.pop()
+            out.append(pid)
+            todo.extend(children.get(pid, ()))
+        return out
+
+    @staticmethod
+    def _field(path: str, name: bytes) -> int:
+        try:
+            with open(path, "rb") as fh:
+                for line in fh:
+                    if line.startswith(name):
+                        return int(line.split()[1]) * 1024
+        except OSError:
+            pass
+        return 0
+
+    def _run(self) -> None:
+        while not self._stop.is_set():
+            pids = self._tree()
+            rss = sum(self._field(f"/proc/{p}/status", b"VmRSS:") for p in pids)
+            pss = sum(self._field(f"/proc/{p}/smaps_rollup", b"Pss:") for p in pids)
+            self.peak_rss = max(self.peak_rss, rss)
+            self.peak_pss = max(self.peak_pss, pss)
+            self.peak_processes = max(self.peak_processes, len(pids))
+            self._stop.wait(self.interval)
+
+
+def supports_jobs() -> bool:
+    out = subprocess.run(packwarden_cmd() + ["check", "--help"], capture_output=True, text=True,
+                         env=cached_env())
+    return "--jobs" in out.stdout
+
+
+def run_batch(folder: Path, jobs: int, env: dict, count: int) -> dict:
+    cmd = packwarden_cmd() + ["check", "--quiet"]
+    if jobs and supports_jobs():
+        cmd += ["--jobs", str(jobs)]
+    else:
+        jobs = 1
+    cmd.append(str(folder))
+    before = resource.getrusage(resource.RUSAGE_CHILDREN)
+    t0 = time.perf_counter()
+    proc = subprocess.Popen(cmd, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    on_linux = os.path.isdir("/proc/self")
+    if on_linux:
+        with TreeMemory(proc.pid) as mem:
+            _, err = proc.communicate()
+    else:  # pragma: no cover
+        mem = None
+        _, err = proc.communicate()
+    wall = time.perf_counter() - t0
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
+    if proc.returncode not in (0, 1):
+        raise RuntimeError(f"the batch lint exited {proc.returncode}: "
+                           f"{err.decode(errors='replace')[-2000:]}")
+    cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
+    out = {"designs": count, "jobs": jobs, "wall_s": wall, "cpu_s": cpu,
+           "designs_per_s": count / wall, "wall_per_design_s": wall / count,
+           "cpu_per_design_s": cpu / count,
+           # ru_maxrss of the children: the largest single process, in kilobytes on Linux
+           "max_single_process_rss_mb": after.ru_maxrss / 1024}
+    if mem is not None:
+        out.update(peak_tree_rss_mb=mem.peak_rss / 2**20, peak_tree_pss_mb=mem.peak_pss / 2**20,
+                   processes=mem.peak_processes)
+    return out
+
+
+def peer_batch(cmd: list[str], files: list[Path], env: dict, cores: int) -> dict:
+    """check-jsonschema over every file, one process per core at a time, a few hundred files each."""
+    chunk = max(1, min(500, -(-len(files) // cores)))
+    chunks = [files[i:i + chunk] for i in range(0, len(files), chunk)]
+    t0 = time.perf_counter()
+    before = resource.getrusage(resource.RUSAGE_CHILDREN)
+    running: list[subprocess.Popen] = []
+    failures = []
+
+    def reap(p: subprocess.Popen) -> None:
+        p.wait()
+        if p.returncode not in (0, 1):
+            failures.append(p.returncode)
+
+    for part in chunks:
+        while len(running) >= cores:
+            reap(running.pop(0))
+        running.append(subprocess.Popen(peer_args(cmd) + [str(f) for f in part], env=env,
+                                        stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL))
+    for p in running:
+        reap(p)
+    wall = time.perf_counter() - t0
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
+    if failures:
+        raise RuntimeError(f"check-jsonschema failed: exit codes {failures}")
+    cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
+    return {"designs": len(files), "processes": len(chunks), "parallel": cores, "wall_s": wall,
+            "cpu_s": cpu, "designs_per_s": len(files) / wall, "cpu_per_design_s": cpu / len(files)}
+
+
+# --- measuring in process --------------------------------------------------------------------
+
+def compose_floor(files: list[Path], runs: int) -> dict:
+    """libyaml's parse alone: read each file and compose its node tree, on one core."""
+    import yaml
+    best = None
+    for _ in range(runs):
+        t0 = time.perf_counter()
+        for f in files:
+            yaml.compose(f.read_text(encoding="utf-8"), Loader=yaml.CSafeLoader)
+        elapsed = time.perf_counter() - t0
+        best = elapsed if best is None else min(best, elapsed)
+    return {"designs": len(files), "total_s": best, "per_design_s": best / len(files),
+            "runs": runs, "loader": "yaml.CSafeLoader"}
+
+
+def in_process_session():
+    from packwarden.engine import Session, load_registry
+    return Session(registry=load_registry())
+
+
+def scaling(files: list[Path], runs: int) -> dict:
+    """Per design of the series: in-process lint with the part library already read (as in a
+    batch), median of ``runs``, and libyaml's compose of the same file."""
+    import yaml
+
+    from packwarden.engine import lint_file
+    session = in_process_session()
+    points = []
+    for f in files:
+        lint_file(session, f, str(f))  # reads the library into the session, as a batch would
+        times = []
+        result = None
+        for _ in range(runs):
+            t0 = time.perf_counter()
+            result = lint_file(session, f, str(f))
+            times.append(time.perf_counter() - t0)
+        if result.errors or result.internal:
+            raise RuntimeError(f"{f}: {[str(e) for e in result.errors]} {result.internal}")
+        t0 = time.perf_counter()
+        yaml.compose(f.read_text(encoding="utf-8"), Loader=yaml.CSafeLoader)
+        parse = time.perf_counter() - t0
+        points.append({"components": result.figures["component_count"],
+                       "series": result.figures.get("series"),
+                       "parallel": result.figures.get("parallel"),
+                       "lint_s": statistics.median(times), "compose_s": parse,
+                       "lint_per_component_s": statistics.median(times) /
+                       result.figures["component_count"]})
+    ratios = []
+    by_n = {p["components"]: p for p in points}
+    for n, p in by_n.items():
+        q = by_n.get(n * 10)
+        if q is not None:
+            ratios.append({"from": n, "to": n * 10, "time_ratio": q["lint_s"] / p["lint_s"]})
+    return {"points": points, "decade_ratios": ratios,
+            "worst_decade_ratio": max((r["time_ratio"] for r in ratios), default=None)}
+
+
+def monte_carlo(files: dict[str, Path], samples: int, runs: int) -> dict:
+    from packwarden.engine import lint_file
+    from packwarden.model.yield_ import run_yield
+    session = in_process_session()
+    out = {}
+    for kind, f in files.items():
+        d = lint_file(session, f, str(f))
+        if d.model is None:
+            raise RuntimeError(f"{f}: no model for the yield run")
+        run_yield(d.model, min(samples, 1000))  # numpy's imports and first calls, not the run
+        times = []
+        for _ in range(runs):
+            t0 = time.perf_counter()
+            run_yield(d.model, samples)
+            times.append(time.perf_counter() - t0)
+        out[kind] = {"samples": samples, "median_s": statistics.median(times), "runs": runs,
+                     "components": d.figures["component_count"]}
+    return out
+
+
+# --- the report ------------------------------------------------------------------------------
+
+def verdict(ok: bool | None) -> str:
+    return "n/a" if ok is None else "PASS" if ok else "MISS"
+
+
+def targets(res: dict) -> list[tuple[str, str, str]]:
+    rows = []
+    floor = res["floor"]["batch_compose"]["per_design_s"]
+    b = res["batch"]
+    ratio_cpu = b["cpu_per_design_s"] / floor
+    ratio_wall = b["wall_per_design_s"] / (floor / b["jobs"])
+    rows.append(("batch lint <= 3x libyaml parse floor per design",
+                 f"CPU {b['cpu_per_design_s'] * 1e3:.2f} ms vs {floor * 1e3:.3f} ms = {ratio_cpu:.1f}x"
+                 f" (wall on {b['jobs']} cores vs floor on {b['jobs']}: {ratio_wall:.1f}x)",
+                 verdict(ratio_cpu <= TARGET_FLOOR_RATIO)))
+    peer = res.get("peer", {})
+    for kind, c in res["cold"].items():
+        p = peer.get("single", {}).get(kind)
+        if p is None:
+            rows.append((f"file lint faster than peer ({kind})", "peer not available", "n/a"))
+        else:
+            rows.append((f"file lint faster than peer ({kind})",
+                         f"{c['cached']['median_s']:.3f} s vs check-jsonschema "
+                         f"{p['median_s']:.3f} s", verdict(c["cached"]["median_s"] < p["median_s"])))
+    for kind, c in res["cold"].items():
+        rows.append((f"cold single-file lint < 0.3 s ({kind})",
+                     f"{c['cached']['median_s']:.3f} s cached bytecode "
+                     f"({c['uncached']['median_s']:.3f} s without any cache)",
+                     verdict(c["cached"]["median_s"] < TARGET_COLD)))
+    s = res["scaling"]
+    worst = s["worst_decade_ratio"]
+    pairs = ", ".join(f"{r['from']}->{r['to']}: {r['time_ratio']:.1f}x" for r in s["decade_ratios"])
+    rows.append(("10x components <= 12x time", pairs or "no decade in the series",
+                 verdict(None if worst is None else worst <= TARGET_SCALING)))
+    mem = b.get("peak_tree_rss_mb", b["max_single_process_rss_mb"])
+    rows.append((f"peak memory < 150 MB ({b['designs']} designs)",
+                 f"{mem:.0f} MB RSS of the process tree"
+                 + (f" (PSS {b['peak_tree_pss_mb']:.0f} MB)" if "peak_tree_pss_mb" in b else ""),
+                 verdict(mem < TARGET_MEMORY)))
+    for kind, m in res["monte_carlo"].items():
+        scaled = m["median_s"] * 100_000 / m["samples"]
+        rows.append((f"100 000 Monte Carlo samples < 1 s ({kind})",
+                     f"{m['median_s']:.3f} s for {m['samples']:,}"
+                     + (f" (~{scaled:.2f} s per 100 000)" if m["samples"] != 100_000 else ""),
+                     verdict(scaled < TARGET_MONTE_CARLO)))
+    return rows
+
+
+def print_report(res: dict) -> None:
+    print()
+    print(f"packwarden benchmark ({res['machine']['cpus']} CPUs, Python "
+          f"{res['machine']['python']}; corpus of {res['corpus']['batch_designs']:,} designs)")
+    print("Measured processes run with bytecode caching on (PYTHONDONTWRITEBYTECODE unset, after "
+          "a warm-up run); figures without any bytecode cache are given beside them.")
+    print()
+    print(f"{'measure':<44} {'figure':>14}")
+    for kind, c in res["cold"].items():
+        print(f"{'cold lint, ' + kind + ' (median, cached)':<44} {c['cached']['median_s']:>12.3f} s"
+              f"   ({c['components']} components; no cache {c['uncached']['median_s']:.3f} s)")
+    for kind, p in res.get("peer", {}).get("single", {}).items():
+        print(f"{'check-jsonschema, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
+    for kind, f in res["floor"]["single"].items():
+        print(f"{'libyaml compose, ' + kind:<44} {f * 1e3:>11.3f} ms")
+    b = res["batch"]
+    print(f"{'batch lint, ' + format(b['designs'], ',') + ' designs':<44} "
+          f"{b['designs_per_s']:>10.0f} /s   ({b['wall_s']:.1f} s wall, {b['jobs']} jobs, "
+          f"{b['cpu_per_design_s'] * 1e3:.2f} ms CPU per design)")
+    fb = res["floor"]["batch_compose"]
+    print(f"{'libyaml compose, same designs (1 core)':<44} {1 / fb['per_design_s']:>10.0f} /s   "
+          f"({fb['per_design_s'] * 1e3:.3f} ms per design)")
+    pb = res.get("peer", {}).get("batch")
+    if pb:
+        print(f"{'check-jsonschema, same designs':<44} {pb['designs_per_s']:>10.0f} /s   "
+              f"({pb['wall_s']:.1f} s wall, {pb['parallel']} at a time)")
+    if "peak_tree_rss_mb" in b:
+        print(f"{'peak memory of the batch (tree RSS)':<44} {b['peak_tree_rss_mb']:>11.0f} MB  "
+              f"(PSS {b['peak_tree_pss_mb']:.0f} MB, {b['processes']} processes)")
+    print(f"{'scaling: components':<30} {'lint/design':>12} {'per component':>14} {'compose':>10}")
+    for p in res["scaling"]["points"]:
+        print(f"{p['components']:>30} {p['lint_s'] * 1e3:>10.1f} ms {p['lint_per_component_s'] * 1e6:>11.1f} µs"
+              f" {p['compose_s'] * 1e3:>8.2f} ms")
+    for kind, m in res["monte_carlo"].items():
+        print(f"{'Monte Carlo ' + format(m['samples'], ',') + ' samples, ' + kind:<44} "
+              f"{m['median_s']:>12.3f} s")
+    print()
+    print(f"{'target':<52} {'verdict':<7} measured")
+    for name, figure, v in res["targets"]:
+        print(f"{name:<52} {v:<7} {figure}")
+
+
+# --- main ------------------------------------------------------------------------------------
+
+def main(argv: list[str] | None = None) -> int:
+    ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+    ap.add_argument("--tiny", action="store_true", help="a tiny corpus, quickly (for the test)")
+    ap.add_argument("--out", type=Path, default=REPO / "bench" / "out" / "results.json",
+                    help="write the JSON results here")
+    ap.add_argument("--jobs", type=int, default=os.cpu_count() or 1,
+                    help="workers for the batch lint (default: every CPU)")
+    ap.add_argument("--keep", type=Path, default=None,
+                    help="write the corpus into this folder and keep it")
+    ap.add_argument("--no-install", action="store_true",
+                    help="do not install check-jsonschema when it is missing")
+    args = ap.parse_args(argv)
+    cfg = TINY if args.tiny else FULL
+    cores = os.cpu_count() or 1
+
+    tmp = Path(tempfile.mkdtemp(prefix="packwarden-bench-"))
+    root = args.keep or tmp / "corpus"
+    if args.keep and root.exists():
+        shutil.rmtree(root)
+    try:
+        return _run(args, cfg, cores, tmp, root)
+    finally:
+        shutil.rmtree(tmp, ignore_errors=True)
+
+
+def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
+    t_start = time.perf_counter()
+    print(f"writing the corpus to {root} ...", flush=True)
+    files = make_corpus(root, cfg)
+    batch_files = files["single"] + files["pack4s2p"] + files["large"]
+    samples = {"single": files["single"][0], "pack4s2p": files["pack4s2p"][0],
+               "large": files["large"][0]}
+    res: dict = {
+        "machine": {"cpus": cores, "python": platform.python_version(),
+                    "platform": platform.platform(), "tiny": args.tiny},
+        "bytecode": {"measured": "cached (PYTHONDONTWRITEBYTECODE unset, after a warm-up run)",
+                     "also": "uncached: PYTHONDONTWRITEBYTECODE=1 with an empty "
+                             "PYTHONPYCACHEPREFIX, every module compiled"},
+        "corpus": {kind: len(v) for kind, v in files.items()},
+    }
+    res["corpus"]["batch_designs"] = len(batch_files)
+    env = cached_env()
+    pw = packwarden_cmd()
+    peer, why = ensure_peer(not args.no_install)
+
+    print("warm-up runs (writing bytecode caches) ...", flush=True)
+    for f in samples.values():
+        timed(pw + ["check", str(f)], env)
+        if peer:
+            timed(peer_args(peer) + [str(f)], env)
+
+    import yaml
+    print("cold single-file lint ...", flush=True)
+    nocache = tmp / "no-pycache"
+    res["cold"] = {}
+    for kind, f in samples.items():
+        comps = len(yaml.safe_load(f.read_text(encoding="utf-8"))["components"])
+        nocache.mkdir(exist_ok=True)
+        res["cold"][kind] = {
+            "file": f.name, "components": comps,
+            "cached": median_of(cfg["cold_runs"], pw + ["check", str(f)], env),
+            "uncached": median_of(max(1, cfg["cold_runs"] // 3), pw + ["check", str(f)],
+                                  uncached_env(nocache)),
+        }
+        shutil.rmtree(nocache, ignore_errors=True)
+
+    res["peer"] = {"available": peer is not None, "command": "check-jsonschema --regex-variant "
+                   "python --schemafile schemas/design.schema.json FILE...", "reason": why}
+    if peer:
+        print("peer: check-jsonschema, one file per process ...", flush=True)
+        res["peer"]["single"] = {kind: median_of(cfg["cold_runs"], peer_args(peer) + [str(f)], env)
+                                 for kind, f in samples.items()}
+
+    print("floor: libyaml compose ...", flush=True)
+    res["floor"] = {"single": {}}
+    for kind, f in samples.items():
+        text = f.read_text(encoding="utf-8")
+        t0 = time.perf_counter()
+        for _ in range(20):
+            yaml.compose(text, Loader=yaml.CSafeLoader)
+        res["floor"]["single"][kind] = (time.perf_counter() - t0) / 20
+    res["floor"]["batch_compose"] = compose_floor(batch_files, cfg["floor_runs"])
+
+    print(f"batch lint of {len(batch_files):,} designs, {args.jobs} jobs ...", flush=True)
+    res["batch"] = run_batch(root / "batch", args.jobs, env, len(batch_files))
+    if peer:
+        print("peer: check-jsonschema over the batch ...", flush=True)
+        res["peer"]["batch"] = peer_batch(peer, batch_files, env, cores)
+
+    print("scaling series ...", flush=True)
+    res["scaling"] = scaling(files["scaling"], cfg["scaling_runs"])
+
+    print(f"Monte Carlo yield, {cfg['mc_samples']:,} samples ...", flush=True)
+    res["monte_carlo"] = monte_carlo(samples, cfg["mc_samples"], cfg["mc_runs"])
+    res["monte_carlo_process"] = {}
+    for kind in ("single", "pack4s2p"):
+        res["monte_carlo_process"][kind] = median_of(
+            1, pw + ["check", "--yield", str(cfg["mc_samples"]), str(samples[kind])], env)
+
+    res["targets"] = targets(res)
+    res["elapsed_s"] = time.perf_counter() - t_start
+    args.out.parent.mkdir(parents=True, exist_ok=True)
+    args.out.write_text(json.dumps(res, indent=2, ensure_ascii=False) + "\n", encoding="utf-8")
+    print_report(res)
+    print(f"\nresults: {args.out} ({res['elapsed_s']:.0f} s)")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
