@@ -105,6 +105,11 @@ def check(
     # The HTML report and the yield run read each design's model, which stays in the process
     # that built it: they lint in this one.
     needs_models = format == Format.html or bool(yield_samples)
+    if _OWN_PROCESS:
+        # What is loaded by now lives as long as the process: keep the cycle collector from
+        # walking it again and again while the designs are linted.
+        import gc
+        gc.freeze()
     try:
         run = lint(paths, config=config, fail_on=level, progress=bar,
                    require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()],
@@ -299,7 +304,13 @@ def _indent(text: str) -> str:
     return "\n".join("    " + ln for ln in text.strip("\n").splitlines()) + "\n"
 
 
+#: True when the command runs as its own process (``main``), not called from other code.
+_OWN_PROCESS = False
+
+
 def main() -> None:
+    global _OWN_PROCESS
+    _OWN_PROCESS = True
     try:
         app()
     except KeyboardInterrupt:  # pragma: no cover

@@ -580,6 +580,10 @@ def _worker_start(registry: Registry | None, rule_paths: list[Path], config: Pat
     if registry is None:
         registry = load_registry(rule_paths)
     _WORKER_SESSION = Session(registry=registry, config_override=config, today=today)
+    # What the worker holds now (modules, schemas, rules) lives as long as the worker: keep the
+    # cycle collector from walking it again for every design.
+    import gc
+    gc.freeze()
 
 
 def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
@@ -597,41 +601,68 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
                      rule_paths: list[Path]) -> list[DesignResult]:
     """Results of ``found``, in order, linted in chunks by ``workers`` processes.
 
-    A chunk whose worker fails (killed, or a result that cannot be sent back) is linted here
-    instead, so a run never loses a design.
+    This process is one of them: it lints chunks from the end of the batch while the others
+    take them from the front, so no processor waits and one process fewer holds the libraries
+    and imports. A chunk whose worker fails (killed, or a result that cannot be sent back) is
+    linted here instead, so a run never loses a design.
     """
     import concurrent.futures as futures
     import multiprocessing
 
     ctx = multiprocessing.get_context("fork" if _FORK else "spawn")
-    # Chunks small enough that two workers stay busy to the end, large enough that sending
+    # Chunks small enough that the processes stay busy to the end, large enough that sending
     # them costs little next to linting them.
     size = max(1, min(64, len(found) // (workers * 8)))
     chunks = [found[i:i + size] for i in range(0, len(found), size)]
-    out: list[DesignResult] = []
+    results: list[list[DesignResult] | None] = [None] * len(chunks)
+    # Its own session, as the other workers have theirs: this process's session learns the
+    # configs and policies afterwards, in the order of the designs (see _adopt).
+    here = Session(registry=session.registry, config_override=session.config_override,
+                   today=session.today)
+    done = 0
+
+    def finished(k: int, chunk_results: list[DesignResult]) -> None:
+        nonlocal done
+        results[k] = chunk_results
+        for (_, shown), _result in zip(chunks[k], chunk_results):
+            done += 1
+            if progress is not None:
+                progress(done, len(found), shown)
+
+    def harvest(block: bool) -> None:
+        for k, job in list(running.items()):
+            if block or job.done():
+                del running[k]
+                try:
+                    finished(k, job.result())
+                except Exception:
+                    finished(k, _lint_here(here, chunks[k]))
+
     pool = futures.ProcessPoolExecutor(
-        workers, mp_context=ctx, initializer=_worker_start,
+        workers - 1, mp_context=ctx, initializer=_worker_start,
         initargs=(session.registry if _FORK else None, rule_paths, session.config_override,
                   session.today))
+    running: dict[int, futures.Future] = {}
+    front, back = 0, len(chunks)  # the pool takes chunks from the front, this process the back
     try:
-        pending = [pool.submit(_worker_lint, chunk) for chunk in chunks]
-        for chunk, job in zip(chunks, pending):
-            try:
-                results = job.result()
-            except Exception:
-                results = _worker_fallback(session, chunk)
-            for (_, shown), result in zip(chunk, results):
-                out.append(result)
-                if progress is not None:
-                    progress(len(out), len(found), shown)
+        while front < back:
+            while front < back and len(running) < 2 * (workers - 1):
+                running[front] = pool.submit(_worker_lint, chunks[front])
+                front += 1
+            if front < back:
+                back -= 1
+                finished(back, _lint_here(here, chunks[back]))
+            harvest(block=False)
+        harvest(block=True)
     except BaseException:
         pool.shutdown(wait=False, cancel_futures=True)
         raise
     pool.shutdown()
-    return out
+    return [r for chunk_results in results for r in chunk_results]
 
 
-def _worker_fallback(session: Session, chunk: list[tuple[Path, str]]) -> list[DesignResult]:
+def _lint_here(session: Session, chunk: list[tuple[Path, str]]) -> list[DesignResult]:
+    """A chunk linted in this process, as a worker would have: no models kept."""
     results = [_lint_one(session, path, shown) for path, shown in chunk]
     for result in results:
         result.model = None

@@ -318,12 +318,12 @@ class LinearPath:
         return [n for t, _, _ in self.branches for n in t.leaves()]
 
     def solve(self, r: dict, builds: int, wanted: Sequence[str] | None = None,
-              kept: dict | None = None) -> tuple[np.ndarray, dict]:
+              kept: dict | None = None, varies: Sequence[str] = ()) -> tuple[np.ndarray, dict]:
         """(node voltages (nodes, builds), leaf currents) for a unit load current, ground 0 V.
 
-        ``wanted`` limits the currents to those parts; with ``kept`` (a dict the caller keeps
-        between calls) the conductances of subtrees holding none of them are reused, so their
-        parts' values must not change between those calls.
+        ``wanted`` limits the currents to those parts. With ``kept`` (a dict the caller keeps
+        between calls) the conductances of subtrees holding none of the ``wanted`` or
+        ``varies`` parts are reused, so the other parts' values must not change between calls.
 
         ``r`` maps each part to its resistances, one per build (or one for all). The remaining nodal equations are
         eliminated without pivoting, vectorised across builds: the grounded Laplacian is
@@ -332,14 +332,18 @@ class LinearPath:
         """
         memo: dict = {}
         marks: dict | None = None
+        changing: dict | None = None
         if wanted is not None:
             marks = {}
             names = frozenset(wanted)
             for t, _, _ in self.branches:
                 _mark(t, names, marks)
-        else:
-            kept = None
-        g = [np.broadcast_to(_conductance(t, r, memo, kept, marks), (builds,))
+        if kept is not None:
+            changing = {}
+            names = frozenset(wanted or ()) | frozenset(varies)
+            for t, _, _ in self.branches:
+                _mark(t, names, changing)
+        g = [np.broadcast_to(_conductance(t, r, memo, kept, changing), (builds,))
              for t, _, _ in self.branches]
         n = len(self.nodes)
         unknown = [i for i in range(n) if i != self.ground]
@@ -559,14 +563,17 @@ def _run(m: "DesignModel", samples: int, seed: int, distribution: Distribution) 
 
         switches = [ch.name for ch in m.channels if ch.name in on_path]
 
-        def sense(r: dict, kept: dict | None = None) -> tuple[np.ndarray, dict]:
-            # Only the switches' currents are used; the other parts keep their values through a
-            # thermal loop, so ``kept`` carries their conductances from one iteration to the next.
-            v, cur = path.solve(r, nb, wanted=switches, kept=kept)
+        # Only the switches change from one solve to the next, and the parts whose resistance
+        # follows the ambient (copper, fuses) between the hot and the cold cases: the cells and
+        # resistors of a large pack keep their conductances in ``kept`` for all of this batch.
+        kept: dict = {}
+        by_ambient = [name for name, v in fixed.items() if not isinstance(v, np.ndarray)]
+
+        def sense(r: dict) -> tuple[np.ndarray, dict]:
+            v, cur = path.solve(r, nb, wanted=switches, kept=kept, varies=by_ambient)
             return np.abs(v[s_node] - v[g_node]), cur
 
         hot_parts = parts(a.high)
-        kept: dict = {}  # conductances of what is not a switch, at the highest ambient
 
         def heated(base: dict, current_of) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
             """Self-heated steady state at the highest ambient: (sense R, hottest Tj, failing)."""
@@ -575,7 +582,7 @@ def _run(m: "DesignModel", samples: int, seed: int, distribution: Distribution) 
             others = hot_parts
             for _ in range(_THERMAL_ITERATIONS):
                 rds = at(base, tj)
-                rs, cur = sense({**others, **rds}, kept)
+                rs, cur = sense({**others, **rds})
                 amps = current_of(rs)
                 power = {pk: np.zeros(nb) for pk in packages}
                 for name, r in rds.items():
