@@ -35,12 +35,18 @@ class Strict(BaseModel):
 _PREFIX_CLASS = "[YZEPTGMkmuµμnpfa]?"
 
 
+def _js_escape(text: str) -> str:
+    """Escape only regex syntax characters: editors read these patterns as ECMAScript regexes in
+    unicode mode, where ``re.escape``'s ``\\ `` and ``\\-`` are errors."""
+    return "".join("\\" + ch if ch in r"\^$.|?*+()[]{}" else ch for ch in text)
+
+
 def _unit_pattern(unit: str) -> str:
     spec = UNITS[unit]
     names = [spec.symbol, *spec.spellings]
     if spec.symbol == "Ω":
         names.append("\u2126")
-    alt = "|".join(re.escape(n) for n in names)
+    alt = "|".join(_js_escape(n) for n in names)
     prefix = _PREFIX_CLASS if spec.prefixes else ""
     optional = "?" if not spec.prefixes and unit not in ("oz",) else ""
     return rf"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)? ?({prefix}({alt})){optional}$"

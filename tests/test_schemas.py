@@ -45,3 +45,30 @@ def test_schema_rejects_a_wrong_unit():
     data["load"] = {"continuous": "1.2 V"}
     with pytest.raises(jsonschema.ValidationError):
         jsonschema.Draft7Validator(design_schema).validate(data)
+
+
+def _patterns(node):
+    if isinstance(node, dict):
+        for k, v in node.items():
+            if k == "pattern" and isinstance(v, str):
+                yield v
+            else:
+                yield from _patterns(v)
+    elif isinstance(node, list):
+        for v in node:
+            yield from _patterns(v)
+
+
+@pytest.mark.parametrize("which", ["design", "parts", "policy"])
+def test_patterns_are_valid_ecmascript_unicode_regexes(which):
+    # JSON Schema patterns are ECMA-262 regexes, and editors compile them in unicode mode, where an
+    # escape of a character that is not syntax (`\ `, `\-`) is an error [published: ECMA-262,
+    # IdentityEscape with the u flag: SyntaxCharacter or "/" only].
+    import re
+    shipped = json.loads((ROOT / "schemas" / f"{which}.schema.json").read_text(encoding="utf-8"))
+    allowed = set("dDwWsSbBfnrtv0") | set("^$\\.*+?()[]{}|/")
+    found = list(_patterns(shipped))
+    assert found, "no patterns to check"
+    for pattern in found:
+        for m in re.finditer(r"\\(.)", pattern):
+            assert m.group(1) in allowed, (pattern, m.group(0))
