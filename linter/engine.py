@@ -13,7 +13,7 @@ from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any, Callable, Iterable
 
-from .api import Finding, Location, Rule, RuleContext, Severity
+from .api import Finding, Rule, RuleContext, Severity
 from .config import Config, check_against_rules, find_config, load_config
 from .library import LibraryCache, repository_root, resolve_libraries, shown_path
 from .loader import Document, InputError, load_file
@@ -686,8 +686,3 @@ def _adopt(session: Session, found: list[tuple[Path, str]], results: list[Design
 
 def _is_config(err: InputError, session: Session) -> bool:
     return any(e is err for _, _, e in session.configs.values())
-
-
-def location_of(doc: Document, path: tuple) -> Location:
-    pos = doc.where(path)
-    return Location(doc.file, path, pos.line, pos.column)

@@ -409,8 +409,3 @@ def _describe(value: Any) -> str:
         return f"the number {text[:20]}…" if len(text) > 24 else f"the number {text}"
     text = str(value)
     return f"'{text[:40]}…'" if len(text) > 40 else f"'{text}'"
-
-
-def raise_first(errors: list[InputError]) -> None:
-    if errors:
-        raise errors[0]
