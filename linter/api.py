@@ -6,7 +6,6 @@ built-in rule needs something that is not here, team rules need it too and it be
 
 from __future__ import annotations
 
-import hashlib
 from dataclasses import dataclass, field, replace
 from enum import Enum
 from typing import TYPE_CHECKING, Any, Callable, Iterable
@@ -70,6 +69,8 @@ class Finding:
     def with_fingerprint(self, design_id: str) -> "Finding":
         # Keyed on what the finding is about, never on line numbers, so baselines survive edits
         # elsewhere in the file and re-ordering of components.
+        import hashlib  # here, not at the top: a clean design never needs it at start-up
+
         basis = "\x1f".join([self.rule, design_id, self.element or "", self.location.dotted, self.key])
         return replace(self, fingerprint=hashlib.sha256(basis.encode()).hexdigest()[:20])
 
