@@ -175,6 +175,7 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
     runaway = False
     notes: list[str] = []
     state = None
+    previous: dict[str, tuple[float, float]] = {}
     for _ in range(_ITERATIONS):
         rds, notes = {}, []
         for ch in m.channels:
@@ -196,7 +197,13 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
         if delta < _TOLERANCE:
             tj = target
             break
-        tj = {pk: tj[pk] + _DAMPING * (target[pk] - tj[pk]) for pk in packages}
+        # With the FETs as the sense resistance, P = V²/R falls as T_J rises and the plain
+        # iteration oscillates; damping settles it, and the secant (where it applies) in a few
+        # solves instead of tens.
+        step = {pk: thermal.accelerated_step(tj[pk], target[pk], previous.get(pk), _DAMPING)
+                for pk in packages}
+        previous = {pk: (tj[pk], target[pk] - tj[pk]) for pk in packages}
+        tj = step
         if any(tj[pk] > packages[pk].tj_max + _RUNAWAY_MARGIN for pk in packages):
             runaway = True
             break
