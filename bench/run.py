@@ -17,7 +17,9 @@ components. Then, in one run:
 * the floor on the same files: libyaml parsing alone (``yaml.compose`` with ``CSafeLoader``, in
   process) and, as the peer a user might reach for, schema-only validation with the
   general-purpose ``check-jsonschema`` command (one file per process, and the whole batch);
-* the Monte Carlo yield run, 100 000 samples.
+* the Monte Carlo yield run, 100 000 samples;
+* where the time goes: per kind of design, each stage of the lint (load, validate, libraries,
+  netlist, model, rules) beside the floor, in process.
 
 Bytecode: the measured processes run with bytecode caching on, as on a user's machine, after a
 warm-up run has written the caches (``PYTHONDONTWRITEBYTECODE`` is removed from their
@@ -59,9 +61,10 @@ TARGET_MEMORY = 150.0  # MB
 TARGET_MONTE_CARLO = 1.0  # s for 100 000 samples
 
 FULL = dict(single=5000, pack4s2p=4900, large=100, scaling=[10, 20, 50, 100, 200, 500, 1000, 2000],
-            cold_runs=11, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3)
+            cold_runs=11, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3,
+            stage_designs=200)
 TINY = dict(single=12, pack4s2p=6, large=2, scaling=[10, 20, 50, 100], cold_runs=2,
-            scaling_runs=2, mc_samples=2_000, mc_runs=1, floor_runs=1)
+            scaling_runs=2, mc_samples=2_000, mc_runs=1, floor_runs=1, stage_designs=2)
 
 
 # --- the corpus ------------------------------------------------------------------------------
@@ -431,6 +434,37 @@ def in_process_session():
     return Session(registry=load_registry())
 
 
+STAGES = ("load", "validate", "libraries", "netlist", "model", "rules")
+
+
+def stages(files: dict[str, list[Path]], count: int) -> dict:
+    """Where a design's time goes, in process on one core: per kind, the time per design of each
+    stage of the lint beside the floor (reading the file and libyaml's compose of it), over the
+    first ``count`` designs of the kind with the libraries already read, as in a batch. ``model``
+    is the figures every lint reports; ``rules`` the checks, with the model queries only they
+    make."""
+    import yaml
+
+    from packwarden.engine import lint_file
+    session = in_process_session()
+    out = {}
+    for kind in ("single", "pack4s2p", "large"):
+        chosen = files[kind][:count]
+        lint_file(session, chosen[0], str(chosen[0]))  # libraries and first-use set-up
+        floor = 0.0
+        timings: dict[str, float] = {}
+        for f in chosen:
+            t0 = time.perf_counter()
+            yaml.compose(f.read_text(encoding="utf-8"), Loader=yaml.CSafeLoader)
+            floor += time.perf_counter() - t0
+            lint_file(session, f, str(f), timings)
+        per = {stage: timings.get(stage, 0.0) / len(chosen) for stage in STAGES}
+        total = sum(per.values())
+        out[kind] = {"designs": len(chosen), "floor_s": floor / len(chosen), "stages_s": per,
+                     "lint_s": total, "ratio": total / (floor / len(chosen))}
+    return out
+
+
 def scaling(files: list[Path], runs: int) -> dict:
     """Per design of the series: in-process lint with the part library already read (as in a
     batch), median of ``runs``, and libyaml's compose of the same file."""
@@ -566,6 +600,13 @@ def print_report(res: dict) -> None:
     if "peak_tree_rss_mb" in b:
         print(f"{'peak memory of the batch (tree RSS)':<44} {b['peak_tree_rss_mb']:>11.0f} MB  "
               f"(PSS {b['peak_tree_pss_mb']:.0f} MB, {b['processes']} processes)")
+    st = res["stages"]
+    print(f"{'per design, in process (ms)':<32} {'floor':>6} " + " ".join(f"{x:>9}" for x in STAGES)
+          + f" {'lint':>6} {'ratio':>6}")
+    for kind, k in st.items():
+        print(f"{kind:<32} {k['floor_s'] * 1e3:>6.2f} "
+              + " ".join(f"{k['stages_s'][x] * 1e3:>9.2f}" for x in STAGES)
+              + f" {k['lint_s'] * 1e3:>6.2f} {k['ratio']:>5.1f}x")
     print(f"{'scaling: components':<30} {'lint/design':>12} {'per component':>14} {'compose':>10}")
     for p in res["scaling"]["points"]:
         print(f"{p['components']:>30} {p['lint_s'] * 1e3:>10.1f} ms {p['lint_per_component_s'] * 1e6:>11.1f} µs"
@@ -674,6 +715,9 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
     if peer:
         print("peer: check-jsonschema over the batch ...", flush=True)
         res["peer"]["batch"] = peer_batch(peer, batch_files, env, cores)
+
+    print("where the time goes, per stage ...", flush=True)
+    res["stages"] = stages(files, cfg["stage_designs"])
 
     print("scaling series ...", flush=True)
     res["scaling"] = scaling(files["scaling"], cfg["scaling_runs"])

@@ -46,6 +46,9 @@ class LibraryCache:
 
     loaded: dict[Path, tuple[PartLibrary | None, Document | None, list[InputError]]] = field(
         default_factory=dict)
+    #: Libraries resolved without error, per (design folder, library entries, root): the designs
+    #: of one folder name the same libraries, and walking the paths and parts is done once.
+    resolved: dict[tuple[Path, tuple[str, ...], Path], "ResolvedParts"] = field(default_factory=dict)
 
     def load(self, path: Path) -> tuple[PartLibrary | None, Document | None, list[InputError]]:
         key = path.resolve()
@@ -71,6 +74,10 @@ class ResolvedParts:
 def resolve_libraries(design_doc: Document, libraries: list[str], design_path: Path,
                       cache: LibraryCache, root: Path) -> ResolvedParts:
     """Load the design's libraries and their includes; refuse paths outside ``root``."""
+    key = (design_path.parent, tuple(libraries), root)
+    hit = cache.resolved.get(key)
+    if hit is not None:
+        return ResolvedParts(dict(hit.parts), dict(hit.sources), [])
     parts: dict[str, Any] = {}
     sources: dict[str, PartSource] = {}
     errors: list[InputError] = []
@@ -124,6 +131,8 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
 
     for i, entry in enumerate(libraries):
         visit(entry, design_path.parent, design_doc, ("libraries", i), ())
+    if not errors:  # errors carry this design's positions: those are found afresh each time
+        cache.resolved[key] = ResolvedParts(dict(parts), dict(sources), [])
     return ResolvedParts(parts, sources, errors)
 
 

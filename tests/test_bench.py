@@ -97,3 +97,14 @@ def test_the_peer_check_jsonschema(results: dict) -> None:
     assert all(_positive(peer["single"][k]["median_s"]) for k in KINDS)
     assert peer["batch"]["designs"] == results["batch"]["designs"]
     assert _positive(peer["batch"]["designs_per_s"])
+
+
+def test_where_the_time_goes(results: dict) -> None:
+    # Each stage of the lint was timed for every kind of design, and they add up to the lint.
+    for kind in KINDS:
+        k = results["stages"][kind]
+        assert k["designs"] >= 1 and _positive(k["floor_s"])
+        assert set(k["stages_s"]) == {"load", "validate", "libraries", "netlist", "model", "rules"}
+        assert all(_positive(v) for v in k["stages_s"].values())
+        assert abs(sum(k["stages_s"].values()) - k["lint_s"]) < 1e-9
+        assert abs(k["ratio"] - k["lint_s"] / k["floor_s"]) < 1e-9

@@ -569,3 +569,48 @@ def test_config_ignore_and_severity_reach_the_waiver_findings(repo: Path) -> Non
     assert after.severity.value == "error"
     (repo / "packwarden.toml").write_text('ignore = ["waiver-hygiene"]\n', encoding="utf-8")
     assert not [f for f in lint([str(path)]).all_findings() if f.rule == "waiver-hygiene"]
+
+
+def test_lint_file_reports_the_time_of_each_stage() -> None:
+    # The benchmark's per-stage table comes from here; the findings do not depend on timing.
+    path = REPO / "example_designs" / "ridgeline-tool-4s2p.yaml"
+    session = Session(registry=load_registry())
+    plain = lint_file(session, path, "pack.yaml")
+    timings: dict[str, float] = {"model": 1.0}  # added to, so one dict can sum a batch
+    timed = lint_file(session, path, "pack.yaml", timings)
+    assert list(timings) == ["model", "load", "validate", "libraries", "netlist", "rules"]
+    assert all(v > 0 for v in timings.values()) and timings["model"] > 1.0
+    assert [f.fingerprint for f in timed.findings] == [f.fingerprint for f in plain.findings]
+    assert timed.figures == plain.figures
+
+
+def test_a_design_that_fails_validation_times_only_the_stages_it_reached(tmp_path: Path) -> None:
+    path = tmp_path / "broken.yaml"
+    path.write_text("format: packwarden/1\ndesign: {name: x}\n", encoding="utf-8")
+    timings: dict[str, float] = {}
+    result = lint_file(Session(registry=load_registry()), path, "broken.yaml", timings)
+    assert result.errors and set(timings) == {"load", "validate"}
+
+
+def test_designs_of_one_folder_share_their_resolved_libraries(tmp_path: Path) -> None:
+    # A batch resolves a folder's libraries once; each design still gets its own dict of parts,
+    # and a design whose library is missing reports it at its own line, not from the cache.
+    from packwarden.library import LibraryCache, resolve_libraries
+    from packwarden.loader import load_file
+    (tmp_path / "packwarden.toml").write_text("", encoding="utf-8")
+    shutil.copytree(REPO / "example_designs" / "parts", tmp_path / "parts")
+    good = tmp_path / "a.yaml"
+    good.write_text(EXAMPLE, encoding="utf-8")
+    missing = tmp_path / "b.yaml"
+    missing.write_text(EXAMPLE.replace("libraries: [parts/orchard-parts.yaml]",
+                                       "\nlibraries: [parts/nowhere.yaml]"), encoding="utf-8")
+    cache = LibraryCache()
+    first = resolve_libraries(load_file(good), ["parts/orchard-parts.yaml"], good, cache, tmp_path)
+    first.parts.clear()  # the caller may do what it likes with its copy
+    again = resolve_libraries(load_file(good), ["parts/orchard-parts.yaml"], good, cache, tmp_path)
+    assert not again.errors and "OR-FET-D20" in again.parts and len(cache.resolved) == 1
+    doc = load_file(missing, "b.yaml")
+    for _ in range(2):
+        res = resolve_libraries(doc, ["parts/nowhere.yaml"], missing, cache, tmp_path)
+        assert [str(e).split(": ", 1)[0] for e in res.errors] == ["b.yaml:7:13"]  # one line lower than in a.yaml
+    assert len(cache.resolved) == 1
