@@ -18,6 +18,8 @@ components. Then, in one run:
   process) and, as the peer a user might reach for, schema-only validation with the
   general-purpose ``check-jsonschema`` command (one file per process, and the whole batch);
 * the Monte Carlo yield run, 100 000 samples;
+* the start-up floor: processes that only start the interpreter, import the libraries the
+  linter is built on (pydantic, typer, pyyaml), and build the schema's validators;
 * where the time goes: per kind of design, each stage of the lint (load, validate, libraries,
   netlist, model, rules) beside the floor, in process.
 
@@ -415,6 +417,28 @@ def peer_batch(cmd: list[str], files: list[Path], env: dict, cores: int) -> dict
 
 # --- measuring in process --------------------------------------------------------------------
 
+#: What every ``packwarden check`` process must do before it reads a design, each step including
+#: the ones before: start the interpreter; import the libraries the design card asks for
+#: (pydantic, typer, pyyaml); build the validators of the design and part-library schema.
+STARTUP_STEPS = {
+    "interpreter": "pass",
+    "libraries": "import gc; gc.disable(); import typer, yaml; from pydantic import BaseModel",
+    "schema": "import gc; gc.disable(); import typer, yaml; from pydantic import BaseModel; "
+              "from packwarden.schema import Design, PartLibrary; "
+              "Design.model_rebuild(); PartLibrary.model_rebuild()",
+}
+
+
+def startup_floor(runs: int, env: dict) -> dict:
+    """Median wall time of a process doing only each step of :data:`STARTUP_STEPS`, taking
+    turns so a machine that changes speed during the run weighs on every step alike."""
+    times: dict[str, list[float]] = {step: [] for step in STARTUP_STEPS}
+    for _ in range(runs):
+        for step, code in STARTUP_STEPS.items():
+            times[step].append(timed([sys.executable, "-c", code], env, ok=(0,)))
+    return {step: _stats(t) for step, t in times.items()}
+
+
 def compose_floor(files: list[Path], runs: int) -> dict:
     """libyaml's parse alone: read each file and compose its node tree, on one core."""
     import yaml
@@ -547,10 +571,12 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
             rows.append((f"file lint faster than peer ({kind})",
                          f"{c['cached']['median_s']:.3f} s vs check-jsonschema "
                          f"{p['median_s']:.3f} s", verdict(c["cached"]["median_s"] < p["median_s"])))
+    floor_schema = res["startup_floor"]["schema"]["median_s"]
     for kind, c in res["cold"].items():
         rows.append((f"cold single-file lint < 0.3 s ({kind})",
                      f"{c['cached']['median_s']:.3f} s cached bytecode "
-                     f"({c['uncached']['median_s']:.3f} s without any cache)",
+                     f"({c['uncached']['median_s']:.3f} s without any cache; start-up floor "
+                     f"{floor_schema:.3f} s)",
                      verdict(c["cached"]["median_s"] < TARGET_COLD)))
     s = res["scaling"]
     worst = s["worst_decade_ratio"]
@@ -584,6 +610,8 @@ def print_report(res: dict) -> None:
               f"   ({c['components']} components; no cache {c['uncached']['median_s']:.3f} s)")
     for kind, p in res.get("peer", {}).get("single", {}).items():
         print(f"{'check-jsonschema, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
+    for step, t in res["startup_floor"].items():
+        print(f"{'start-up floor: ' + step + ' (median)':<44} {t['median_s']:>12.3f} s")
     for kind, f in res["floor"]["single"].items():
         print(f"{'libyaml compose, ' + kind:<44} {f * 1e3:>11.3f} ms")
     b = res["batch"]
@@ -699,6 +727,9 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
         shutil.rmtree(nocache, ignore_errors=True)
         if peer:
             res["peer"]["single"][kind] = _stats(peer_times)
+
+    print("start-up floor: the interpreter, the libraries, the schema ...", flush=True)
+    res["startup_floor"] = startup_floor(cfg["cold_runs"], env)
 
     print("floor: libyaml compose ...", flush=True)
     res["floor"] = {"single": {}}

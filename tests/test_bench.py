@@ -108,3 +108,10 @@ def test_where_the_time_goes(results: dict) -> None:
         assert all(_positive(v) for v in k["stages_s"].values())
         assert abs(sum(k["stages_s"].values()) - k["lint_s"]) < 1e-9
         assert abs(k["ratio"] - k["lint_s"] / k["floor_s"]) < 1e-9
+
+
+def test_the_start_up_floor(results: dict) -> None:
+    # Each step of what every check process does before it reads a design was timed.
+    floor = results["startup_floor"]
+    assert list(floor) == ["interpreter", "libraries", "schema"]
+    assert all(_positive(step["median_s"]) and step["runs"] >= 1 for step in floor.values())
