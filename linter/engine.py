@@ -200,6 +200,9 @@ class DesignResult:
     #: that list passing checks (JUnit).
     checked: list[str] = field(default_factory=list)
     model: Any = None
+    #: Each rule's options as this design was linted with them (its folder's config), by rule id:
+    #: the review report draws the limits the rules judged by.
+    options: dict[str, Any] = field(default_factory=dict)
 
 
 @dataclass
@@ -433,6 +436,7 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
         return pos.line, pos.column
 
     design_id = design_id or Path(result.file).as_posix()
+    result.options = options
     findings: list[Finding] = []
     broken_netlist = bool(netlist.problems)
     for rid in sorted(session.registry.rules):

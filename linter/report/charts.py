@@ -222,14 +222,31 @@ TITLES = {"ladder": "Voltage ladder (per cell)", "trip": "Trip-current window",
           "tj": "Junction temperature against ambient"}
 
 
-def charts_for(model: Any) -> list[Chart]:
+@dataclass(frozen=True)
+class Limits:
+    """The project's settings that draw lines on the charts, as the rules that judge by them
+    read them: the fuse derating of ``secondary-protection`` and the trace rise of
+    ``conductor-capacity``. A chart that drew its own would disagree with the findings."""
+
+    fuse_derating: float = CONTINUOUS_DERATING
+    trace_rise: float = TRACE_RISE
+
+    @classmethod
+    def of(cls, options: dict) -> "Limits":
+        fuse, trace = options.get("secondary-protection"), options.get("conductor-capacity")
+        return cls(getattr(fuse, "derating", CONTINUOUS_DERATING),
+                   getattr(trace, "delta_t", TRACE_RISE))
+
+
+def charts_for(model: Any, limits: Limits = Limits()) -> list[Chart]:
     """The three charts of a design. A chart the design lacks the parts for says why instead.
 
     Each is drawn on its own: a model figure that fails (the engine has reported it already)
     costs the chart that needs it, never the report.
     """
     out = []
-    for cid, build in (("ladder", voltage_ladder), ("trip", trip_window), ("tj", junction_temperature)):
+    for cid, build in (("ladder", voltage_ladder), ("trip", lambda m: trip_window(m, limits)),
+                       ("tj", junction_temperature)):
         try:
             out.append(build(model))
         except Exception as exc:
@@ -465,7 +482,7 @@ def _window_text(low: float, typ: float, high: float) -> str:
     return span if "–" not in span else f"{span}, typ {q(typ, 'A')}"
 
 
-def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
+def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | None, list[str]]:
     """Rows of the trip chart, the prospective short circuit row (kept apart: it may be off scale),
     and notes."""
     rows: list[Row] = []
@@ -513,8 +530,8 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
     for f in model.netlist.of_kind("fuse", "ptc", "wire", "trace"):
         part = f.part
         if f.kind == "fuse":
-            v = part.rated_current * CONTINUOUS_DERATING
-            rows.append(Row(f"{f.refdes} fuse derated, {CONTINUOUS_DERATING * 100:g} % of {q(part.rated_current, 'A')}",
+            v = part.rated_current * limits.fuse_derating
+            rows.append(Row(f"{f.refdes} fuse derated, {limits.fuse_derating * 100:g} % of {q(part.rated_current, 'A')}",
                             "rating", v, v, None, q(v, "A"), "r-rating"))
         elif f.kind == "ptc":
             rows.append(Row(f"{f.refdes} PTC hold current", "rating", part.hold_current, part.hold_current,
@@ -525,10 +542,10 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
         elif f.kind == "trace":
             thick = part.thickness if part.thickness is not None else oz_to_thickness(part.copper_weight)
             try:
-                cap = ipc2221_current(part.width, thick, TRACE_RISE, part.layer.value).current
+                cap = ipc2221_current(part.width, thick, limits.trace_rise, part.layer.value).current
             except ValueError:
                 continue
-            rows.append(Row(f"{f.refdes} trace, IPC-2221 at ΔT {TRACE_RISE:.0f} K", "rating", cap, cap,
+            rows.append(Row(f"{f.refdes} trace, IPC-2221 at ΔT {limits.trace_rise:g} K", "rating", cap, cap,
                             None, q(cap, "A"), "r-rating"))
     psc = model.prospective_short_circuit
     psc_row = None
@@ -537,13 +554,13 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
     return rows, psc_row, notes
 
 
-def trip_window(model: Any) -> Chart:
+def trip_window(model: Any, limits: Limits = Limits()) -> Chart:
     chart = Chart("trip", TITLES["trip"],
                   "Where the protector's over-current and short-circuit detections trip, over every "
                   "tolerance and corner, against the loads it must carry and the ratings of the parts "
                   "in the path. The shaded column is the over-current trip window: loads belong left "
                   "of it, ratings right of it.")
-    rows, psc, notes = trip_rows(model)
+    rows, psc, notes = trip_rows(model, limits)
     chart.notes.extend(notes)
     if not rows:
         chart.notes.append("nothing to plot: no trip window, load or rating is known")

@@ -19,7 +19,7 @@ from ..api import Severity
 from ..engine import DesignResult, RunResult
 from ..quantities import format_quantity
 from . import RenderOptions
-from .charts import Chart, charts_for, span_text
+from .charts import Chart, Limits, charts_for, span_text
 from .text import CAUTION
 
 #: The report's cautions: the text formatter's, then what a reader of a review report needs to hear.
@@ -147,7 +147,7 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
         internal=[f"internal error in '{i.rule}': {i.message}" for i in d.internal],
         figures=_figures(d.figures),
         conditions=_safely(_conditions, model) if model is not None else [],
-        charts=charts_for(model) if model is not None and not d.errors else [])
+        charts=charts_for(model, Limits.of(d.options)) if model is not None and not d.errors else [])
     if model is not None:
         view.assumptions = _safely(_assumptions, model)
     return view

@@ -514,3 +514,20 @@ def test_output_does_not_depend_on_hash_seed() -> None:
                                    env=env, capture_output=True, check=True).stdout)
     assert outs[0] == outs[1] and len(outs[0]) > 10_000
     assert not re.search(rb"20\d\d-\d\d-\d\d", outs[0])  # no date stamped in
+
+
+def test_the_trip_chart_draws_the_limits_the_project_set(tmp_path: Path) -> None:
+    # A project that derates fuses to 60 % and lets traces rise 20 K sees those lines on the
+    # chart, as the findings judge by them; the defaults (75 %, 10 K) would disagree with them.
+    import shutil
+    shutil.copytree(REPO / "example_designs", tmp_path / "designs")
+    (tmp_path / "designs" / "packwarden.toml").write_text(
+        "[rules.secondary-protection]\nderating = 0.6\n\n"
+        "[rules.conductor-capacity]\ndelta_t = '20 K'\n", encoding="utf-8")
+    narrow = tmp_path / "designs" / "flawed" / "narrow-trace.yaml"
+    labels = texts(charts(report(narrow))["trip"])
+    assert "F1 fuse derated, 60 % of 12 A" in labels and "7.2 A" in labels  # 0.6 × 12 A
+    assert any(t.startswith("T1 trace, IPC-2221 at ΔT 20 K") for t in labels), labels
+    default = texts(charts(report(REPO / "example_designs" / "flawed" / "narrow-trace.yaml"))["trip"])
+    assert "F1 fuse derated, 75 % of 12 A" in default
+    assert any(t.startswith("T1 trace, IPC-2221 at ΔT 10 K") for t in default), default
