@@ -116,23 +116,8 @@ def option_default(field: Any) -> str:
 
 def quantity_unit(field: Any) -> str | None:
     """The unit of a field declared as ``Q(unit)`` (schema.Q is cached: same parser, same unit)."""
-    from .schema import Q
-    from .quantities import UNITS
-    parsers = {}
-    for unit in UNITS:
-        try:
-            annotated = Q(unit)
-        except Exception:  # pragma: no cover - a unit Q cannot express
-            continue
-        for meta in getattr(annotated, "__metadata__", ()):
-            func = getattr(meta, "func", None)
-            if func is not None:
-                parsers[id(func)] = unit
-    for meta in field.metadata:
-        func = getattr(meta, "func", None)
-        if func is not None and id(func) in parsers:
-            return parsers[id(func)]
-    return None
+    q = _quantity_of(field.metadata)
+    return q[1] if q is not None and q[0] == "quantity" else None
 
 
 def _sentence(text: str) -> str:

@@ -44,7 +44,7 @@ from pydantic import BaseModel, Field, StrictFloat, StrictInt, StrictStr, WithJs
 from .api import Figure, Finding, RuleContext, Severity
 from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
-from .schema import PART_KINDS, Q, Strict, Tol, Toleranced, TolJsonSchema, _drop_titles
+from .schema import PART_KINDS, Q, QuantitySchema, Strict, Tol, Toleranced, TolJsonSchema, _drop_titles
 from .validate import validate
 
 POLICY_FORMAT = "packwarden-policy/1"
@@ -328,7 +328,7 @@ def _unit_table() -> dict[int, str]:
     for unit in UNITS:
         for ann in (Q(unit), Tol(unit)):
             for meta in get_args(ann)[1:]:
-                if isinstance(meta, (WithJsonSchema, TolJsonSchema)):
+                if isinstance(meta, (QuantitySchema, TolJsonSchema)):
                     out[id(meta)] = unit
     return out
 

@@ -19,6 +19,8 @@ from typing import Annotated, Any, Literal, Union
 from pydantic import (BaseModel, BeforeValidator, ConfigDict, Discriminator, Field, Tag,
                       WithJsonSchema, model_validator)
 
+from pydantic_core import core_schema
+
 from .quantities import UNITS, QuantityError, parse_quantity
 
 DESIGN_FORMAT = "packwarden/1"
@@ -65,12 +67,30 @@ def _parser(unit: str):
 @functools.cache
 def Q(unit: str) -> Any:  # noqa: N802 - reads like a type in field declarations
     """A float field given as text in ``unit``."""
-    spec = UNITS[unit]
-    return Annotated[float, BeforeValidator(_parser(unit)), WithJsonSchema({
-        "type": "string" if spec.prefixes or unit == "oz" else ["string", "number"],
-        "pattern": _unit_pattern(unit),
-        "description": f"{spec.name}, e.g. '{_example(unit)}'",
-    })]
+    return Annotated[float, QuantitySchema(unit)]
+
+
+class QuantitySchema:
+    """The schemas of a field in ``unit``: text parsed to a float in SI units, and its JSON
+    Schema (a string with the unit's pattern). Given to pydantic whole, so a model with many such
+    fields is built without working each one out from general annotations again."""
+
+    def __init__(self, unit: str) -> None:
+        self.unit = unit
+        #: the parser, named as pydantic's BeforeValidator names its function (docs.py and
+        #: policy.py tell quantity fields by it)
+        self.func = _parser(unit)
+        self.core = core_schema.no_info_before_validator_function(self.func,
+                                                                  core_schema.float_schema())
+
+    def __get_pydantic_core_schema__(self, source: Any, handler: Any) -> Any:
+        return self.core
+
+    def __get_pydantic_json_schema__(self, schema: Any, handler: Any) -> dict:
+        spec = UNITS[self.unit]
+        return {"type": "string" if spec.prefixes or self.unit == "oz" else ["string", "number"],
+                "pattern": _unit_pattern(self.unit),
+                "description": f"{spec.name}, e.g. '{_example(self.unit)}'"}
 
 
 def _example(unit: str) -> str:
