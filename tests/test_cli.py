@@ -85,3 +85,31 @@ def test_check_of_the_clean_example_exits_0() -> None:
     proc = run("check", "example_designs/orchard-probe.yaml")
     assert proc.returncode == 0, proc.stdout
     assert "1 design(s) linted, 0 could not be read; 0 error(s), 0 warning(s)" in proc.stdout
+
+
+def test_pydantic_plugins_in_the_environment_take_no_part(tmp_path: Path) -> None:
+    # A package registering a pydantic plugin would run inside the validation of every design.
+    # The command switches the hook off unless the user set PYDANTIC_DISABLE_PLUGINS themselves.
+    import os
+    site = tmp_path / "site"
+    (site / "spy_plugin-1.0.dist-info").mkdir(parents=True)
+    (site / "spy_plugin-1.0.dist-info" / "METADATA").write_text(
+        "Metadata-Version: 2.1\nName: spy-plugin\nVersion: 1.0\n", encoding="utf-8")
+    (site / "spy_plugin-1.0.dist-info" / "entry_points.txt").write_text(
+        "[pydantic]\nspy = spy_plugin:plugin\n", encoding="utf-8")
+    marker = tmp_path / "loaded"
+    (site / "spy_plugin.py").write_text(
+        f"from pathlib import Path\nPath({str(marker)!r}).write_text('yes')\n"
+        "class _Plugin:\n    def new_schema_validator(self, *args, **kwargs):\n"
+        "        return None, None, None\nplugin = _Plugin()\n", encoding="utf-8")
+    env = {k: v for k, v in os.environ.items() if k != "PYDANTIC_DISABLE_PLUGINS"}
+    env["PYTHONPATH"] = str(site)
+    design = str(REPO / "example_designs" / "orchard-probe.yaml")
+    proc = subprocess.run([_command(), "check", design], capture_output=True, text=True, env=env)
+    assert proc.returncode == 0, proc.stderr
+    assert not marker.exists()
+    # The user's own setting wins: an empty value enables every plugin, and the spy is loaded.
+    proc = subprocess.run([_command(), "check", design], capture_output=True, text=True,
+                          env={**env, "PYDANTIC_DISABLE_PLUGINS": ""})
+    assert proc.returncode == 0, proc.stderr
+    assert marker.read_text() == "yes"
