@@ -6,11 +6,13 @@ built-in rule needs something that is not here, team rules need it too and it be
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 from enum import Enum
 from typing import TYPE_CHECKING, Any, Callable, Iterable
 
 from pydantic import BaseModel, ConfigDict
+
+from .records import record
 
 if TYPE_CHECKING:  # pragma: no cover
     from .netlist import Netlist
@@ -27,7 +29,7 @@ class Severity(str, Enum):
         return {"info": 1, "warning": 2, "error": 3}[self.value]
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Figure:
     """A number a rule computed or compared, shown beside the finding so it can be checked."""
 
@@ -40,7 +42,7 @@ class Figure:
         return f"{self.name} = {format_quantity(self.value, self.unit)}"
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Location:
     file: str
     path: tuple = ()  # YAML path, e.g. ("components", "Q1", "part")
@@ -52,7 +54,7 @@ class Location:
         return ".".join(str(p) for p in self.path)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Finding:
     rule: str
     severity: Severity
@@ -85,7 +87,7 @@ class NoOptions(RuleOptions):
     pass
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Example:
     """A design fragment showing a rule's failing (``bad``) and passing (``good``) case."""
 
@@ -96,7 +98,7 @@ class Example:
 CheckFn = Callable[["RuleContext", Any], Iterable[Finding]]
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Rule:
     id: str
     summary: str
@@ -130,7 +132,7 @@ def _dedent(text: str) -> str:
     return inspect.cleandoc(text)
 
 
-@dataclass
+@record
 class RuleContext:
     """What a rule sees: the validated design, its netlist, and the model's figures."""
 

@@ -27,13 +27,14 @@ import os
 import subprocess
 import tempfile
 from collections import Counter
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 from pathlib import Path
 from typing import Any, Iterable
 
 from . import __version__
 from .api import Finding, Severity
 from .loader import InputError
+from .records import record
 
 BASELINE_FORMAT = "packwarden-baseline/1"
 
@@ -42,7 +43,7 @@ BASELINE_FORMAT = "packwarden-baseline/1"
 REVISION_SUFFIXES = (".yaml", ".yml", ".toml", ".json")
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Entry:
     """A finding as a baseline records it: enough to match it and to report it once it is fixed."""
 
@@ -62,7 +63,7 @@ class Entry:
                 "element": self.element, "message": self.message}
 
 
-@dataclass
+@record
 class Comparison:
     """The outcome of comparing a run with an earlier set of findings."""
 

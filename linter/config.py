@@ -19,7 +19,7 @@ from __future__ import annotations
 import difflib
 import re
 import sys
-from dataclasses import dataclass, field
+from dataclasses import field
 from pathlib import Path
 from typing import Any
 
@@ -27,6 +27,7 @@ from pydantic import ValidationError
 
 from .api import Rule, RuleOptions, Severity
 from .loader import InputError
+from .records import record
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -37,7 +38,7 @@ KNOWN_KEYS = ("select", "ignore", "fail_on", "severity", "rules", "rule_paths", 
               "require_plugins")
 
 
-@dataclass
+@record
 class Config:
     file: str | None = None
     folder: Path | None = None

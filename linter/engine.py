@@ -10,7 +10,7 @@ import importlib.util
 import os
 import sys
 import time
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 from pathlib import Path
 from typing import Any, Callable, Iterable
 
@@ -21,13 +21,14 @@ from .loader import Document, InputError, load_file
 from .netlist import Netlist, build_netlist
 from .schema import Design
 from .validate import validate
+from .records import record
 
 ENTRY_POINT_GROUP = "packwarden.rules"
 
 
 # --- registry -----------------------------------------------------------------------------------
 
-@dataclass
+@record
 class Registry:
     rules: dict[str, Rule] = field(default_factory=dict)
     #: Plugins that failed to load: (name, message). Reported; the rest still run.
@@ -177,14 +178,14 @@ def _config_required(cfg: Config | None) -> list[str]:
 
 # --- results ------------------------------------------------------------------------------------
 
-@dataclass
+@record
 class InternalError:
     rule: str
     file: str
     message: str
 
 
-@dataclass
+@record
 class DesignResult:
     file: str
     name: str | None = None
@@ -205,7 +206,7 @@ class DesignResult:
     options: dict[str, Any] = field(default_factory=dict)
 
 
-@dataclass
+@record
 class RunResult:
     designs: list[DesignResult] = field(default_factory=list)
     errors: list[InputError] = field(default_factory=list)  # errors outside any design (config)
@@ -267,7 +268,7 @@ def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> li
 
 # --- running ------------------------------------------------------------------------------------
 
-@dataclass
+@record
 class Session:
     """State shared across the designs of one run: libraries, configs and the registry."""
 

@@ -3,13 +3,14 @@
 from __future__ import annotations
 
 import os
-from dataclasses import dataclass, field
+from dataclasses import field
 from pathlib import Path
 from typing import Any
 
 from .loader import Document, InputError, load_file
 from .schema import PartLibrary
 from .validate import validate
+from .records import record
 
 ROOT_MARKERS = (".git", "pyproject.toml", "packwarden.toml")
 
@@ -31,7 +32,7 @@ def shown_path(path: Path) -> str:
         return str(path)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class PartSource:
     """Where a part was defined, for messages."""
 
@@ -40,7 +41,7 @@ class PartSource:
     column: int
 
 
-@dataclass
+@record
 class LibraryCache:
     """Parsed libraries of a run, keyed by resolved path: each file is read and validated once."""
 
@@ -64,7 +65,7 @@ class LibraryCache:
         return self.loaded[key]
 
 
-@dataclass
+@record
 class ResolvedParts:
     parts: dict[str, Any]
     sources: dict[str, PartSource]

@@ -18,10 +18,12 @@ from __future__ import annotations
 
 import gc
 import re
-from dataclasses import dataclass, field
+from dataclasses import field
 from pathlib import Path
 
 import yaml
+
+from .records import record
 
 try:  # libyaml's composer is several times faster; pyyaml >= 6.0.4 ships it in wheels
     from yaml import CSafeLoader as _Loader
@@ -40,7 +42,7 @@ _NONFINITE = re.compile(r"^[-+]?\.(inf|Inf|INF)$|^\.(nan|NaN|NAN)$")
 
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Position:
     line: int  # 1-based
     column: int  # 1-based
@@ -69,7 +71,7 @@ def _one_line(text: str) -> str:
     return "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
 
 
-@dataclass
+@record
 class Document:
     """A loaded YAML file: plain data plus where each value sits."""
 

@@ -8,10 +8,11 @@ typo does not hide every other finding.
 from __future__ import annotations
 
 import difflib
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Any
 
 from .schema import INLINE_KINDS, PART_KINDS, Design, PartRef
+from .records import record
 
 TWO_TERMINAL = ("1", "2")
 
@@ -52,13 +53,13 @@ def pin_names(kind: str, part: Any) -> tuple[tuple[str, ...], tuple[str, ...]]:
     return required, optional
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class PinRef:
     component: str
     pin: str
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Problem:
     """A netlist mistake found while resolving; the integrity rules turn these into findings."""
 
@@ -69,7 +70,7 @@ class Problem:
     hint: str | None = None
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Component:
     refdes: str
     kind: str | None  # None when the part could not be found
@@ -82,7 +83,7 @@ class Component:
         return self.pins.get(pin)
 
 
-@dataclass
+@record
 class Netlist:
     components: dict[str, Component]
     nets: dict[str, list[PinRef]]

@@ -35,7 +35,6 @@ import difflib
 import math
 import re
 import types
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origin
 
@@ -46,6 +45,7 @@ from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
 from .schema import PART_KINDS, Q, QuantitySchema, Strict, Tol, Toleranced, TolJsonSchema, _drop_titles
 from .validate import validate
+from .records import record
 
 POLICY_FORMAT = "packwarden-policy/1"
 RULE_PREFIX = "policy/"
@@ -142,7 +142,7 @@ def policy_json_schema() -> dict:
 
 # --- the checked policy -------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Limit:
     id: str
     severity: Severity
@@ -166,7 +166,7 @@ class Limit:
                 and (not self.names or part_name in self.names))
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Policy:
     file: str
     limits: tuple[Limit, ...]

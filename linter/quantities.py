@@ -16,14 +16,15 @@ from __future__ import annotations
 import math
 import re
 import unicodedata
-from dataclasses import dataclass
+
+from .records import record
 
 
 class QuantityError(ValueError):
     """A value that is not an acceptable engineering quantity for its field."""
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Unit:
     """A unit a field accepts: its canonical symbol, accepted spellings and a human name."""
 

@@ -12,9 +12,10 @@ installation (a zip, a wheel, an editable checkout) without locating data files.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
 from pathlib import Path
 from string import Template
+
+from .records import record
 
 NAME = re.compile(r"^[a-z][a-z0-9]*(-[a-z0-9]+)*$")
 MAX_NAME = 60
@@ -24,7 +25,7 @@ class ScaffoldError(Exception):
     """The package cannot be made: a bad name, or its folder is already there."""
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Names:
     rule_id: str  # tallgrass-trip-limit
     distribution: str  # packwarden-tallgrass-trip-limit

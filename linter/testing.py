@@ -35,7 +35,7 @@ a case means the same in every checkout. One parametrized test runs them all::
 from __future__ import annotations
 
 import difflib
-from dataclasses import dataclass, field
+from dataclasses import field
 from functools import lru_cache
 from pathlib import Path
 from typing import Any, Iterable
@@ -47,6 +47,7 @@ from .config import Config
 from .engine import Registry, RunResult, Session, lint, lint_file, load_registry
 from .library import shown_path
 from .loader import Document, InputError, load_file
+from .records import record
 
 __all__ = ["Case", "Expected", "CaseError", "load_cases", "run_case", "check_case", "cases_in"]
 
@@ -63,7 +64,7 @@ class CaseError(Exception):
     """
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Expected:
     """One finding a case expects; a field left as ``None`` is not compared."""
 
@@ -95,7 +96,7 @@ class Expected:
         return ", ".join(parts) or "any finding"
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Case:
     rule: str
     name: str

@@ -12,12 +12,12 @@ import difflib
 import math
 import re
 import types
-from dataclasses import dataclass
 from typing import Annotated, Any, Union, get_args, get_origin
 
 from pydantic import BaseModel, ValidationError
 
 from .loader import Document, InputError
+from .records import record
 
 
 def _vocabulary() -> list[str]:
@@ -32,7 +32,7 @@ def _vocabulary() -> list[str]:
 _VOCAB: list[str] | None = None
 
 
-@dataclass
+@record
 class _Problem:
     error: InputError
     kind: str

@@ -13,16 +13,17 @@ table gives a range, the value picked and the reason are beside it. Voltages are
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from types import MappingProxyType
 from typing import Mapping
+
+from ..records import record
 
 __all__ = ["CellWindow", "DEFAULT_WINDOWS", "CHEMISTRIES", "cell_window"]
 
 _VOLTAGE_FIELDS = ("charge", "nominal", "cutoff", "overcharge_limit", "lower_limit")
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class CellWindow:
     """Voltage window of one chemistry, per cell, in volts.
 

@@ -9,8 +9,9 @@ is the number reviewers compare against the standard's chart.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Literal
+
+from ..records import record
 
 __all__ = [
     "RESISTIVITY_20C", "ALPHA_20C", "OZ_THICKNESS", "MIL",
@@ -81,7 +82,7 @@ def thickness_to_oz(thickness: float) -> float:
     return thickness / OZ_THICKNESS
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ConductorRating:
     """An IPC-2221 result: the conductor and the current it carries at a given temperature rise.
 

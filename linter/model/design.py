@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import heapq
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 from functools import cached_property
 from typing import Any
 
@@ -19,6 +19,7 @@ from . import copper, thermal
 from .cells import cell_window
 from .network import Network, NetworkError, Switch
 from .rdson import rds_on
+from ..records import record
 
 # A load placed across the pack terminals to excite the path in a solve; the network is linear
 # with every switch on, so any value gives the same ratios [derived].
@@ -37,7 +38,7 @@ _THERMAL_ITERATIONS = 200
 _THERMAL_TOLERANCE = 0.01  # kelvin
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Span:
     """A worst-case range: lowest, typical and highest value of one quantity."""
 
@@ -53,7 +54,7 @@ class Span:
         return Span(self.low * k, self.typ * k, self.high * k)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class CellLimits:
     """Per-cell voltage window, data sheet first, chemistry defaults where it is silent."""
 
@@ -67,7 +68,7 @@ class CellLimits:
     assumptions: tuple[str, ...] = ()
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class CellStack:
     cells: tuple[Component, ...]
     series: int
@@ -81,7 +82,7 @@ class CellStack:
         return self.cells[0].part
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class SwitchChannel:
     """One FET channel in the power path."""
 
@@ -103,7 +104,7 @@ class SwitchChannel:
         return max(abs(v) for v in (t.min, t.typ, t.max) if v is not None)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class OperatingPoint:
     """The path carrying ``current`` with every switch on, at a thermal steady state."""
 
@@ -123,7 +124,7 @@ class OperatingPoint:
     assumptions: tuple[str, ...]
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class TripWindow:
     """Currents at which a detection trips, over every tolerance and corner."""
 
@@ -145,7 +146,7 @@ class TripWindow:
         return self.detect.typ / self.typ.sense_resistance
 
 
-@dataclass
+@record
 class ModelProblem:
     """Why a figure could not be computed; rules report it rather than guessing."""
 

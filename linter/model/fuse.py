@@ -12,9 +12,10 @@ Currents in amperes, times in seconds, I²t in A²s.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from enum import Enum
 from typing import Optional
+
+from ..records import record
 
 __all__ = [
     "Gate", "GateSet", "Melt", "MeltVerdict",
@@ -28,7 +29,7 @@ _MIN = 60.0
 _HOUR = 3600.0
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Gate:
     """At ``multiple`` × I_n the pre-arcing time lies in [t_min, t_max] seconds.
 
@@ -41,7 +42,7 @@ class Gate:
     t_max: float = INF
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class GateSet:
     """The gates of one fuse standard sheet, with the rated currents it covers and its source."""
 
@@ -95,7 +96,7 @@ class Melt(str, Enum):
     MELTS = "melts"          # surely melts
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class MeltVerdict:
     """The verdict, the multiple of I_n, and the pre-arcing time bounds it was judged against."""
 

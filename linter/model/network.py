@@ -23,10 +23,12 @@ from __future__ import annotations
 import heapq
 import math
 from collections import deque
-from dataclasses import dataclass, replace
+from dataclasses import replace
 from itertools import islice
 from types import MappingProxyType
 from typing import Iterable, Literal, Mapping, Union
+
+from ..records import record
 
 __all__ = [
     "NetworkError", "ConvergenceError",
@@ -107,7 +109,7 @@ def _check_finite(what: str, value: float, *, minimum: float | None = None) -> f
     return value
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Resistor:
     """A linear part of the path: trace, wire, shunt, fuse, connector, an on channel."""
 
@@ -117,7 +119,7 @@ class Resistor:
     ohms: float
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Source:
     """A cell or a charger: an EMF in series with its internal resistance.
 
@@ -140,7 +142,7 @@ class Source:
         return self.neg
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Diode:
     """Ideal-ish diode: open below ``v_forward``, ``v_forward`` plus ``r_on`` above it.
 
@@ -163,7 +165,7 @@ class Diode:
         return self.cathode
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class BodyDiode:
     """The diode a switch carries across its channel whether it is on or off."""
 
@@ -173,7 +175,7 @@ class BodyDiode:
     r_on: float = DEFAULT_DIODE_R_ON
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Switch:
     """A switch channel (one FET, one relay contact), optionally with a body diode across it.
 
@@ -194,7 +196,7 @@ Branch = Union[Resistor, Source, Diode, Switch]
 Via = Literal["resistor", "source", "diode", "channel", "body diode"]
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Hop:
     """One step of a conduction path: through ``branch`` from ``from_net`` to ``to_net``.
 
@@ -208,7 +210,7 @@ class Hop:
     via: Via
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ConductionPath:
     """A way current can get from ``src`` to ``dst``; empty ``hops`` when they are the same net."""
 
@@ -227,7 +229,7 @@ class ConductionPath:
         return (self.src,) + tuple(h.to_net for h in self.hops)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Solution:
     """Operating point of a network.
 

@@ -11,11 +11,11 @@ from __future__ import annotations
 
 import math
 from bisect import bisect_left
-from dataclasses import dataclass
 from types import MappingProxyType
 from typing import Iterable, Literal, Mapping, Sequence, Union
 
 from .cells import DEFAULT_WINDOWS
+from ..records import record
 
 __all__ = [
     "OcvTable", "OCV_TABLES", "HOURS_PER_MONTH", "ocv_table", "soc_at_voltage", "voltage_at_soc",
@@ -50,7 +50,7 @@ def _check_soc(soc: float, name: str) -> None:
         raise ValueError(f"{name} must be a fraction 0..1, got {soc!r} (percent given?)")
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class OcvTable:
     """(SoC fraction, volts) points, both strictly increasing, with where they come from."""
 
@@ -158,7 +158,7 @@ def _interp(xs: list[float], ys: list[float], x: float, strict: bool, what: str,
     return y0 + (y1 - y0) * (x - x0) / (x1 - x0)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ShelfLife:
     """Months from ``start_soc`` to ``end_soc``, and the initial loss rate in Ah per month."""
 

@@ -11,8 +11,9 @@ Resistances in ohms, voltages in volts, temperatures in °C.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Iterable, Literal, Optional, Sequence
+
+from ..records import record
 
 __all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor"]
 
@@ -24,7 +25,7 @@ Point = tuple[float, Optional[float], Optional[float]]
 TABLE_TEMP = 25.0
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class RdsOnResult:
     """On-resistance in ohms, what had to be assumed to get it, and whether data was stretched.
 
@@ -38,7 +39,7 @@ class RdsOnResult:
     extrapolated: bool
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class _Filled:
     vgs: float
     typ: float

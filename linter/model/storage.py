@@ -21,12 +21,12 @@ months of 730 hours (:data:`packwarden.model.ocv.HOURS_PER_MONTH`).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from .network import Network, NetworkError
 from .ocv import HOURS_PER_MONTH, OcvTable, ocv_table, self_discharge_at, shelf_life, \
     soc_at_voltage, voltage_at_soc
+from ..records import record
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -48,7 +48,7 @@ _NOISE = 1e-9
 _CHANNEL_ON = 1e-3
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Drain:
     """One thing that draws charge from the worst level of the stack, in amperes."""
 
@@ -62,7 +62,7 @@ class Drain:
         return f"{self.what}{names} {format_quantity(self.current, 'A')}"
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class StoragePhase:
     """From ``start_soc`` to ``end_soc`` at a constant loss: the level that gets there first."""
 
@@ -89,7 +89,7 @@ class StoragePhase:
         return self.end_soc + months * self.loss_ah_per_month / self.capacity_ah
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class StorageBudget:
     soc: float
     duration: float  # months

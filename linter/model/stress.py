@@ -11,10 +11,10 @@ Units are SI: amperes, ohms, volts, watts, joules, seconds, °C.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from . import thermal
+from ..records import record
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel, OperatingPoint, SwitchChannel
@@ -68,7 +68,7 @@ def _cell_r(m: "DesignModel", corner: str) -> float:
     r = m.stack.part.internal_resistance
     return r.high if corner == "max" else spread_low(r) if corner == "min" else r.nominal
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class HeatCase:
     """Junction temperature of one switch package in one case.
 
@@ -253,7 +253,7 @@ def pulse_i2t(current: float, duration: float) -> float:
     return current * current * duration
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ShortCircuitPulse:
     """A hard short across the pack terminals, until the protection turns it off.
 
@@ -291,7 +291,7 @@ def short_circuit_pulse(m: "DesignModel") -> ShortCircuitPulse | None:
 
 # --- turn-off spike -----------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class TurnOffSpike:
     """The voltage a discharge switch sees when it interrupts a short through wiring inductance.
 
@@ -343,7 +343,7 @@ def turn_off_spike(m: "DesignModel", ch: "SwitchChannel") -> TurnOffSpike | None
 
 # --- conductors -------------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ConductorLoad:
     """The highest current a trace or wire carries while the protection permits it.
 
@@ -434,7 +434,7 @@ def cold_resistance_factor(temp: float, factor: float, at: float) -> float:
     return factor ** ((25.0 - temp) / (25.0 - at))
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Rebound:
     """The jump of the cell voltage when a protection cuts the current, against the release
     hysteresis of that protection.
@@ -492,7 +492,7 @@ def release_rebounds(m: "DesignModel", cold_factor: float, cold_at: float) -> li
 
 # --- heat of automatic retries ------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class RetryHeat:
     """A fault that persists while the protector retries: one pulse per retry period.
 

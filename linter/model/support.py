@@ -20,12 +20,12 @@ Volts, amperes, ohms, farads, watts.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from ..netlist import Component
 from .design import _SIGNAL_OHMS as SIGNAL_OHMS  # one threshold for "carries the pack current"
 from .network import Network, NetworkError
+from ..records import record
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -49,7 +49,7 @@ _CHANNEL_ON = 1e-3
 _NOISE = 1e-12
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class SupplyFilter:
     resistor: Component | None
     capacitor: Component | None
@@ -61,7 +61,7 @@ class SupplyFilter:
     shift: float | None
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class SenseResistor:
     resistor: Component | None
     terminal: str | None  # the pack terminal net it goes to
@@ -73,7 +73,7 @@ class SenseResistor:
     power: float | None
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Stress:
     """The worst value one part sees, the case it is seen in, and the part's rating."""
 

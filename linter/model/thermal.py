@@ -10,14 +10,15 @@ R_θJA in K/W.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Callable
+
+from ..records import record
 
 __all__ = ["ThermalResult", "junction_temperature", "steady_junction_temperature", "max_power",
            "conduction_power", "accelerated_step"]
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class ThermalResult:
     """Outcome of the fixed-point search.
 

@@ -27,13 +27,14 @@ numpy is imported by this module only; the linter itself never needs it.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import TYPE_CHECKING, Literal, Sequence
 
 import numpy as np
 
 from ..schema import Toleranced
 from .design import spread_low
+from ..records import record
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -63,7 +64,7 @@ class YieldError(ValueError):
 
 # --- drawing ---------------------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Parameter:
     """One toleranced quantity: its name in the report and its low / typical / high values."""
 
@@ -170,7 +171,7 @@ def rds_on_batch(points: Sequence[tuple[float, float | None, float | None]], vgs
 
 # --- the linear path --------------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Tree:
     """A branch of the reduced path: one part, or parts in series or in parallel."""
 
@@ -228,7 +229,7 @@ def _distribute(tree: Tree, current: np.ndarray, memo: dict, out: dict,
                 _distribute(c, current * memo[id(c)] / total, memo, out, marks)
 
 
-@dataclass
+@record
 class LinearPath:
     """The pack path as a conductance network, solved for many builds at once.
 
@@ -386,7 +387,7 @@ class LinearPath:
 
 # --- the run ------------------------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class YieldCheck:
     rule: str
     check: str
@@ -403,7 +404,7 @@ class YieldCheck:
         return wilson_interval(self.failures, self.samples)
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class YieldResult:
     samples: int
     seed: int

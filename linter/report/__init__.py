@@ -7,9 +7,10 @@ from __future__ import annotations
 
 import importlib
 import importlib.util
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Callable
+
+from ..records import record
 
 FORMATS = {
     "text": "text",
@@ -25,7 +26,7 @@ class FormatUnavailable(LookupError):
     """A format named in :data:`FORMATS` whose module is not part of this installation."""
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class RenderOptions:
     color: bool = False
     quiet: bool = False

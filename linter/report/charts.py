@@ -12,7 +12,7 @@ on dictionary order that the input does not fix.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Any, Sequence
 
 from markupsafe import Markup, escape
@@ -20,6 +20,7 @@ from markupsafe import Markup, escape
 from ..model.copper import ipc2221_current, oz_to_thickness
 from ..model.fuse import CONTINUOUS_DERATING
 from ..quantities import format_quantity
+from ..records import record
 
 #: Commercial junction-temperature derating line [practice: REFERENCES.md "MOSFETs": T_J ≤ 125 °C].
 TJ_DERATED = 125.0
@@ -202,7 +203,7 @@ def tick_text(v: float, unit: str = "") -> str:
 
 # --- what a chart is --------------------------------------------------------------------------
 
-@dataclass
+@record
 class Chart:
     """One chart of the report: the SVG, the values it plots, and notes about what is left out."""
 
@@ -222,7 +223,7 @@ TITLES = {"ladder": "Voltage ladder (per cell)", "trip": "Trip-current window",
           "tj": "Junction temperature against ambient"}
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Limits:
     """The project's settings that draw lines on the charts, as the rules that judge by them
     read them: the fuse derating of ``secondary-protection`` and the trace rise of
@@ -256,7 +257,7 @@ def charts_for(model: Any, limits: Limits = Limits()) -> list[Chart]:
 
 # --- 1. the voltage ladder --------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Band:
     column: str
     label: str
@@ -266,7 +267,7 @@ class Band:
     kind: str  # css class
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Level:
     label: str
     value: float
@@ -431,7 +432,7 @@ def voltage_ladder(model: Any) -> Chart:
 
 # --- 2. the trip-current window ---------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Row:
     label: str
     kind: str  # "band" | "mark" | "rating"
@@ -633,7 +634,7 @@ def trip_window(model: Any, limits: Limits = Limits()) -> Chart:
 
 # --- 3. junction temperature against ambient --------------------------------------------------
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class Curve:
     packages: tuple[str, ...]  # packages whose junctions follow this curve (identical ones share)
     label: str

@@ -9,7 +9,7 @@ The output depends only on the run: rendering twice gives identical bytes.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Any
 
 from jinja2 import Environment, PackageLoader, StrictUndefined
@@ -21,6 +21,7 @@ from ..quantities import format_quantity
 from . import RenderOptions
 from .charts import Chart, Limits, charts_for, span_text
 from .text import CAUTION
+from ..records import record
 
 #: The report's cautions: the text formatter's, then what a reader of a review report needs to hear.
 CAUTIONS = (
@@ -54,7 +55,7 @@ _EXIT_MEANING = {0: "passes: nothing at or above the fail-on level",
                  2: "incomplete: some input could not be used"}
 
 
-@dataclass
+@record
 class FindingView:
     severity: str
     rule: str
@@ -68,7 +69,7 @@ class FindingView:
     waived: str | None
 
 
-@dataclass
+@record
 class DesignView:
     anchor: str
     file: str
