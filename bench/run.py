@@ -431,14 +431,12 @@ STARTUP_STEPS = {
 }
 
 
-def startup_floor(runs: int, env: dict) -> dict:
-    """Median wall time of a process doing only each step of :data:`STARTUP_STEPS`, taking
-    turns so a machine that changes speed during the run weighs on every step alike."""
-    times: dict[str, list[float]] = {step: [] for step in STARTUP_STEPS}
-    for _ in range(runs):
-        for step, code in STARTUP_STEPS.items():
-            times[step].append(timed([sys.executable, "-c", code], env, ok=(0,)))
-    return {step: _stats(t) for step, t in times.items()}
+def time_startup(env: dict, into: dict[str, list[float]]) -> None:
+    """One wall time per step of :data:`STARTUP_STEPS`, each a process of its own, added to
+    ``into``. Called between the cold lints of the single-cell design, so that a machine that
+    speeds up or slows down during the run weighs on the floor and the lint alike."""
+    for step, code in STARTUP_STEPS.items():
+        into.setdefault(step, []).append(timed([sys.executable, "-c", code], env, ok=(0,)))
 
 
 def compose_floor(files: list[Path], runs: int) -> dict:
@@ -704,7 +702,8 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
             timed(peer_args(peer) + [str(f)], env)
 
     import yaml
-    print("cold single-file lint, and the peer on the same file ...", flush=True)
+    print("cold single-file lint, the peer on the same file, the start-up floor ...", flush=True)
+    startup: dict[str, list[float]] = {}
     nocache = tmp / "no-pycache"
     res["cold"] = {}
     res["peer"] = {"available": peer is not None, "command": "check-jsonschema --schemafile "
@@ -720,6 +719,8 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
             lint_times.append(timed(pw + ["check", str(f)], env))
             if peer:
                 peer_times.append(timed(peer_args(peer) + [str(f)], env))
+            if kind == "single":
+                time_startup(env, startup)
         nocache.mkdir(exist_ok=True)
         res["cold"][kind] = {
             "file": f.name, "components": comps, "cached": _stats(lint_times),
@@ -730,8 +731,7 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
         if peer:
             res["peer"]["single"][kind] = _stats(peer_times)
 
-    print("start-up floor: the interpreter, the libraries, the schema ...", flush=True)
-    res["startup_floor"] = startup_floor(cfg["cold_runs"], env)
+    res["startup_floor"] = {step: _stats(t) for step, t in startup.items()}
 
     print("floor: libyaml compose ...", flush=True)
     res["floor"] = {"single": {}}
