@@ -295,10 +295,10 @@ def _extract(top: Path, commit: str, dest: Path) -> None:
         raise InputError(_shown(top), 1, 1, f"git ls-tree failed: "
                                             f"{listing.stderr.decode(errors='replace').strip()}")
     wanted: list[tuple[str, str, str]] = []  # (mode, blob, path)
-    for record in listing.stdout.split(b"\0"):
-        if not record:
+    for entry in listing.stdout.split(b"\0"):
+        if not entry:
             continue
-        meta, _, name = record.partition(b"\t")
+        meta, _, name = entry.partition(b"\t")
         mode, kind, blob = meta.decode().split()
         path = os.fsdecode(name)
         if kind != "blob" or not path.lower().endswith(REVISION_SUFFIXES):

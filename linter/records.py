@@ -30,7 +30,8 @@ def record(cls: T | None = None, /, *, frozen: bool = False) -> Any:
         c = dataclasses.dataclass(c, frozen=frozen, eq=False, repr=False)
         fields = dataclasses.fields(c)
         c.__record_compare__ = tuple(f.name for f in fields if f.compare)
-        c.__record_hash__ = tuple(f.name for f in fields if (f.compare if f.hash is None else f.hash))
+        c.__record_hash__ = tuple(f.name for f in fields
+                                  if (f.compare if f.hash is None else f.hash))
         c.__record_repr__ = tuple(f.name for f in fields if f.repr)
         if "__eq__" not in own:
             c.__eq__ = _eq

@@ -17,8 +17,7 @@ from enum import Enum
 from typing import Annotated, Any, Literal, Union
 
 from pydantic import (BaseModel, BeforeValidator, ConfigDict, Discriminator, Field, Tag,
-                      WithJsonSchema, model_validator)
-
+                      model_validator)
 from pydantic_core import core_schema
 
 from .quantities import UNITS, QuantityError, parse_quantity
@@ -30,7 +29,9 @@ PARTS_FORMAT = "packwarden-parts/1"
 class Strict(BaseModel):
     """Base for every model: unknown keys are errors, data is immutable once validated."""
 
-    model_config = ConfigDict(extra="forbid", frozen=True, str_strip_whitespace=True, defer_build=True)
+    # defer_build: each validator is built when first used, not at import (start-up time)
+    model_config = ConfigDict(extra="forbid", frozen=True, str_strip_whitespace=True,
+                              defer_build=True)
 
 
 # --- quantities -------------------------------------------------------------------------------

@@ -9,7 +9,6 @@ from __future__ import annotations
 
 import heapq
 import math
-from dataclasses import field
 from functools import cached_property
 from typing import Any
 
