@@ -694,7 +694,7 @@ class DesignModel:
             # secant (thermal.accelerated_step) gets there in fewer solves; it is kept at or
             # below tj_max, where the image of any point still tells the two cases apart.
             step = {p: min(thermal.accelerated_step(tj[p], new[p], previous.get(p)),
-                           max(new[p], packages[p].tj_max)) for p in packages}
+                           packages[p].tj_max) for p in packages}
             previous = {p: (tj[p], new[p] - tj[p]) for p in packages}
             tj = step
         else:

@@ -4,8 +4,8 @@ import pytest
 from hypothesis import given, strategies as st
 
 from packwarden.model.rdson import rds_on
-from packwarden.model.thermal import (conduction_power, junction_temperature, max_power,
-                                      steady_junction_temperature)
+from packwarden.model.thermal import (accelerated_step, conduction_power, junction_temperature,
+                                      max_power, steady_junction_temperature)
 
 MOHM = 1e-3
 
@@ -126,3 +126,34 @@ def test_bad_theta_raises():
         max_power(150.0, 25.0, 0.0)
     with pytest.raises(ValueError):
         steady_junction_temperature(25.0, 1.0, -5.0)
+
+
+# --- the accelerated fixed-point step --------------------------------------------------------
+
+@given(ambient=st.floats(0, 60), gain=st.floats(-3.0, 0.7), t0=st.floats(20, 120),
+       t1=st.floats(20, 120))
+def test_the_secant_lands_on_the_balance_of_a_linear_loss(ambient, gain, t0, t1) -> None:
+    # T -> T_A + gain * (T - 25): a loss linear in T, as I²·R with R linear in T (gain < 0 when
+    # the FETs sense the current, P = V²/R). Its fixed point solves T = T_A + gain (T - 25)
+    # [derived: algebra]; through two points of a straight residual the secant is exact.
+    def target(t: float) -> float:
+        return ambient + gain * (t - 25.0)
+    if abs(t1 - t0) < 1e-3:
+        return
+    root = (ambient - 25.0 * gain) / (1.0 - gain)
+    step = accelerated_step(t1, target(t1), (t0, target(t0) - t0))
+    assert step == pytest.approx(root, abs=1e-6)
+
+
+def test_without_a_usable_slope_the_plain_step_is_taken() -> None:
+    # First step, no change in T, a residual rising with T (gain above 1: no stable balance) or
+    # falling too slowly (gain 0.9): the plain, damped step t + damping * (target - t).
+    assert accelerated_step(50.0, 60.0, None) == 60.0
+    assert accelerated_step(50.0, 60.0, None, damping=0.5) == 55.0
+    assert accelerated_step(50.0, 60.0, (50.0, 3.0), damping=0.5) == 55.0
+    rising = accelerated_step(50.0, 60.0, (40.0, 5.0))  # residual 5 -> 10 as T rises
+    assert rising == 60.0
+    flat = accelerated_step(50.0, 60.0, (40.0, 11.0))  # slope -0.1: loop gain 0.9
+    assert flat == 60.0
+    steep = accelerated_step(50.0, 60.0, (40.0, 20.0))  # slope -1: secant to the root at 60
+    assert steep == pytest.approx(60.0)
