@@ -11,8 +11,9 @@ from packwarden import Example, Figure, RuleOptions, Severity, format_quantity a
 def check(ctx, options):
     """Trip current is the detection voltage over the sense resistance, which is usually the
     switch FETs' own on-resistance, or a shunt resistor between the protector's ground and sense
-    pins (the resistance is the path's transresistance, from a nodal solve, either way). Over detection tolerance, part spread, gate drive (cell
-    voltage) and ambient, with self-heating from the load, it spans a window. A load just below
+    pins (the resistance is the path's transresistance, from a nodal solve, either way). Over
+    detection tolerance, part spread, gate drive (cell voltage) and ambient, with self-heating
+    from the load, it spans a window. A load just below
     the trip is never cut off, so the window's maximum must stay within what every element carries
     continuously: the cells' discharge rating and each FET channel's id_max as the current divides.
     Its minimum must clear every load that lasts longer than the shortest over-current delay, else
