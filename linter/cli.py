@@ -294,8 +294,9 @@ def explain_text(r) -> str:
     fields = r.options.model_fields
     if fields:
         lines.append("Options ([tool.packwarden.rules." + r.id + "]):")
+        from .docs import option_default  # as the project's TOML takes it: "10 K", not 10.0
         for name, f in fields.items():
-            lines.append(f"  {name} = {f.default!r}  {f.description or ''}".rstrip())
+            lines.append(f"  {name} = {option_default(f)}  {f.description or ''}".rstrip())
         lines.append("")
     if r.example:
         lines += ["Fails:", _indent(r.example.bad), "Passes:", _indent(r.example.good)]

@@ -19,9 +19,10 @@ def check(ctx, options):
     pack terminals: the stack itself under load, a charger's open-circuit voltage against a
     depleted stack, a reversed charger in series with the stack, and — when the design gives
     ``pack.wiring_inductance`` — the stack plus the L·di/dt spike of turning off a short. Each must
-    stay within the FET's drain-source rating with derating. The gate sees the protector's drive, which must stay
-    within the gate rating with derating, and must exceed the gate threshold at the lowest cell
-    voltage the protector allows, or the FET is not fully on near the end of discharge."""
+    stay within the FET's drain-source rating with derating. The gate sees the protector's drive,
+    which must stay within the gate rating with derating, and must exceed the gate threshold at
+    the lowest cell voltage the protector allows, or the FET is not fully on near the end of
+    discharge."""
     m = ctx.model
     gd = m.gate_drive
     seen = set()

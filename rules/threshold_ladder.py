@@ -22,8 +22,8 @@ def check(ctx, options):
     limit; each release must lie on the safe side of its detection; over-discharge detection must
     stay above the cell's lower limit. The protector must be made for the pack's cell count and
     chemistry, and in a series stack each cell input (cell1 at the bottom ... cellN at the top)
-    must sense its own tap, since every threshold is per cell. Where a data sheet gives no limit, a documented per-chemistry default is used and
-    named in the finding."""
+    must sense its own tap, since every threshold is per cell. Where a data sheet gives no limit,
+    a documented per-chemistry default is used and named in the finding."""
     m = ctx.model
     p, limits, stack = m.protector, m.cell_limits, m.stack
     if p is None or limits is None or stack is None:

@@ -113,3 +113,13 @@ def test_pydantic_plugins_in_the_environment_take_no_part(tmp_path: Path) -> Non
                           env={**env, "PYDANTIC_DISABLE_PLUGINS": ""})
     assert proc.returncode == 0, proc.stderr
     assert marker.read_text() == "yes"
+
+
+def test_explain_shows_option_defaults_as_the_config_takes_them() -> None:
+    # A quantity option is written with its unit in the project's TOML ("25 mV"); a bare 0.025
+    # would be refused there for lack of one, so explain must not print it so.
+    proc = run("explain", "threshold-ladder")
+    assert proc.returncode == 0, proc.stderr
+    assert '  charge_margin = "25 mV"  ' in proc.stdout
+    proc = run("explain", "secondary-protection")
+    assert "  derating = 0.75  " in proc.stdout  # a plain fraction stays a plain number

@@ -44,6 +44,12 @@ def test_docs_rules_md_is_not_stale(builtins: list[Rule]) -> None:
         f"docs/rules.md is stale: {REGENERATE}"
 
 
+def test_every_rationale_wraps_within_100_columns(builtins: list[Rule]) -> None:
+    # `packwarden explain` prints the rationale as written: a long line reads badly in a terminal.
+    long = [(r.id, line) for r in builtins for line in r.rationale.splitlines() if len(line) > 100]
+    assert not long, long
+
+
 def test_every_builtin_rule_has_a_failing_and_a_passing_example(builtins: list[Rule]) -> None:
     assert missing_examples(builtins) == []
 
