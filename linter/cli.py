@@ -10,7 +10,9 @@ from typing import List, Optional
 
 import typer
 
+# Plain help, not typer's boxed one, which prints "<bool>" after every flag as if it took a value.
 app = typer.Typer(add_completion=False, no_args_is_help=True, pretty_exceptions_enable=False,
+                  rich_markup_mode=None,
                   help="Design-review linter for lithium-ion battery protection circuits.")
 
 
@@ -48,7 +50,8 @@ def _use_color(output: Optional[Path], fmt: str) -> bool:
 
 @app.command()
 def check(
-    paths: List[str] = typer.Argument(..., help="design files, or folders to search for designs"),
+    paths: List[str] = typer.Argument(..., metavar="PATH",
+                                      help="design files, or folders to search for designs"),
     format: Format = typer.Option(Format.text, "--format", "-f", help="output format"),
     output: Optional[Path] = typer.Option(None, "--output", "-o", help="write the report here"),
     fail_on: Optional[Level] = typer.Option(

@@ -123,3 +123,13 @@ def test_explain_shows_option_defaults_as_the_config_takes_them() -> None:
     assert '  charge_margin = "25 mV"  ' in proc.stdout
     proc = run("explain", "secondary-protection")
     assert "  derating = 0.75  " in proc.stdout  # a plain fraction stays a plain number
+
+
+def test_check_help_shows_flags_without_a_value() -> None:
+    # A flag such as --quiet takes no value; the help must not suggest one ("<bool>").
+    proc = run("check", "--help")
+    assert proc.returncode == 0, proc.stderr
+    usage = next(line for line in proc.stdout.splitlines() if line.startswith("Usage:"))
+    assert usage.startswith("Usage: packwarden check [OPTIONS]") and "PATH" in usage
+    quiet = next(line for line in proc.stdout.splitlines() if "--quiet" in line)
+    assert "-q" in quiet and "<bool>" not in quiet and "only findings that fail the run" in quiet
