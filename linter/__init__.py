@@ -12,9 +12,10 @@ __all__ = ["Example", "Figure", "Finding", "Location", "NoOptions", "Rule", "Rul
            "RuleOptions", "Severity", "rule", "format_quantity", "parse_quantity", "QuantityError",
            "Q", "Tol", "__version__"]
 
-# Where each public name lives. They are imported on first use (PEP 562), so that starting the
-# command (``packwarden.cli``) does not import pydantic before it has switched off the cycle
-# collector for start-up; ``from packwarden import rule`` works as it always did.
+# Where each public name lives. They are imported on first use (PEP 562), so that importing the
+# command (``packwarden.cli``) does not build the API's models and classes before ``cli.main``
+# has switched off the cycle collector for start-up; ``from packwarden import rule`` works as it
+# always did.
 _HOMES = {**dict.fromkeys(["Example", "Figure", "Finding", "Location", "NoOptions", "Rule",
                            "RuleContext", "RuleOptions", "Severity", "rule"], "api"),
           **dict.fromkeys(["QuantityError", "format_quantity", "parse_quantity"], "quantities"),
