@@ -16,7 +16,6 @@ built-in rule lacks an example, or when a key of the format lacks a description.
 from __future__ import annotations
 
 import datetime
-import functools
 import inspect
 import json
 import sys
@@ -26,6 +25,7 @@ from types import UnionType
 from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origin
 
 from .api import Rule
+from .schema import quantity_of as _quantity_of
 
 HEADER = ("<!-- Generated from the rule registry by `packwarden docs rules > docs/rules.md`; "
           "do not edit by hand. -->")
@@ -528,30 +528,6 @@ def _nested_models(tp: Any, metadata: Iterable[Any] = ()) -> list[tuple[type, st
     if isinstance(tp, type) and issubclass(tp, BaseModel):
         return [(tp, "")]
     return []
-
-
-@functools.cache
-def _quantity_funcs() -> dict[int, tuple[str, str]]:
-    """Validator function id -> ("quantity" | "toleranced", unit), for every unit of the format."""
-    from .quantities import UNITS
-    from .schema import Q, Tol
-    out: dict[int, tuple[str, str]] = {}
-    for unit in UNITS:
-        for what, annotated in (("quantity", Q(unit)), ("toleranced", Tol(unit))):
-            for meta in getattr(annotated, "__metadata__", ()):
-                func = getattr(meta, "func", None)
-                if func is not None:
-                    out[id(func)] = (what, unit)
-    return out
-
-
-def _quantity_of(metadata: Iterable[Any]) -> tuple[str, str] | None:
-    funcs = _quantity_funcs()
-    for meta in metadata:
-        func = getattr(meta, "func", None)
-        if func is not None and id(func) in funcs:
-            return funcs[id(func)]
-    return None
 
 
 def _type_text(tp: Any, shapes: _Shapes, metadata: Iterable[Any] = ()) -> str:

@@ -43,7 +43,7 @@ from pydantic import BaseModel, Field, StrictFloat, StrictInt, StrictStr, WithJs
 from .api import Figure, Finding, RuleContext, Severity
 from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
-from .schema import PART_KINDS, Q, QuantitySchema, Strict, Tol, Toleranced, TolJsonSchema, _drop_titles
+from .schema import PART_KINDS, Strict, Toleranced, _drop_titles, quantity_of
 from .validate import validate
 from .records import record
 
@@ -318,24 +318,6 @@ def parse_bound(value: Any, unit: str) -> float:
 
 # --- which parameters a part limit may name -----------------------------------------------------
 
-def _unit_table() -> dict[int, str]:
-    """Identity of each quantity field's schema marker -> its unit.
-
-    ``schema.Q`` and ``schema.Tol`` are cached, so every field declared ``Volts`` or ``Tol("V")``
-    carries the very same marker object: looking it up needs no parsing of descriptions.
-    """
-    out: dict[int, str] = {}
-    for unit in UNITS:
-        for ann in (Q(unit), Tol(unit)):
-            for meta in get_args(ann)[1:]:
-                if isinstance(meta, (QuantitySchema, TolJsonSchema)):
-                    out[id(meta)] = unit
-    return out
-
-
-_UNITS_BY_MARKER = _unit_table()
-
-
 def _members(ann: Any) -> list[Any]:
     if get_origin(ann) in (Union, types.UnionType):
         return [a for a in get_args(ann) if a is not type(None)]
@@ -366,7 +348,8 @@ def parameter_unit(kind: str, dotted: tuple[str, ...]) -> str:
             base = get_args(members[0])[0]
         else:
             base = members[0] if len(members) == 1 else None
-        unit = next((_UNITS_BY_MARKER[id(m)] for m in markers if id(m) in _UNITS_BY_MARKER), None)
+        found = quantity_of(markers)
+        unit = found[1] if found else None
         whole = ".".join(dotted[:depth + 1])
         if unit is not None or base is Toleranced:
             if not last:

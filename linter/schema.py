@@ -78,10 +78,7 @@ class QuantitySchema:
 
     def __init__(self, unit: str) -> None:
         self.unit = unit
-        #: the parser, named as pydantic's BeforeValidator names its function (docs.py and
-        #: policy.py tell quantity fields by it)
-        self.func = _parser(unit)
-        self.core = core_schema.no_info_before_validator_function(self.func,
+        self.core = core_schema.no_info_before_validator_function(_parser(unit),
                                                                   core_schema.float_schema())
 
     def __get_pydantic_core_schema__(self, source: Any, handler: Any) -> Any:
@@ -180,7 +177,8 @@ def Tol(unit: str) -> Any:  # noqa: N802
 
 class TolJsonSchema:
     """The JSON Schema of a toleranced field, made only when a schema is asked for: building
-    it at import would build the ``Given`` model's validator too, on every start of the linter."""
+    it at import would build the ``Given`` model's validator too, on every start of the linter.
+    It also marks the field as toleranced in ``unit`` (:func:`quantity_of`)."""
 
     def __init__(self, given: type[Strict], unit: str) -> None:
         self.given, self.unit = given, unit
@@ -189,6 +187,17 @@ class TolJsonSchema:
         given_schema = _drop_titles(self.given.model_json_schema())
         given_schema["description"] = f"{UNITS[self.unit].name}: any of typ, min, max; or typ with tol"
         return {"anyOf": [given_schema, q_schema(self.unit)]}
+
+
+def quantity_of(metadata: Any) -> tuple[str, str] | None:
+    """``("quantity" | "toleranced", unit)`` of a field declared ``Q(unit)`` or ``Tol(unit)``,
+    read from its annotation's markers (``field.metadata``, or an Annotated type's arguments)."""
+    for meta in metadata:
+        if isinstance(meta, QuantitySchema):
+            return "quantity", meta.unit
+        if isinstance(meta, TolJsonSchema):
+            return "toleranced", meta.unit
+    return None
 
 
 def q_schema(unit: str) -> dict:
