@@ -85,10 +85,9 @@ class QuantitySchema:
         return self.core
 
     def __get_pydantic_json_schema__(self, schema: Any, handler: Any) -> dict:
-        spec = UNITS[self.unit]
-        return {"type": "string" if spec.prefixes or self.unit == "oz" else ["string", "number"],
-                "pattern": _unit_pattern(self.unit),
-                "description": f"{spec.name}, e.g. '{_example(self.unit)}'"}
+        # units without prefixes (%, °C, K...) also take a bare number
+        plain = UNITS[self.unit].prefixes or self.unit == "oz"
+        return {**q_schema(self.unit), "type": "string" if plain else ["string", "number"]}
 
 
 def _example(unit: str) -> str:
