@@ -379,7 +379,7 @@ def lint_file(session: Session, path: Path, shown: str,
         return result
     netlist = build_netlist(design, resolved.parts)
     clock.lap("netlist")
-    model = make_model(design, netlist)
+    model = make_model(design, netlist, options)
     result.model = model
     result.figures = model_figures(model, result)
     clock.lap("model")
@@ -417,9 +417,11 @@ def design_identity(path: Path, root: Path) -> str:
         return path.resolve().as_posix()
 
 
-def make_model(design: Design, netlist: Netlist) -> Any:
+def make_model(design: Design, netlist: Netlist, options: dict | None = None) -> Any:
+    """The design's model, judged by the limits of the rules' ``options`` (by rule id)."""
     from .model.design import DesignModel
-    return DesignModel(design, netlist)
+    from .model.limits import Limits
+    return DesignModel(design, netlist, Limits.of(options or {}))
 
 
 def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:

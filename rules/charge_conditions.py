@@ -22,7 +22,7 @@ def check(ctx, options):
     if ch is None or stack is None:
         return
     cell, ref = stack.part, stack.cells[0].refdes
-    limit = cell.max_current.charge * stack.parallel
+    limit = stack.charge_rating
     if ch.current > limit:
         yield ctx.finding(
             f"charger current {fq(ch.current, 'A')} exceeds the cells' maximum charge current "

@@ -1,11 +1,12 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import copper
+from packwarden.model.limits import TRACE_RISE
 from packwarden import Q
 from pydantic import Field
 
 
 class Options(RuleOptions):
-    delta_t: Q("K") = Field(10.0, gt=0, description=(
+    delta_t: Q("K") = Field(TRACE_RISE, gt=0, description=(
         "temperature rise a trace may take at the highest permitted current, kelvin "
         "[practice: 10 °C continuous is the usual design rise for IPC-2221 sizing]"))
     sense_share: float = Field(0.05, ge=0, le=1, description=(
@@ -41,17 +42,17 @@ def check(ctx, options):
         base = [Figure("current", load.current, "A"), Figure(load.basis, load.basis_current, "A")]
         if c.kind == "trace":
             part = c.part
-            thick = part.thickness if part.thickness is not None else copper.oz_to_thickness(part.copper_weight)
-            rating = copper.ipc2221_current(part.width, thick, options.delta_t, part.layer.value)
+            thick = copper.trace_thickness(part)
+            rating = m.limits.trace_capacity(part)
             desc = (f"{fq(part.width, 'm')} wide, {copper.thickness_to_oz(thick):.3g} oz, "
                     f"{part.layer.value} layer")
             stretched = (f" (IPC-2221 used outside its usual range: {'; '.join(rating.out_of_range)})"
                          if rating.out_of_range else "")
             if load.current > rating.current:
-                need = copper.ipc2221_min_width(load.current, thick, options.delta_t, part.layer.value)
+                need = copper.ipc2221_min_width(load.current, thick, m.limits.trace_rise, part.layer.value)
                 yield ctx.finding(
                     f"{c.refdes} ({desc}) {carried}, but IPC-2221 rates it {fq(rating.current, 'A')} "
-                    f"for a {options.delta_t:g} K rise ({rating.area_mil2:.4g} mil²){stretched}{sense}",
+                    f"for a {m.limits.trace_rise:g} K rise ({rating.area_mil2:.4g} mil²){stretched}{sense}",
                     path=path, element=c.refdes, key="capacity",
                     figures=base + [Figure("IPC-2221 capacity", rating.current, "A"),
                                     Figure("cross-section", rating.area_mil2, "mil²"),

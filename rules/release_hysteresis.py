@@ -87,7 +87,7 @@ def check(ctx, options):
             i2t = max((heat.i2t(n) for n in chans), default=0.0)
             state = (f"runs away thermally (no steady state at or below tj_max {fq(part.tj_max, '°C')})"
                      if heat.runaway[pk] else
-                     f"averages {fq(heat.tj[pk], '°C')} at {m.ambient.high:.0f} °C ambient, above "
+                     f"averages {fq(heat.tj[pk], '°C')} at {m.ambient.max:.0f} °C ambient, above "
                      f"{fq(ceiling, '°C')}")
             yield ctx.finding(
                 f"the {heat.threshold.replace('_', '-').replace('overcurrent', 'over-current')} "
@@ -100,7 +100,7 @@ def check(ctx, options):
                          Figure("average power", heat.power[pk], "W"),
                          Figure("junction temperature", heat.tj[pk], "°C"),
                          Figure("retry period", heat.period, "s"), Figure("I²t", i2t, "A²s")],
-                hint=_retry_hint(heat, pk, part, ceiling, m.ambient.high))
+                hint=_retry_hint(heat, pk, part, ceiling, m.ambient.max))
 
 
 def _retry_hint(heat, pk, part, ceiling, ambient):

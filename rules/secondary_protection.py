@@ -1,9 +1,10 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
+from packwarden.model.limits import FUSE_DERATING
 
 
 class Options(RuleOptions):
-    derating: float = Field(0.75, gt=0, le=1, description=(
+    derating: float = Field(FUSE_DERATING, gt=0, le=1, description=(
         "fraction of the fuse rating it may carry continuously [practice: 75 % at 25 °C]"))
     i2t_margin: float = Field(0.48, gt=0, le=1, description=(
         "fraction of the melting I²t a protected event may let through [practice: 48 % for 100 pulses]"))
@@ -44,16 +45,16 @@ def check(ctx, options):
     for f in series:
         part, path = f.part, f.path + ("part",)
         if f.kind == "fuse":
-            derated = part.rated_current * options.derating
+            derated = m.limits.fuse_current(part)
             if t is not None and t.max > derated:
                 yield ctx.finding(
-                    f"{f.refdes} carries {fq(derated, 'A')} derated ({fq(options.derating * 100, '%', 2)} of "
+                    f"{f.refdes} carries {fq(derated, 'A')} derated ({fq(m.limits.fuse_derating * 100, '%', 2)} of "
                     f"{fq(part.rated_current, 'A')}) but the electronics permit up to {fq(t.max, 'A')} "
                     f"(over-current trip max): the fuse, not the protector, would act",
                     path=path, element=f.refdes, key="rating",
                     figures=[Figure("derated rating", derated, "A"), Figure("trip max", t.max, "A")],
-                    hint=f"use a fuse rated ≥ {fq(t.max / options.derating, 'A')}")
-        vmax = max([sv.high if sv else 0.0] + ([ch.open_circuit_max] if ch else []))
+                    hint=f"use a fuse rated ≥ {fq(t.max / m.limits.fuse_derating, 'A')}")
+        vmax = max([sv.max if sv else 0.0] + ([ch.open_circuit_max] if ch else []))
         if part.rated_voltage < vmax:
             yield ctx.finding(
                 f"{f.refdes} is rated {fq(part.rated_voltage, 'V')}, below the highest pack or charger "

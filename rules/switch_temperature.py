@@ -1,11 +1,12 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import stress
+from packwarden.model.limits import JUNCTION_LIMIT
 from packwarden import Q
 from pydantic import Field
 
 
 class Options(RuleOptions):
-    limit: Q("°C") = Field(125.0, description=(
+    limit: Q("°C") = Field(JUNCTION_LIMIT, description=(
         "highest junction temperature allowed in service, below the part's own tj_max "
         "[practice: commercial derating, T_J ≤ 125 °C]"))
     steady_after: Q("s") = Field(10.0, description=(
@@ -40,7 +41,7 @@ def check(ctx, options):
     m = ctx.model
     for h in m.switch_heat:
         part = h.part
-        ceiling = min(options.limit, part.tj_max)
+        ceiling = m.limits.junction_ceiling(part)
         if not h.runaway and h.tj <= ceiling:
             continue
         path = _part_path(m, h.package)
@@ -73,7 +74,7 @@ def check(ctx, options):
             if h.tj > part.tj_max:
                 limit_text = f"its tj_max {fq(part.tj_max, '°C')}"
             else:
-                limit_text = (f"the {fq(options.limit, '°C')} limit (tj_max "
+                limit_text = (f"the {fq(m.limits.junction, '°C')} limit (tj_max "
                               f"{fq(part.tj_max, '°C')})")
             message = (f"{h.package} junction reaches {fq(h.tj, '°C')} at {what} {where}: "
                        f"{fq(h.power, 'W')} in {fq(part.theta_ja, 'K/W')}, above {limit_text}")

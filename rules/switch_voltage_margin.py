@@ -63,18 +63,18 @@ def check(ctx, options):
             continue
         seen.add(ch.package)
         glimit = part.vgs_max * options.vgs_derating
-        if gd.high > glimit:
+        if gd.max > glimit:
             yield ctx.finding(
-                f"{ch.package} gate drive reaches {fq(gd.high, 'V')} but {fq(options.vgs_derating * 100, '%', 2)} "
+                f"{ch.package} gate drive reaches {fq(gd.max, 'V')} but {fq(options.vgs_derating * 100, '%', 2)} "
                 f"of its vgs_max {fq(part.vgs_max, 'V')} is {fq(glimit, 'V')}",
                 path=path, element=ch.package, key="vgs",
-                figures=[Figure("gate drive max", gd.high, "V"), Figure("vgs_max", part.vgs_max, "V")],
-                hint=f"use a FET with vgs_max ≥ {fq(gd.high / options.vgs_derating, 'V')}, or clamp the gate")
-        if ch.vgs_th_max >= gd.low:
+                figures=[Figure("gate drive max", gd.max, "V"), Figure("vgs_max", part.vgs_max, "V")],
+                hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V')}, or clamp the gate")
+        if ch.vgs_th_max >= gd.min:
             yield ctx.finding(
                 f"{ch.package} gate threshold max {fq(ch.vgs_th_max, 'V')} is not below the lowest "
-                f"gate drive {fq(gd.low, 'V')} (over-discharge detection): the FET is not fully on "
+                f"gate drive {fq(gd.min, 'V')} (over-discharge detection): the FET is not fully on "
                 f"near the end of discharge",
                 path=path, element=ch.package, key="vgs-th",
-                figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.low, "V")],
+                figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.min, "V")],
                 hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")

@@ -1,10 +1,11 @@
 from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
+from packwarden.model.limits import CHARGE_MARGIN
 
 
 class Options(RuleOptions):
     charge_margin: Q("V") = Field(
-        0.025, description="overcharge detection must sit this far above the charger's maximum "
+        CHARGE_MARGIN, description="overcharge detection must sit this far above the charger's maximum "
                            "per-cell voltage, else end-of-charge nuisance trips")
 
 
@@ -68,24 +69,24 @@ def check(ctx, options):
     ch = m.charger_per_cell
     oc, od = part.overcharge, part.overdischarge
     if ch is not None:
-        if ch.high > limits.upper_limit + 1e-9:
+        if ch.max > limits.upper_limit + 1e-9:
             yield ctx.finding(
-                note(f"charger maximum {fq(ch.high, 'V')} per cell exceeds the cell's upper charge "
+                note(f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
                      f"limit {fq(limits.upper_limit, 'V')}"),
                 path=("charger", "voltage"), element=stack.cells[0].refdes, key="charger-vs-upper",
-                figures=[Figure("charger max per cell", ch.high, "V"),
+                figures=[Figure("charger max per cell", ch.max, "V"),
                          Figure("cell upper limit", limits.upper_limit, "V")],
                 hint=f"tighten the charger to at most {fq(limits.upper_limit, 'V')} per cell with tolerance")
-        need = ch.high + options.charge_margin
+        need = ch.max + m.limits.charge_margin
         if oc.detect.low < need - 1e-9:
             yield ctx.finding(
                 f"overcharge detection min {fq(oc.detect.low, 'V')} is below the charger maximum "
-                f"{fq(ch.high, 'V')} per cell + {fq(options.charge_margin, 'V')} margin: the "
+                f"{fq(ch.max, 'V')} per cell + {fq(m.limits.charge_margin, 'V')} margin: the "
                 f"protector may cut off at the end of a normal charge",
                 path=ppath, element=p.refdes, key="overcharge-vs-charger",
                 figures=[Figure("overcharge detect min", oc.detect.low, "V"),
-                         Figure("charger max per cell", ch.high, "V"),
-                         Figure("margin", options.charge_margin, "V")],
+                         Figure("charger max per cell", ch.max, "V"),
+                         Figure("margin", m.limits.charge_margin, "V")],
                 hint=f"a protector with overcharge detection ≥ {fq(need, 'V')} at its lowest, or a "
                      f"charger with a tighter tolerance")
     if oc.detect.high > limits.overcharge_limit + 1e-9:

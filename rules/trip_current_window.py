@@ -24,9 +24,9 @@ def check(ctx, options):
     if p is None or t is None or stack is None:
         return
     ppath = ("components", p.refdes, "part")
-    window = [Figure("trip min", t.min, "A"), Figure("trip typ", t.typical, "A"),
+    window = [Figure("trip min", t.min, "A"), Figure("trip typ", t.typ, "A"),
               Figure("trip max", t.max, "A")]
-    if not math.isfinite(t.low.sense_resistance) or t.high.sense_resistance <= 0:
+    if not math.isfinite(t.at_min.sense_resistance) or t.at_max.sense_resistance <= 0:
         yield ctx.finding(
             f"{p.refdes} sees no power-path resistance between its ground and sense pins, so its "
             f"over-current detection cannot trip", path=("components", p.refdes, "pins"),
@@ -38,12 +38,12 @@ def check(ctx, options):
         return f" (assumed: {'; '.join(notes)})" if notes else ""
 
     cell = stack.part
-    cell_limit = cell.max_current.discharge * stack.parallel
+    cell_limit = stack.discharge_rating
     if t.max > cell_limit:
         yield ctx.finding(
             f"over-current trip max {fq(t.max, 'A')} exceeds the cells' discharge rating "
             f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
-            f"just below the trip is never cut off{assumed(t.high)}",
+            f"just below the trip is never cut off{assumed(t.at_max)}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
             key="max-vs-cell", figures=window + [Figure("cell limit", cell_limit, "A")],
             hint=_resistance_hint(t, t.max / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
@@ -55,7 +55,7 @@ def check(ctx, options):
         if ich > ch.part.id_max:
             yield ctx.finding(
                 f"{ch.name} carries {fq(ich, 'A')} at the over-current trip max, above its id_max "
-                f"{fq(ch.part.id_max, 'A')}{assumed(t.high)}",
+                f"{fq(ch.part.id_max, 'A')}{assumed(t.at_max)}",
                 path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
                 figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
@@ -71,9 +71,9 @@ def check(ctx, options):
         if t.min < current:
             yield ctx.finding(
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
-                f"the pack may cut out in normal use (at {t.low.ambient:.0f} °C ambient, "
-                f"{fq(t.low.vgs, 'V')} gate drive, highest "
-                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.low)}",
+                f"the pack may cut out in normal use (at {t.at_min.ambient:.0f} °C ambient, "
+                f"{fq(t.at_min.vgs, 'V')} gate drive, highest "
+                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min)}",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
                 figures=window + [Figure(what, current, "A")],
                 hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
@@ -89,7 +89,7 @@ def check(ctx, options):
 
 def _channel_current(m, t, name):
     # the share each channel takes of the pack current, at the low-resistance corner
-    return t.high.share.get(name, 0.0) * t.max
+    return t.at_max.share.get(name, 0.0) * t.max
 
 
 def _shunts(m):
@@ -100,7 +100,7 @@ def _shunts(m):
 def _resistance_hint(t, factor, verb, end, target, shunts=()):
     """How far the sense resistance must move, said as the per-channel on-resistance to look for
     or, with shunt sensing, as the shunt resistance."""
-    op = t.low if end == "minimum" else t.high
+    op = t.at_min if end == "minimum" else t.at_max
     if shunts:
         now = op.sense_resistance
         needed = now / factor if end == "minimum" else now * factor

@@ -13,10 +13,8 @@ np = pytest.importorskip("numpy")
 
 from packwarden import montecarlo  # noqa: E402
 from packwarden.engine import lint  # noqa: E402
-from packwarden.model import rdson  # noqa: E402
-from packwarden.model.network import Network  # noqa: E402
-from packwarden.model.yield_ import (DEFAULT_SEED, LinearPath, Parameter, draw,  # noqa: E402
-                                     rds_on_batch, run_yield, wilson_interval)
+from packwarden.model.values import Span  # noqa: E402
+from packwarden.model.yield_ import DEFAULT_SEED, draw, run_yield, wilson_interval  # noqa: E402
 
 REPO = Path(__file__).resolve().parents[1]
 
@@ -125,11 +123,11 @@ def test_the_normal_draw_matches_its_closed_form():
     # 3σ tolerance: P(|X − typ| > tol) = P(|Z| > 3) = 0.0026998 [published: standard normal table];
     # a split normal keeps each side's own σ.
     rng = np.random.default_rng(3)
-    x = draw(rng, Parameter("x", 0.9, 1.0, 1.3), 1_000_000, "normal")
+    x = draw(rng, Span(0.9, 1.0, 1.3), 1_000_000, "normal")
     assert np.mean((x < 0.9) | (x > 1.3)) == pytest.approx(0.0026998, abs=2.5e-4)
     assert np.mean(x < 1.0) == pytest.approx(0.5, abs=2e-3)
     assert np.std(x[x > 1.0]) == pytest.approx(0.1 * math.sqrt(1 - 2 / math.pi), rel=0.02)
-    u = draw(rng, Parameter("u", 2.0, 2.5, 3.0), 1_000_000, "uniform")
+    u = draw(rng, Span(2.0, 2.5, 3.0), 1_000_000, "uniform")
     assert (u.min() >= 2.0, u.max() <= 3.0) == (True, True)
     assert np.mean(u < 2.25) == pytest.approx(0.25, abs=2e-3)
 
@@ -169,58 +167,60 @@ def test_uniform_builds_stay_inside_the_worst_case_window():
     assert r.figures["trip_current_cold"]["max"] <= t.max
 
 
-@pytest.mark.parametrize("name", ["orchard-probe.yaml", "ridgeline-tool-4s2p.yaml"])
-def test_the_reduced_path_solves_like_the_nodal_solver(name):
-    # One build with arbitrary channel resistances: the sense resistance of the batch path equals
-    # the scalar model's nodal solve of the same netlist [derived: same network].
+@pytest.mark.parametrize("name", ["orchard-probe.yaml", "ridgeline-tool-4s2p.yaml",
+                                  "ridgeline-blower-4s2p-lowside.yaml"])
+def test_uniform_builds_of_each_example_stay_inside_its_worst_case(name):
+    # Uniform builds never leave the worst-case corners the lint judges [derived: the corners
+    # bound every build], on every example layout, the shunt between B− and the FET sources
+    # included (the layout an earlier second model of the yield run could not solve).
     run = lint([str(REPO / "example_designs" / name)])
     m = run.designs[0].model
-    rng = np.random.default_rng(2)
-    rds = {ch.name: float(rng.uniform(2e-3, 30e-3)) for ch in m.channels}
-    cell_r = m.stack.part.internal_resistance.nominal
-    _, sense, _ = m._solve(rds, 25.0, "typ", cell_r)
-    edges = [(c.refdes, c.pins["pos"], c.pins["neg"]) for c in m.stack.cells]
-    edges += [(ch.name, ch.drain, ch.source) for ch in m.channels]
-    values = {c.refdes: cell_r for c in m.stack.cells} | dict(rds)
-    for c in m._series_parts():
-        edges.append((c.refdes, c.pins["1"], c.pins["2"]))
-        values[c.refdes] = m.part_resistance(c, 25.0, "typ")
-    pos, neg = m.terminals
-    p = m.protector
-    path = LinearPath.build(edges, m.stack.bottom, pos, neg,
-                            keep=(p.pins["sense"], p.pins["ground"]))
-    v, _ = path.solve({k: np.array([x]) for k, x in values.items()}, 1)
-    got = abs(v[path.node(p.pins["sense"])][0] - v[path.node(p.pins["ground"])][0])
-    assert got == pytest.approx(sense, rel=1e-6)
+    r = run_yield(m, 2000, seed=3)
+    t = m.overcurrent_trip
+    assert t.min <= r.figures["trip_current_hot"]["min"] * (1 + 1e-9)
+    assert r.figures["trip_current_cold"]["max"] <= t.max * (1 + 1e-9)
+    [cont] = [h for h in m.switch_heat if h.case == "continuous"][:1]
+    assert r.figures["junction_temperature_continuous"]["max"] <= cont.tj + 0.02
 
 
-def test_a_bridge_that_does_not_fold_is_solved_nodally():
-    # A Wheatstone bridge is not series-parallel; its resistance between the terminals comes from
-    # the batch elimination and must match the scalar solver's [derived].
-    edges = [("a", "T", "X"), ("b", "T", "Y"), ("c", "X", "G"), ("d", "Y", "G"), ("e", "X", "Y"),
-             ("s", "G", "N")]
-    r = {"a": 1.0, "b": 2.0, "c": 3.0, "d": 4.0, "e": 5.0, "s": 0.5}
-    path = LinearPath.build(edges, "N", "T", "N")
-    assert len(path.nodes) > 2  # the bridge stays
-    v, cur = path.solve({k: np.array([x, 2 * x]) for k, x in r.items()}, 2)
+def test_a_project_limit_reaches_the_rule_the_yield_run_and_the_chart(tmp_path):
+    # With [rules.switch-temperature] limit = "100 °C" the rule, --yield and the review report's
+    # chart all judge with 100 °C: one limit, resolved once per design.
+    import shutil
+    shutil.copytree(REPO / "example_designs", tmp_path / "d")
+    (tmp_path / "packwarden.toml").write_text('[rules.switch-temperature]\nlimit = "100 °C"\n',
+                                              encoding="utf-8")
+    design = tmp_path / "d" / "orchard-probe.yaml"
+    run = lint([str(design)])
+    (d,) = run.designs
+    assert d.model.limits.junction == 100.0
+    temp = [f for f in d.findings if f.rule == "switch-temperature"]
+    assert temp and all(any(g.name == "limit" and g.value == 100.0 for g in f.figures)
+                        for f in temp)
+    r = run_yield(d.model, 5000)
+    tj = [c for c in r.checks if c.rule == "switch-temperature"]
+    assert all("limit 100 °C" in c.condition for c in tj)
+    # Just below the trip the worst case is 116 °C: builds near it fail against 100 °C.
+    assert any(c.failures > 0 for c in tj)
+    out = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", "--format", "html",
+                          "--output", str(tmp_path / "r.html"), str(design)],
+                         capture_output=True, text=True, cwd=tmp_path)
+    assert out.returncode in (0, 1), out.stderr
+    html = (tmp_path / "r.html").read_text(encoding="utf-8")
+    assert "derating 100 °C" in html and "derating 125 °C" not in html
+
+
+def test_a_path_with_a_conducting_diode_is_refused_not_guessed():
+    # The batch solve is linear; where a body diode conducts in the model's own solution the run
+    # says so instead of solving a different circuit.
+    from packwarden.model.network import Network, NetworkError
+    from packwarden.model.vector import LinearPath
     net = Network()
-    for name, a, b in edges:
-        net.add_resistor(name, a, b, r[name])
-    want = net.equivalent_resistance("T", "N")
-    assert abs(v[path.node("T")][0] - v[path.node("N")][0]) == pytest.approx(want, rel=1e-9)
-    assert abs(v[path.node("T")][1]) == pytest.approx(2 * want, rel=1e-9)
-    # current law at X: a in, c and e out (per ampere of load)
-    assert cur["a"][0] == pytest.approx(cur["c"][0] + cur["e"][0], rel=1e-9)
-
-
-@pytest.mark.parametrize("corner,spread", [("typ", 0.0), ("max", 1.0), ("min", -1.0)])
-@pytest.mark.parametrize("vgs,tj", [(2.0, 25.0), (2.5, 60.0), (3.2, 110.0), (6.0, -10.0)])
-def test_batch_on_resistance_matches_the_scalar_model(corner, spread, vgs, tj):
-    # [derived] the vectorised table read must give the scalar rds_on's value at its corners.
-    points = [(2.5, 25e-3, 32e-3), (3.7, 20e-3, 26e-3), (4.5, 18e-3, 23e-3)]
-    want = rdson.rds_on(points, vgs, tj, 1.44, 125.0, corner).value
-    got = rds_on_batch(points, np.array([vgs]), np.array([tj]), np.array([spread]), 1.44, 125.0)
-    assert got[0] == pytest.approx(want, rel=1e-12)
+    net.add_source("B", "P", "N", 5.0, 0.01)
+    net.add_mosfet("Q", drain="X", source="P", channel="n", ohms_on=1.0, on=False)
+    net.add_resistor("L", "X", "N", 1.0)
+    with pytest.raises(NetworkError, match="diode conducts"):
+        LinearPath.from_network(net, "N")
 
 
 # --- the interval ---------------------------------------------------------------------------------

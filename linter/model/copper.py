@@ -76,6 +76,11 @@ def oz_to_thickness(oz: float) -> float:
     return oz * OZ_THICKNESS
 
 
+def trace_thickness(trace) -> float:
+    """A trace part's copper thickness: as given, else from its copper weight."""
+    return trace.thickness if trace.thickness is not None else oz_to_thickness(trace.copper_weight)
+
+
 def thickness_to_oz(thickness: float) -> float:
     """Foil thickness in metres to copper weight in oz/ft² (inverse of :func:`oz_to_thickness`)."""
     _positive(thickness=thickness)

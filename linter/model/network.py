@@ -524,6 +524,14 @@ class Network:
 
     # ----------------------------------------------------------------- operating point
 
+    def linear_terms(self) -> tuple[list, list, dict[str, int]]:
+        """What the solver stamps: the linear terms ``(name, sign, p, q, g, e)`` of resistors,
+        sources and on channels, the diode terms ``(name, sign, p, q, v_forward, g_on)``, and
+        the net index ``p``/``q`` refer to (for the batch form of the solve, model/vector.py)."""
+        index = self._net_index()
+        linear, diodes, _ = self._terms(index)
+        return list(linear), list(diodes), dict(index)
+
     def _terms(self, index: dict[str, int]) -> tuple[list, list, float]:
         """The solver's linear and diode terms of every branch, in order, and the voltage bound
         of the sources (1 V plus every EMF)."""

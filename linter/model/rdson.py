@@ -15,7 +15,7 @@ from typing import Iterable, Literal, Optional, Sequence
 
 from ..records import record
 
-__all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor"]
+__all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor", "DEFAULT_HOT_RATIO"]
 
 Corner = Literal["typ", "max", "min"]
 #: One data sheet row: (V_GS, typ, max), typ or max None where the sheet leaves it blank.
@@ -23,6 +23,9 @@ Point = tuple[float, Optional[float], Optional[float]]
 
 #: Data-sheet R_DS(on) tables are specified at this junction temperature [practice].
 TABLE_TEMP = 25.0
+#: R_DS(on) at 125 °C over its 25 °C value where a part gives no ratio, and that temperature
+#: [practice: 1.4-1.6 for 20 V parts, REFERENCES.md "MOSFETs"].
+DEFAULT_HOT_RATIO = (1.5, 125.0)
 
 
 @record(frozen=True)

@@ -27,6 +27,7 @@ from .network import Network, NetworkError
 from .ocv import HOURS_PER_MONTH, OcvTable, ocv_table, self_discharge_at, shelf_life, \
     soc_at_voltage, voltage_at_soc
 from ..records import record
+from .values import ModelProblem
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -115,7 +116,6 @@ def storage_budget(m: "DesignModel") -> StorageBudget | None:
             table = ocv_table([(pt.soc / 100.0, pt.voltage) for pt in cell.ocv])
         except ValueError as exc:
             # A table that cannot be inverted is the design's mistake: say where, not crash.
-            from .design import ModelProblem
             m.problems.append(ModelProblem(
                 "storage", f"the ocv table of {stack.cells[0].refdes} cannot be used: "
                            f"{str(exc).replace('cell: ', '')} (SoC as a fraction of full)",
@@ -205,7 +205,6 @@ def level_drains(m: "DesignModel", cell_voltage: float,
         try:
             return net.solve(ground=stack.bottom)
         except NetworkError as exc:
-            from .design import ModelProblem
             m.problems.append(ModelProblem("storage", str(exc)))
             return None
 

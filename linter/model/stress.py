@@ -14,10 +14,14 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from . import thermal
+from .network import NetworkError
+from .values import IDEAL, corner_value
 from ..records import record
 
 if TYPE_CHECKING:  # pragma: no cover
-    from .design import DesignModel, OperatingPoint, SwitchChannel
+    from .design import DesignModel
+    from .path import OperatingPoint
+    from .topology import SwitchChannel
 
 __all__ = [
     "HeatCase", "switch_heat", "permitted_current_heat",
@@ -29,14 +33,6 @@ __all__ = [
     "DEFAULT_CHARGE_TEMPERATURE", "charge_temperature",
 ]
 
-# The permitted-current fixed point T -> T_A + P(T)·R_θJA has a falling P(T) when the FETs are
-# the sense resistance (P = V²/R), so plain iteration can overshoot; half steps settle any loop
-# gain between -3 and 1 [derived: fixed-point iteration x + w(f(x) - x), |1 - w + w·f'| < 1].
-_DAMPING = 0.5
-_ITERATIONS = 400
-_TOLERANCE = 0.01  # kelvin
-# Far enough above any rating that an iterate this hot can only be a diverging loop.
-_RUNAWAY_MARGIN = 1000.0
 
 #: Turn-off time of a protection FET when its part gives none, seconds. Protector gate outputs
 #: pull down through some kilohms into a few nanofarads of gate charge, so the drain current
@@ -57,16 +53,9 @@ DEFAULT_CHARGE_TEMPERATURE = (0.0, 45.0)
 
 # --- switch junction temperature -------------------------------------------------------------
 
-# On-resistance corner -> the corner of the other parts (resistor tolerance, PTC spread) that
-# goes with it, as in DesignModel.operating_point.
-_PART_CORNER = {"max": "high", "min": "low", "typ": "typ"}
-
-
 def _cell_r(m: "DesignModel", corner: str) -> float:
-    """Cell internal resistance at the end of its spread that goes with an on-resistance corner."""
-    from .design import spread_low
-    r = m.stack.part.internal_resistance
-    return r.high if corner == "max" else spread_low(r) if corner == "min" else r.nominal
+    """Cell internal resistance at the same corner as the rest of the path."""
+    return corner_value(m.stack.part.internal_resistance, corner)
 
 @record(frozen=True)
 class HeatCase:
@@ -112,7 +101,7 @@ def _cases_of(op: "OperatingPoint", m: "DesignModel", case: str, duration: float
                 return sum(ich[ch.name] ** 2 * m.channel_rds(ch, op.vgs, t, op.corner)[0]
                            for ch in chans)
             res = thermal.junction_temperature(op.ambient, p_at, part.theta_ja,
-                                               part.tj_max + _RUNAWAY_MARGIN)
+                                               part.tj_max + thermal.RUNAWAY_MARGIN)
             if res.converged:
                 tj, power, runaway = res.tj, res.power, False
                 rds = {ch.name: m.channel_rds(ch, op.vgs, tj, op.corner)[0] for ch in chans}
@@ -136,13 +125,13 @@ def switch_heat(m: "DesignModel") -> tuple[HeatCase, ...]:
     gd = m.gate_drive
     if gd is None or not m.channels or m.stack is None:
         return ()
-    hot = m.ambient.high
+    hot = m.ambient.max
     out: list[HeatCase] = []
     load = m.design.load
-    op = m.operating_point(load.continuous, hot, gd.low, "max", self_heating=True)
+    op = m.operating_point(load.continuous, hot, gd.min, "max", self_heating=True)
     out += _cases_of(op, m, "continuous", None)
     if load.peak is not None:
-        op = m.operating_point(load.peak.current, hot, gd.low, "max", self_heating=True)
+        op = m.operating_point(load.peak.current, hot, gd.min, "max", self_heating=True)
         out += _cases_of(op, m, "peak", load.peak.duration, (
             "peak taken as a steady state: the part gives no transient thermal impedance, and "
             "a steady state bounds any shorter pulse from above",))
@@ -156,9 +145,9 @@ def permitted_current_heat(m: "DesignModel") -> list[HeatCase]:
     if p is None or gd is None or not m.channels:
         return []
     vdet = p.part.overcurrent.detect.high
-    hot = m.ambient.high
+    hot = m.ambient.max
     best: dict[str, HeatCase] = {}
-    for corner, vgs in (("min", gd.high), ("max", gd.low)):
+    for corner, vgs in (("min", gd.max), ("max", gd.min)):
         for case in _permitted_at(m, vdet, hot, vgs, corner):
             old = best.get(case.package)
             if old is None or (case.runaway, case.tj) > (old.runaway, old.tj):
@@ -170,18 +159,18 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
                   corner: str) -> list[HeatCase]:
     """The current just below the trip, I = V_detect / R_sense(T_J), with T_J from I."""
     packages = {ch.package: ch.part for ch in m.channels}
-    rcorner, cell_r = _PART_CORNER[corner], _cell_r(m, corner)
+    cell_r = _cell_r(m, corner)
     tj = {pk: ambient for pk in packages}
     runaway = False
     notes: list[str] = []
     state = None
     previous: dict[str, tuple[float, float]] = {}
-    for _ in range(_ITERATIONS):
+    for _ in range(thermal.TRIP_ITERATIONS):
         rds, notes = {}, []
         for ch in m.channels:
             rds[ch.name], n = m.channel_rds(ch, vgs, tj[ch.package], corner)
             notes += [x for x in n if x not in notes]
-        sol, sense, _path = m._solve(rds, ambient, rcorner, cell_r)
+        sol, sense, _path = m.solve_path(rds, ambient, corner, cell_r)
         if sol is None or not math.isfinite(sense) or sense <= 0:
             return []
         i_load = abs(sol.current("(load)"))
@@ -194,17 +183,17 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
         state = (current, rds, ich, power)
         target = {pk: ambient + power[pk] * packages[pk].theta_ja for pk in packages}
         delta = max(abs(target[pk] - tj[pk]) for pk in packages)
-        if delta < _TOLERANCE:
+        if delta < thermal.TJ_TOLERANCE:
             tj = target
             break
         # With the FETs as the sense resistance, P = V²/R falls as T_J rises and the plain
         # iteration oscillates; damping settles it, and the secant (where it applies) in a few
         # solves instead of tens.
-        step = {pk: thermal.accelerated_step(tj[pk], target[pk], previous.get(pk), _DAMPING)
+        step = {pk: thermal.accelerated_step(tj[pk], target[pk], previous.get(pk), thermal.TRIP_DAMPING)
                 for pk in packages}
         previous = {pk: (tj[pk], target[pk] - tj[pk]) for pk in packages}
         tj = step
-        if any(tj[pk] > packages[pk].tj_max + _RUNAWAY_MARGIN for pk in packages):
+        if any(tj[pk] > packages[pk].tj_max + thermal.RUNAWAY_MARGIN for pk in packages):
             runaway = True
             break
     else:
@@ -236,7 +225,7 @@ def dissipation_at(m: "DesignModel", h: HeatCase, temp: float) -> float:
         return sum(h.channel_current[ch.name] ** 2 * m.channel_rds(ch, h.vgs, temp, h.corner)[0]
                    for ch in chans)
     rds = {ch.name: m.channel_rds(ch, h.vgs, temp, h.corner)[0] for ch in m.channels}
-    sol, sense, _ = m._solve(rds, h.ambient, _PART_CORNER[h.corner], _cell_r(m, h.corner))
+    sol, sense, _ = m.solve_path(rds, h.ambient, h.corner, _cell_r(m, h.corner))
     if sol is None or not math.isfinite(sense) or sense <= 0:
         return h.power
     i_load = abs(sol.current("(load)"))
@@ -338,7 +327,7 @@ def turn_off_spike(m: "DesignModel", ch: "SwitchChannel") -> TurnOffSpike | None
     t_off = getattr(ch.part, "turn_off_time", None)
     assumed = t_off is None
     return TurnOffSpike(ch.name, inductance, psc, DEFAULT_TURN_OFF_TIME if assumed else t_off,
-                        assumed, m.stack_voltage.high)
+                        assumed, m.stack_voltage.max)
 
 
 # --- conductors -------------------------------------------------------------------------------
@@ -364,7 +353,6 @@ class ConductorLoad:
 
 
 def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
-    from .design import _IDEAL, spread_low
     parts = m.netlist.of_kind("trace", "wire")
     t = m.overcurrent_trip
     if not parts or t is None or m.stack is None or not math.isfinite(t.max):
@@ -374,8 +362,9 @@ def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
     if ch is not None and ch.current > basis_current:
         basis, basis_current = "charger current", ch.current
     cell = m.stack.part
-    sol, _, _ = m._solve(t.high.rds, t.high.ambient, "low", spread_low(cell.internal_resistance))
-    typ_sense = t.typ.sense_resistance
+    sol, _, _ = m.solve_path(t.at_max.rds, t.at_max.ambient, "min",
+                            corner_value(cell.internal_resistance, "min"))
+    typ_sense = t.at_typ.sense_resistance
     out = []
     for c in parts:
         a, b = c.pins.get("1"), c.pins.get("2")
@@ -385,11 +374,11 @@ def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
         share = abs(sol.current(c.refdes)) / i_load if i_load else 0.0
         sense_share = 0.0
         if math.isfinite(typ_sense) and typ_sense > 0:
-            without = _sense_with_ideal(m, t.typ.rds, c, _IDEAL, cell.internal_resistance.nominal)
+            without = _sense_with_ideal(m, t.at_typ.rds, c, IDEAL, cell.internal_resistance.nominal)
             if without is not None:
                 sense_share = max(0.0, 1.0 - without / typ_sense)
         out.append(ConductorLoad(c, share, share * basis_current, basis, basis_current,
-                                 m.part_resistance(c, m.ambient.high, "typ"), sense_share,
+                                 m.part_resistance(c, m.ambient.max, "typ"), sense_share,
                                  typ_sense))
     return tuple(out)
 
@@ -397,7 +386,6 @@ def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
 def _sense_with_ideal(m: "DesignModel", rds: dict, c: Any, ideal: float,
                       cell_r: float) -> float | None:
     """Sense resistance at 25 °C, typical, with conductor ``c`` replaced by a near-zero one."""
-    from .network import NetworkError
     emf = m.cell_limits.nominal if m.cell_limits else 3.6
     net = m.network(rds, cell_emf=emf, cell_r=cell_r, temp=25.0, corner="typ",
                     exclude=frozenset({c.refdes}))
@@ -472,7 +460,7 @@ def release_rebounds(m: "DesignModel", cold_factor: float, cold_at: float) -> li
         current, basis = load.continuous, "continuous load"
         if load.peak is not None and load.peak.duration > od.delay.low and load.peak.current > current:
             current, basis = load.peak.current, "peak load (it outlasts the over-discharge delay)"
-        temp = m.ambient.low
+        temp = m.ambient.min
         k = cold_resistance_factor(temp, cold_factor, cold_at)
         out.append(Rebound("overdischarge", basis, current / stack.parallel, r25 * k, r25, k, temp,
                            od.release.low - od.detect.high, od.detect.high, od.release.low))
@@ -480,7 +468,7 @@ def release_rebounds(m: "DesignModel", cold_factor: float, cold_at: float) -> li
     if ch is not None and "voltage" in {r.value for r in oc.release_on} and oc.release is not None:
         # Charging happens down to the charger's own cut-off, where it declares one; else to the
         # lowest ambient.
-        temp = m.ambient.low
+        temp = m.ambient.min
         if ch.temperature_window is not None:
             temp = max(temp, ch.temperature_window.min)
         k = cold_resistance_factor(temp, cold_factor, cold_at)
@@ -547,11 +535,11 @@ def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -
                            dict(pulse.channel_current), pulse.duration))
     sc = m.short_circuit_trip
     if _retries(oc) and sc is not None and (pulse is None or pulse.detection == "short-circuit"):
-        share = sc.high.share
+        share = sc.at_max.share
         events.append(("overcurrent", oc, "an overload just below the short-circuit trip maximum",
                        sc.max, {n: f * sc.max for n, f in share.items()}, oc.delay.high))
     out = []
-    hot = m.ambient.high
+    hot = m.ambient.max
     for name, thr, event, current, ich, duration in events:
         period = getattr(thr, "retry_period", None)
         assumed = period is None
@@ -562,7 +550,7 @@ def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -
             chans = [ch for ch in m.channels if ch.package == pk]
 
             def pulse_energy(t: float, chans=chans) -> float:
-                return sum(ich.get(ch.name, 0.0) ** 2 * m.channel_rds(ch, gd.low, t, "max")[0]
+                return sum(ich.get(ch.name, 0.0) ** 2 * m.channel_rds(ch, gd.min, t, "max")[0]
                            for ch in chans) * duration
 
             res = thermal.junction_temperature(hot, lambda t, f=pulse_energy: f(t) / period,

@@ -23,7 +23,7 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from ..netlist import Component
-from .design import _SIGNAL_OHMS as SIGNAL_OHMS  # one threshold for "carries the pack current"
+from .values import SIGNAL_OHMS, ModelProblem  # one threshold for "carries the pack current"
 from .network import Network, NetworkError
 from ..records import record
 
@@ -138,7 +138,7 @@ def sense_resistor(m: "DesignModel") -> SenseResistor | None:
         # Reversed, the charger's open-circuit voltage adds to the stack's [practice: REFERENCES.md];
         # the pin itself is clamped near the protector's rails, so nearly all of it lies across
         # the resistor.
-        voltage = ch.open_circuit_max + sv.high
+        voltage = ch.open_circuit_max + sv.max
         if resistance:
             current = voltage / resistance
             power = voltage * current
@@ -174,27 +174,26 @@ def scenarios(m: "DesignModel") -> list[tuple[str, Any]]:
         try:
             out.append((case, net.solve(ground=stack.bottom)))
         except NetworkError as exc:
-            from .design import ModelProblem
             m.problems.append(ModelProblem("support", f"{case}: {exc}"))
 
-    solve("the cells at the overcharge detection maximum, terminals open", cv.high, set())
+    solve("the cells at the overcharge detection maximum, terminals open", cv.max, set())
     ch = m.design.charger
     if ch is not None and pos != neg:
         def charger(net: Network) -> None:
             net.add_source("(charger)", pos, neg, ch.open_circuit_max, _CHARGER_R)
         solve("a charger at its open-circuit voltage with the charge switches off and the cells "
-              "at the over-discharge detection minimum", cv.low, {"charge"}, charger)
+              "at the over-discharge detection minimum", cv.min, {"charge"}, charger)
         if ch.reverse_polarity.value == "possible":
             def reversed_charger(net: Network) -> None:
                 net.add_source("(charger)", neg, pos, ch.open_circuit_max, _CHARGER_R)
-            solve("a charger connected reversed with the discharge switches off", cv.high,
+            solve("a charger connected reversed with the discharge switches off", cv.max,
                   {"discharge"}, reversed_charger)
     bal = _balance_switches(m)
     if bal:
         def balancing(net: Network) -> None:
             for name, a, b in bal:
                 net.add_resistor(name, a, b, _CHANNEL_ON)
-        solve("balancing every cell at the overcharge detection maximum", cv.high, set(), balancing)
+        solve("balancing every cell at the overcharge detection maximum", cv.max, set(), balancing)
     return out
 
 
@@ -252,7 +251,7 @@ def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
         if _two_pins(c) is None:
             continue
         r_typ = m.part_resistance(c, 25.0, "typ")
-        r_high = m.part_resistance(c, 25.0, "high")
+        r_high = m.part_resistance(c, 25.0, "max")
         worst: tuple[float, str] | None = None
         for case, sol in cases:
             i = sol.currents.get(c.refdes)
@@ -278,8 +277,8 @@ def _path_shares(m: "DesignModel") -> dict[str, float]:
     if t is None or stack is None:
         return {}
     emf = m.cell_limits.nominal if m.cell_limits else 3.6
-    net = m.network(t.high.rds, cell_emf=emf, cell_r=stack.part.internal_resistance.nominal,
-                    temp=t.high.ambient, corner="low")
+    net = m.network(t.at_max.rds, cell_emf=emf, cell_r=stack.part.internal_resistance.nominal,
+                    temp=t.at_max.ambient, corner="min")
     try:
         sol = net.solve(ground=stack.bottom)
     except NetworkError:

@@ -128,9 +128,21 @@ def junction_temperature(ambient: float, power_fn: Callable[[float], float], the
                           f"found by bisection",))
 
 
+#: The steady states of the model's power path are held to this: |target - T_J| below it, kelvin.
+TJ_TOLERANCE = 0.01
+#: Fixed points of a path carrying a fixed current: at most this many solves.
+LOAD_ITERATIONS = 200
+# The permitted-current fixed point T -> T_A + P(T)·R_θJA has a falling P(T) when the FETs are
+# the sense resistance (P = V²/R), so plain iteration can overshoot; half steps settle any loop
+# gain between -3 and 1 [derived: fixed-point iteration x + w(f(x) - x), |1 - w + w·f'| < 1].
+TRIP_DAMPING = 0.5
+TRIP_ITERATIONS = 400
+#: Far enough above any rating that an iterate this hot can only be a diverging loop.
+RUNAWAY_MARGIN = 1000.0
+
 #: A secant step is taken only where the residual falls at least this fast with temperature
 #: (loop gain R_θJA·dP/dT at most 0.75), so no step is more than four times the plain one.
-_SECANT_MIN_FALL = 0.25
+SECANT_MIN_FALL = 0.25
 
 
 def accelerated_step(t: float, target: float, previous: tuple[float, float] | None,
@@ -151,7 +163,7 @@ def accelerated_step(t: float, target: float, previous: tuple[float, float] | No
         t0, r0 = previous
         if t != t0:
             slope = (residual - r0) / (t - t0)
-            if slope <= -_SECANT_MIN_FALL and math.isfinite(slope):
+            if slope <= -SECANT_MIN_FALL and math.isfinite(slope):
                 return t - residual / slope
     return t + damping * residual
 

@@ -17,16 +17,8 @@ from typing import Any, Sequence
 
 from markupsafe import Markup, escape
 
-from ..model.copper import ipc2221_current, oz_to_thickness
-from ..model.fuse import CONTINUOUS_DERATING
 from ..quantities import format_quantity
 from ..records import record
-
-#: Commercial junction-temperature derating line [practice: REFERENCES.md "MOSFETs": T_J ≤ 125 °C].
-TJ_DERATED = 125.0
-#: Temperature rise the trace ratings are read at. IPC-2221's chart spans 10-100 K; 10 K is the
-#: usual conservative choice for a pack's power path [practice].
-TRACE_RISE = 10.0
 
 FONT = 12  # px, the chart text size
 # Average advance of a character of the report's sans-serif face, in em: DejaVu Sans runs near
@@ -223,30 +215,14 @@ TITLES = {"ladder": "Voltage ladder (per cell)", "trip": "Trip-current window",
           "tj": "Junction temperature against ambient"}
 
 
-@record(frozen=True)
-class Limits:
-    """The project's settings that draw lines on the charts, as the rules that judge by them
-    read them: the fuse derating of ``secondary-protection`` and the trace rise of
-    ``conductor-capacity``. A chart that drew its own would disagree with the findings."""
-
-    fuse_derating: float = CONTINUOUS_DERATING
-    trace_rise: float = TRACE_RISE
-
-    @classmethod
-    def of(cls, options: dict) -> "Limits":
-        fuse, trace = options.get("secondary-protection"), options.get("conductor-capacity")
-        return cls(getattr(fuse, "derating", CONTINUOUS_DERATING),
-                   getattr(trace, "delta_t", TRACE_RISE))
-
-
-def charts_for(model: Any, limits: Limits = Limits()) -> list[Chart]:
+def charts_for(model: Any) -> list[Chart]:
     """The three charts of a design. A chart the design lacks the parts for says why instead.
 
     Each is drawn on its own: a model figure that fails (the engine has reported it already)
     costs the chart that needs it, never the report.
     """
     out = []
-    for cid, build in (("ladder", voltage_ladder), ("trip", lambda m: trip_window(m, limits)),
+    for cid, build in (("ladder", voltage_ladder), ("trip", trip_window),
                        ("tj", junction_temperature)):
         try:
             out.append(build(model))
@@ -298,7 +274,7 @@ def ladder_data(model: Any) -> tuple[list[Band], list[Level], list[str]]:
     if ch is None:
         notes.append("no charger in the design: its band is not shown")
     else:
-        bands.append(Band("charger", "regulation", ch.low, ch.typ, ch.high, "b-charger"))
+        bands.append(Band("charger", "regulation", ch.min, ch.typ, ch.max, "b-charger"))
     levels = [
         Level("overcharge limit", cl.overcharge_limit, "l-never"),
         Level("upper limit", cl.upper_limit, "l-limit"),
@@ -483,21 +459,22 @@ def _window_text(low: float, typ: float, high: float) -> str:
     return span if "–" not in span else f"{span}, typ {q(typ, 'A')}"
 
 
-def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | None, list[str]]:
+def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
     """Rows of the trip chart, the prospective short circuit row (kept apart: it may be off scale),
     and notes."""
     rows: list[Row] = []
     notes: list[str] = []
+    limits = model.limits  # the fuse derating and trace rise the rules judge by
     t, sc = model.overcurrent_trip, model.short_circuit_trip
     p = model.protector
     if t is not None and _finite_pos(t.min) and _finite_pos(t.max):
-        rows.append(Row(f"{p.refdes} over-current trip", "band", t.min, t.max, t.typical,
-                        _window_text(t.min, t.typical, t.max), "r-trip"))
+        rows.append(Row(f"{p.refdes} over-current trip", "band", t.min, t.max, t.typ,
+                        _window_text(t.min, t.typ, t.max), "r-trip"))
     elif p is not None:
         notes.append("over-current trip window could not be computed (see the findings)")
     if sc is not None and _finite_pos(sc.min) and _finite_pos(sc.max):
-        rows.append(Row(f"{p.refdes} short-circuit trip", "band", sc.min, sc.max, sc.typical,
-                        _window_text(sc.min, sc.typical, sc.max), "r-short"))
+        rows.append(Row(f"{p.refdes} short-circuit trip", "band", sc.min, sc.max, sc.typ,
+                        _window_text(sc.min, sc.typ, sc.max), "r-short"))
     load = model.design.load
     if _finite_pos(load.continuous):
         rows.append(Row("continuous load", "mark", load.continuous, load.continuous, None,
@@ -508,12 +485,12 @@ def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | N
     stack = model.stack
     if stack is not None and stack.part is not None:
         per = stack.part.max_current.discharge
-        total = per * stack.parallel
+        total = stack.discharge_rating
         rows.append(Row(f"cell discharge max, {stack.parallel}P × {q(per, 'A')}", "rating", total, total,
                         None, q(total, "A"), "r-rating"))
     # FETs: the pack current at which the most loaded channel of a package reaches its id_max,
     # from how current divides at the low-resistance corner (as the trip-window rule reads it).
-    shares = t.high.share if t is not None else {}
+    shares = t.at_max.share if t is not None else {}
     # Packages with the same limit are one row: a bank of identical pairs reads as one rating.
     fets: dict[tuple[float, float], list[str]] = {}
     for pkg in sorted({c.package for c in model.channels}):
@@ -531,7 +508,7 @@ def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | N
     for f in model.netlist.of_kind("fuse", "ptc", "wire", "trace"):
         part = f.part
         if f.kind == "fuse":
-            v = part.rated_current * limits.fuse_derating
+            v = limits.fuse_current(part)
             rows.append(Row(f"{f.refdes} fuse derated, {limits.fuse_derating * 100:g} % of {q(part.rated_current, 'A')}",
                             "rating", v, v, None, q(v, "A"), "r-rating"))
         elif f.kind == "ptc":
@@ -541,9 +518,8 @@ def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | N
             rows.append(Row(f"{f.refdes} wire rating", "rating", part.rated_current, part.rated_current,
                             None, q(part.rated_current, "A"), "r-rating"))
         elif f.kind == "trace":
-            thick = part.thickness if part.thickness is not None else oz_to_thickness(part.copper_weight)
             try:
-                cap = ipc2221_current(part.width, thick, limits.trace_rise, part.layer.value).current
+                cap = limits.trace_capacity(part).current
             except ValueError:
                 continue
             rows.append(Row(f"{f.refdes} trace, IPC-2221 at ΔT {limits.trace_rise:g} K", "rating", cap, cap,
@@ -555,13 +531,13 @@ def trip_rows(model: Any, limits: Limits = Limits()) -> tuple[list[Row], Row | N
     return rows, psc_row, notes
 
 
-def trip_window(model: Any, limits: Limits = Limits()) -> Chart:
+def trip_window(model: Any) -> Chart:
     chart = Chart("trip", TITLES["trip"],
                   "Where the protector's over-current and short-circuit detections trip, over every "
                   "tolerance and corner, against the loads it must carry and the ratings of the parts "
                   "in the path. The shaded column is the over-current trip window: loads belong left "
                   "of it, ratings right of it.")
-    rows, psc, notes = trip_rows(model, limits)
+    rows, psc, notes = trip_rows(model)
     chart.notes.extend(notes)
     if not rows:
         chart.notes.append("nothing to plot: no trip window, load or rating is known")
@@ -669,11 +645,11 @@ def tj_curves(model: Any) -> tuple[list[Curve], list[str]]:
     cases = (
         # The trip-min corner: highest on-resistance, lowest gate drive (the protector at its
         # over-discharge detection), i.e. the worst case for heat at a given load.
-        ("worst", "max", gd.low, False),
+        ("worst", "max", gd.min, False),
         ("typ", "typ", gd.typ, True),
     )
     curves: list[Curve] = []
-    ambients = ambient_points(a.low, a.high)
+    ambients = ambient_points(a.min, a.max)
     for name, corner, vgs, dashed in cases:
         pts: dict[str, list[tuple[float, float]]] = {p: [] for p in packages}
         runaway: dict[str, float | None] = {p: None for p in packages}
@@ -715,17 +691,18 @@ def junction_temperature(model: Any) -> Chart:
     packages = sorted(parts)
     t = model.overcurrent_trip
     corner_pt = None
-    if t is not None and t.low.current == load and not t.low.runaway:
-        corner_pt = {pkg: (t.low.ambient, t.low.tj[pkg]) for pkg in packages if pkg in t.low.tj}
+    if t is not None and t.at_min.current == load and not t.at_min.runaway:
+        corner_pt = {pkg: (t.at_min.ambient, t.at_min.tj[pkg]) for pkg in packages if pkg in t.at_min.tj}
 
     W, H = 530.0, 440.0
     x0, x1, top, bottom = 46.0, W - 178.0, 22.0, H - 46.0
     tj_limits = sorted({parts[p].tj_max for p in packages})
-    ys = [v for c in curves for _, v in c.points] + tj_limits + [TJ_DERATED, a.low, a.high]
+    derated = model.limits.junction  # switch-temperature's limit, as the rule judges by it
+    ys = [v for c in curves for _, v in c.points] + tj_limits + [derated, a.min, a.max]
     ylo, yhi = min(ys), max(ys)
     pad = (yhi - ylo) * 0.06
     ylo, yhi = ylo - pad, yhi + pad
-    xlo, xhi = a.low, a.high if a.high > a.low else a.low + 1.0
+    xlo, xhi = a.min, a.max if a.max > a.min else a.min + 1.0
 
     def x(v: float) -> float:
         return x0 + (v - xlo) / (xhi - xlo) * (x1 - x0)
@@ -749,8 +726,8 @@ def junction_temperature(model: Any) -> Chart:
     # the diagonal: a junction at ambient, no self-heating, for scale
     svg.line(x(xlo), y(xlo), x(xhi), y(xhi), "l-diagonal")
     labels.append((y(xhi), "Tj = ambient", "t-diagonal"))
-    svg.line(x0, y(TJ_DERATED), x1, y(TJ_DERATED), "l-limit")
-    labels.append((y(TJ_DERATED), f"derating {TJ_DERATED:g} °C", "t-l-limit"))
+    svg.line(x0, y(derated), x1, y(derated), "l-limit")
+    labels.append((y(derated), f"derating {derated:g} °C", "t-l-limit"))
     for lim in tj_limits:
         who = refs_text([p for p in packages if parts[p].tj_max == lim])
         svg.line(x0, y(lim), x1, y(lim), "l-never")
@@ -780,7 +757,7 @@ def junction_temperature(model: Any) -> Chart:
         for (ax, tv), pkgs in sorted(drawn.items(), key=lambda kv: kv[1][0]):
             svg.el("circle", cx=float(x(ax)), cy=float(y(tv)), r=5.5, class_=f"corner c{colour[pkgs[0]]}")
             chart.values.append((f"{refs_text(pkgs)} at the trip-min corner ({ax:g} °C, "
-                                 f"{q(t.low.vgs, 'V')} gate drive)", f"{tv:.1f} °C"))
+                                 f"{q(t.at_min.vgs, 'V')} gate drive)", f"{tv:.1f} °C"))
     ly = spread([w for w, _, _ in labels], FONT + 4, top, bottom)
     for (wanted, text, css), lyy in zip(labels, ly):
         svg.el("polyline", points=f"{_n(x1)},{_n(wanted)} {_n(x1 + 8)},{_n(lyy)} {_n(x1 + 12)},{_n(lyy)}",
@@ -789,7 +766,7 @@ def junction_temperature(model: Any) -> Chart:
     for lim in tj_limits:
         chart.values.append((f"tj_max ({refs_text([p for p in packages if parts[p].tj_max == lim])})",
                              f"{lim:g} °C"))
-    chart.values.append(("derating line", f"{TJ_DERATED:g} °C"))
+    chart.values.append(("derating line", f"{derated:g} °C"))
     chart.svg = svg.markup()
     return chart
 

@@ -19,7 +19,7 @@ from ..api import Severity
 from ..engine import DesignResult, RunResult
 from ..quantities import format_quantity
 from . import RenderOptions
-from .charts import Chart, Limits, charts_for, span_text
+from .charts import Chart, charts_for, span_text
 from .text import CAUTION
 from ..records import record
 
@@ -148,7 +148,7 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
         internal=[f"internal error in '{i.rule}': {i.message}" for i in d.internal],
         figures=_figures(d.figures),
         conditions=_safely(_conditions, model) if model is not None else [],
-        charts=charts_for(model, Limits.of(d.options)) if model is not None and not d.errors else [])
+        charts=charts_for(model) if model is not None and not d.errors else [])
     if model is not None:
         view.assumptions = _safely(_assumptions, model)
     return view
@@ -213,7 +213,7 @@ def _conditions(model: Any) -> list[tuple[str, str]]:
         out.append(("charger voltage", span_text(v.low, v.high, "V", 4)))
         per = model.charger_per_cell
         if per is not None and model.stack is not None and model.stack.series != 1:
-            out.append(("charger voltage per cell", span_text(per.low, per.high, "V", 4)))
+            out.append(("charger voltage per cell", span_text(per.min, per.max, "V", 4)))
         out.append(("charger current", format_quantity(ch.current, "A")))
         out.append(("charger open-circuit max", format_quantity(ch.open_circuit_max, "V")))
     stack = model.stack
@@ -236,7 +236,7 @@ def _assumptions(model: Any) -> list[str]:
         add(model.cell_limits.assumptions)
     for window in (model.overcurrent_trip, model.short_circuit_trip):
         if window is not None:
-            for op in (window.low, window.typ, window.high):
+            for op in (window.at_min, window.at_typ, window.at_max):
                 add(op.assumptions)
     add(f"{p.what}: {p.message}" for p in model.problems)
     return seen

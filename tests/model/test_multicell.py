@@ -32,8 +32,8 @@ def test_the_4s2p_stack(tmp_path):
     assert not s.problems
     assert m.stack_levels == {"B-": 0, "B1": 1, "B2": 2, "B3": 3, "B+": 4}
     # per-cell protector window times the series count [derived]
-    assert m.stack_voltage.high == pytest.approx(4 * 4.300)
-    assert m.stack_voltage.low == pytest.approx(4 * 2.650)
+    assert m.stack_voltage.max == pytest.approx(4 * 4.300)
+    assert m.stack_voltage.min == pytest.approx(4 * 2.650)
 
 
 def test_shunt_sensing_is_the_shunts_transresistance(tmp_path):
@@ -42,9 +42,9 @@ def test_shunt_sensing_is_the_shunts_transresistance(tmp_path):
     # the FETs heat [derived: Ohm's law; the transresistance of a series element is its value].
     m = _model(tmp_path, *RIDGE)
     t = m.overcurrent_trip
-    assert t.typ.sense_resistance == pytest.approx(1.5e-3, rel=1e-6)
-    assert t.high.sense_resistance == pytest.approx(1.485e-3, rel=1e-6)
-    assert t.low.sense_resistance == pytest.approx(1.515e-3, rel=1e-6)
+    assert t.at_typ.sense_resistance == pytest.approx(1.5e-3, rel=1e-6)
+    assert t.at_max.sense_resistance == pytest.approx(1.485e-3, rel=1e-6)
+    assert t.at_min.sense_resistance == pytest.approx(1.515e-3, rel=1e-6)
     assert m.sense_elements == ("RSH",) and m.sense_by_shunt
     # trip window: 45 mV / 1.515 mΩ to 55 mV / 1.485 mΩ [derived]
     assert (t.min, t.max) == pytest.approx((0.045 / 1.515e-3, 0.055 / 1.485e-3), rel=1e-6)
@@ -55,13 +55,13 @@ def test_fet_sensing_sees_the_switches(tmp_path):
     # [practice], trip = detection / (2 × R_DS(on) per FET).
     m = _model(tmp_path, *ORCHARD)
     assert m.sense_elements == ("Q1",) and not m.sense_by_shunt
-    op = m.overcurrent_trip.typ
+    op = m.overcurrent_trip.at_typ
     assert op.sense_resistance == pytest.approx(sum(op.rds.values()), rel=1e-6)
 
 
 def test_parallel_switches_share_the_current(tmp_path):
     # Two identical FETs in parallel carry half the current each [derived: equal conductances].
-    op = _model(tmp_path, *RIDGE).overcurrent_trip.typ
+    op = _model(tmp_path, *RIDGE).overcurrent_trip.at_typ
     for name in ("Q1", "Q2", "Q3", "Q4"):
         assert op.share[name] == pytest.approx(0.5, rel=1e-6)
 
@@ -118,7 +118,7 @@ def test_a_cell_driven_multicell_gate_drive_is_the_stack(tmp_path):
     m = _model(tmp_path, *RIDGE, lib_replace=(
         ("    gate_drive: 12 V                   # clamped gate driver, 12 V below the source when on",
          "    gate_drive: cell"),))
-    assert (m.gate_drive.low, m.gate_drive.high) == pytest.approx((4 * 2.65, 4 * 4.30))
+    assert (m.gate_drive.min, m.gate_drive.max) == pytest.approx((4 * 2.65, 4 * 4.30))
     assert m.gate_drive_problems == ()  # p-channel on the positive rail: the drive reaches
 
 

@@ -23,6 +23,7 @@ from markupsafe import escape
 
 from packwarden.engine import lint
 from packwarden.report import RenderOptions, formatter
+from packwarden.model.limits import Limits
 from packwarden.report.charts import FONT, Svg, refs_text, spread, text_width, trip_window
 from packwarden.report.html import render
 from packwarden.report.text import CAUTION
@@ -375,11 +376,12 @@ def test_trip_window_example_design() -> None:
 def test_trip_window_names_a_short_circuit_off_the_scale() -> None:
     # A prospective short circuit over 20 times the largest other current would squeeze the
     # window to a sliver: it is named at the edge, not drawn.
-    win = SimpleNamespace(min=2.0, max=6.0, typical=3.0, high=SimpleNamespace(share={}))
+    win = SimpleNamespace(min=2.0, max=6.0, typ=3.0, at_max=SimpleNamespace(share={}))
     model = SimpleNamespace(
         overcurrent_trip=win, short_circuit_trip=None, protector=SimpleNamespace(refdes="U1"),
         design=SimpleNamespace(load=SimpleNamespace(continuous=1.0, peak=None)), stack=None,
-        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), prospective_short_circuit=900.0)
+        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), prospective_short_circuit=900.0,
+        limits=Limits())
     chart = trip_window(model)
     assert "900 A, off scale →" in texts(ET.fromstring(chart.svg))
     assert any("beyond the axis" in n for n in chart.notes)

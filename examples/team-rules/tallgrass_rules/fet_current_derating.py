@@ -25,7 +25,7 @@ def check(ctx, options):
     if gd is None or not m.channels:
         return
     load = m.design.load.continuous
-    op = m.operating_point(load, m.ambient.high, gd.low, "max")
+    op = m.operating_point(load, m.ambient.max, gd.min, "max")
     worst: dict[str, tuple[float, object]] = {}
     for ch in m.channels:
         if ch.role is None:

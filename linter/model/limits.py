@@ -1,0 +1,72 @@
+"""The limits a design is judged by, resolved once per design: the rules, the yield run and the
+review report's charts read them from here, so none of them can judge by a number of its own.
+
+A limit is a rule option after the project's overrides (``[rules.switch-temperature] limit =
+"100 °C"``) combined with the part's own rating where both bound the same figure (the lower of
+the option and the FET's ``tj_max``). The built-in rules take their option defaults from the
+constants below, so a default is written down once.
+"""
+
+from __future__ import annotations
+
+from typing import Any, Mapping
+
+from ..records import record
+from . import copper
+from .fuse import CONTINUOUS_DERATING
+
+__all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN"]
+
+#: Highest junction temperature allowed in service, below the part's own tj_max [practice:
+#: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
+JUNCTION_LIMIT = 125.0
+#: Share of its rating a fuse may carry continuously [practice: 75 % at 25 °C, docs/references.md
+#: "Fuses"].
+FUSE_DERATING = CONTINUOUS_DERATING
+#: Temperature rise a trace is rated for, kelvin [practice: IPC-2221 ratings are commonly read at
+#: a 10 K rise].
+TRACE_RISE = 10.0
+#: How far the overcharge detection must sit above the charger's highest per-cell voltage, volts
+#: [practice: end-of-charge noise and the charger's ripple are tens of millivolts].
+CHARGE_MARGIN = 0.025
+
+
+@record(frozen=True)
+class Limits:
+    """The limits of one design's review.
+
+    ``junction``: switch-temperature's ``limit``; ``fuse_derating``: secondary-protection's
+    ``derating``; ``trace_rise``: conductor-capacity's ``delta_t``; ``charge_margin``:
+    threshold-ladder's ``charge_margin``.
+    """
+
+    junction: float = JUNCTION_LIMIT
+    fuse_derating: float = FUSE_DERATING
+    trace_rise: float = TRACE_RISE
+    charge_margin: float = CHARGE_MARGIN
+
+    @classmethod
+    def of(cls, options: Mapping[str, Any]) -> "Limits":
+        """The limits from each rule's options (by rule id) as the design was linted with them;
+        a rule that is not loaded leaves its default."""
+        temp = options.get("switch-temperature")
+        fuse = options.get("secondary-protection")
+        trace = options.get("conductor-capacity")
+        ladder = options.get("threshold-ladder")
+        return cls(getattr(temp, "limit", JUNCTION_LIMIT),
+                   getattr(fuse, "derating", FUSE_DERATING),
+                   getattr(trace, "delta_t", TRACE_RISE),
+                   getattr(ladder, "charge_margin", CHARGE_MARGIN))
+
+    def junction_ceiling(self, fet: Any) -> float:
+        """The highest junction temperature a FET part may reach: the limit or its tj_max."""
+        return min(self.junction, fet.tj_max)
+
+    def fuse_current(self, fuse: Any) -> float:
+        """The continuous current a fuse part may carry: its rating, derated."""
+        return fuse.rated_current * self.fuse_derating
+
+    def trace_capacity(self, trace: Any) -> copper.ConductorRating:
+        """The IPC-2221 rating of a trace part at the allowed rise (ValueError off the chart)."""
+        return copper.ipc2221_current(trace.width, copper.trace_thickness(trace),
+                                      self.trace_rise, trace.layer.value)

@@ -1,0 +1,402 @@
+"""The power-path solver: the network of a design built at a stated corner, solved, cached.
+
+Every current, sense resistance and steady state of the model comes from here: the network is
+built from the topology (cells, switch channels, series parts, an optional load) with each part at
+a corner of its spread (``min``, ``typ``, ``max``: the part's own minimum, typical and maximum
+value) and a temperature, and solved by :mod:`network`. Built branches and solutions of pure
+functions are memoized, so the corners and thermal fixed points that ask for the same network pay
+for it once.
+"""
+
+from __future__ import annotations
+
+import math
+from functools import cached_property
+from typing import Any
+
+from ..netlist import Component
+from ..records import record
+from . import copper, thermal
+from .network import Network, NetworkError, Switch
+from .rdson import DEFAULT_HOT_RATIO, rds_on
+from .topology import SwitchChannel, Topology
+from .values import (IDEAL, PROBE_LOAD, SIGNAL_OHMS, Corner, ModelProblem, corner_value,
+                     memo_key)
+
+__all__ = ["OperatingPoint", "PowerPath"]
+
+
+
+@record(frozen=True)
+class OperatingPoint:
+    """The path carrying ``current`` with every switch on, at a thermal steady state.
+
+    ``corner`` is the corner of every part's spread the point was solved at (``max``: the
+    highest on-resistances, resistor and cell resistances).
+    """
+
+    current: float
+    ambient: float
+    vgs: float
+    corner: str
+    rds: dict  # channel name -> ohms at its junction temperature
+    channel_current: dict  # channel name -> amperes (magnitude)
+    share: dict  # channel name -> amperes per ampere of pack current (how current divides)
+    tj: dict  # package -> °C
+    power: dict  # package -> W
+    sense_resistance: float
+    path_resistance: float  # between the stack and the terminals, all series parts
+    converged: bool
+    runaway: bool
+    assumptions: tuple[str, ...]
+
+
+class PowerPath:
+    """Builds and solves one design's power path; owns the memo of its pure functions."""
+
+    def __init__(self, topology: Topology, problems: list[ModelProblem]):
+        self.topology = topology
+        self.problems = problems
+        # Memos of pure functions of their arguments: the thermal fixed points and the corners
+        # ask for the same on-resistances, part resistances, branches and operating points many
+        # times over, and a large pack's path is rebuilt for every solve.
+        self._memo: dict = {}
+
+    def part_resistance(self, c: Component, temp: float, corner: str) -> float:
+        """Resistance of a non-switch part in the path at ``temp`` for a corner (low/typ/high)."""
+        key = ("part", c.refdes, memo_key(temp), corner)
+        value = self._memo.get(key)
+        if value is None:
+            value = self._memo[key] = self._part_resistance(c, temp, corner)
+        return value
+
+    def _part_resistance(self, c: Component, temp: float, corner: str) -> float:
+        part = c.part
+        if c.kind == "resistor":
+            k = {"min": 1 - part.tol / 100, "typ": 1.0, "max": 1 + part.tol / 100}[corner]
+            return max(part.value * k, IDEAL)
+        if c.kind == "fuse":
+            return part.resistance if part.resistance else IDEAL
+        if c.kind == "ptc":
+            return {"min": part.resistance.low, "typ": part.resistance.nominal,
+                    "max": part.resistance.high}[corner]
+        if c.kind == "trace":
+            return copper.trace_resistance(part.width, copper.trace_thickness(part), part.length, temp)
+        if c.kind == "wire":
+            return part.resistance if part.resistance else IDEAL
+        raise ValueError(c.kind)  # pragma: no cover
+
+    def network(self, rds: dict[str, float], *, cell_emf: float, cell_r: float, temp: float,
+                corner: str = "typ", switches_on: dict[str, bool] | None = None,
+                load: float | None = PROBE_LOAD, cells: bool = True,
+                exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf) -> Network:
+        """The power path: cells, switch channels, series parts, and an optional load.
+
+        ``exclude`` leaves parts out (to ask what happens without a fuse); ``max_ohms`` leaves out
+        resistors above it, which carry signals, not the pack's current.
+
+        Branches are immutable, so each one is built and checked once per value and reused: the
+        cells of a large pack are the same in nearly every solve, and only the switch channels
+        change from one thermal iteration to the next. The network is the one the ``add_*``
+        calls in this order would build.
+        """
+        memo = self._memo
+        if self.topology.stack is not None and cells:
+            key = ("cells", memo_key(cell_emf), memo_key(cell_r))
+            base = memo.get(key)
+            if base is None:
+                base = Network()
+                for c in self.topology.stack.cells:
+                    base.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
+                memo[key] = base
+            net = base.copy()
+        else:
+            net = Network()
+        for ch in self.topology.channels:
+            on = True if switches_on is None else switches_on.get(ch.name, True)
+            net.add(self._switch(ch, rds.get(ch.name, 1.0), on))
+        for c in self.topology.path_parts:
+            a, b = c.pins.get("1"), c.pins.get("2")
+            if a and b and a != b and c.refdes not in exclude:
+                r = self.part_resistance(c, temp, corner)
+                if r <= max_ohms:
+                    net.add(self._resistor(c.refdes, a, b, r))
+        if load is not None:
+            pos, neg = self.topology.terminals
+            if pos != neg:
+                net.add(self._resistor("(load)", pos, neg, load))
+        return net
+
+    def _resistor(self, name: str, a: str, b: str, ohms: float):
+        key = ("resistor", name, a, b, memo_key(ohms))
+        branch = self._memo.get(key)
+        if branch is None:
+            branch = self._memo[key] = Network().add_resistor(name, a, b, ohms)
+        return branch
+
+    def _switch(self, ch: SwitchChannel, ohms: float, on: bool):
+        # The channel's resistance changes with every thermal iteration, so only the checked
+        # first one is kept; the others copy its nets and body diode and take the new value,
+        # after the same check add_switch makes.
+        template = self._memo.get(("switch", ch.name))
+        if template is None:
+            template = self._memo[("switch", ch.name)] = Network().add_mosfet(
+                ch.name, drain=ch.drain, source=ch.source, channel=ch.channel, ohms_on=ohms, on=on)
+            return template
+        if (type(ohms) is float and type(on) is bool and ohms > 0.0 and math.isfinite(ohms)
+                and math.isfinite(1.0 / ohms)):
+            return Switch(template.name, template.a, template.b, ohms, on, template.body_diode)
+        return Network().add_mosfet(ch.name, drain=ch.drain, source=ch.source,
+                                    channel=ch.channel, ohms_on=ohms, on=on)
+
+    def channel_rds(self, ch: SwitchChannel, vgs: float, tj: float, corner: str) -> tuple[float, tuple[str, ...]]:
+        part = ch.part
+        hot = part.rds_on_hot_ratio
+        key = ("rds", id(part), memo_key(vgs), memo_key(tj), corner)
+        hit = self._memo.get(key)
+        if hit is None:
+            ratio, at = (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO
+            # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
+            points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
+            try:
+                res = rds_on(points, vgs, tj, ratio, at, corner)
+                hit = (res.value, res.assumptions, None)
+            except ValueError as exc:
+                # One table row and a gate drive below it: no slope to extrapolate. Use the row,
+                # and say loudly that this understates the resistance, rather than stop the review.
+                row = min(points)
+                res = rds_on([row], row[0], tj, ratio, at, corner)
+                hit = (res.value, res.assumptions, (exc, row))
+            self._memo[key] = hit
+        value, notes, failed = hit
+        if failed is not None:
+            exc, row = failed
+            return value, notes + (
+                f"{ch.package}: {exc}; the {row[0]:g} V row is used and understates R_DS(on) — "
+                f"add a second rds_on row",)
+        if hot is None:
+            notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
+                             f"[practice: 1.4-1.6 for 20 V parts]",)
+        return value, notes
+
+    def operating_point(self, current: float, ambient: float, vgs: float, corner: str,
+                        self_heating: bool = True) -> OperatingPoint:
+        """Steady state of the path carrying ``current``, switches on, at ``corner`` (typ|max|min).
+
+        The trip windows and the switch heat ask for the same points (the continuous load at
+        the highest ambient and lowest drive, for one); each is computed once.
+        """
+        key = ("op", memo_key(current), memo_key(ambient), memo_key(vgs), corner, self_heating)
+        hit = self._memo.get(key)
+        if hit is None:
+            before = len(self.problems)
+            op = self._operating_point(current, ambient, vgs, corner, self_heating)
+            hit = self._memo[key] = (op, self.problems[before:])
+        else:
+            self.problems.extend(hit[1])  # as a fresh computation would have recorded them
+        return hit[0]
+
+    def _operating_point(self, current: float, ambient: float, vgs: float, corner: str,
+                         self_heating: bool) -> OperatingPoint:
+        packages = {ch.package: ch.part for ch in self.topology.channels}
+        tj = {p: ambient for p in packages}
+        cell = self.topology.stack.part if self.topology.stack else None
+        cell_r = corner_value(cell.internal_resistance, corner) if cell else IDEAL
+        converged, runaway = True, False
+        notes: list[str] = []
+        previous: dict[str, tuple[float, float]] = {}
+        for _ in range(thermal.LOAD_ITERATIONS):
+            rds, notes, seen = {}, [], set()
+            for ch in self.topology.channels:
+                rds[ch.name], n = self.channel_rds(ch, vgs, tj[ch.package], corner)
+                for x in n:
+                    if x not in seen:
+                        seen.add(x)
+                        notes.append(x)
+            sol, sense, path_r = self.solve(rds, ambient, corner, cell_r)
+            i_load = abs(sol.current("(load)")) if sol is not None else 0.0
+            share = {ch.name: abs(sol.current(ch.name)) / i_load if sol and i_load else 0.0
+                     for ch in self.topology.channels}
+            ich = {name: f * current for name, f in share.items()}
+            power = {p: 0.0 for p in packages}
+            for ch in self.topology.channels:
+                power[ch.package] += ich[ch.name] ** 2 * rds[ch.name]
+            if not self_heating:
+                break
+            new = {p: ambient + power[p] * packages[p].theta_ja for p in packages}
+            if any(new[p] > packages[p].tj_max for p in packages):
+                tj, converged, runaway = new, False, True
+                break
+            delta = max((abs(new[p] - tj[p]) for p in packages), default=0.0)
+            if delta < thermal.TJ_TOLERANCE:
+                tj = new
+                break
+            # P = I²·R rises with T_J, so iterates from the ambient climb towards the lowest
+            # steady state and the first one past tj_max proves there is none below it. The
+            # secant (thermal.accelerated_step) gets there in fewer solves; it is kept at or
+            # below tj_max, where the image of any point still tells the two cases apart.
+            step = {p: min(thermal.accelerated_step(tj[p], new[p], previous.get(p)),
+                           packages[p].tj_max) for p in packages}
+            previous = {p: (tj[p], new[p] - tj[p]) for p in packages}
+            tj = step
+        else:
+            converged = False
+        return OperatingPoint(current, ambient, vgs, corner, rds, ich, share, tj, power, sense, path_r,
+                              converged, runaway, tuple(notes))
+
+    def solve(self, rds: dict[str, float], temp: float, corner: Corner,
+              cell_r: float) -> tuple[Any, float, float]:
+        """One nodal solve of the path with the probe load, every switch on, the other parts at
+        ``corner`` and ``temp``: (solution, sense resistance, stack-to-terminal path resistance)."""
+        if self.topology.stack is None:
+            return None, math.inf, math.inf
+        emf = self.topology.cell_limits.nominal if self.topology.cell_limits else 3.6
+        net = self.network(rds, cell_emf=emf, cell_r=cell_r, temp=temp, corner=corner)
+        try:
+            sol = net.solve(ground=self.topology.stack.bottom)
+        except NetworkError as exc:
+            self.problems.append(ModelProblem("network", str(exc)))
+            return None, math.inf, math.inf
+        i_load = abs(sol.current("(load)"))
+        sense = math.inf
+        p = self.topology.protector
+        if p is not None and i_load > 0:
+            g, s = p.pins.get("ground"), p.pins.get("sense")
+            if g and s and g in sol.voltages and s in sol.voltages:
+                v = sol.voltage_between(s, g)
+                if v is not None:
+                    sense = abs(v) / i_load
+        pos, neg = self.topology.terminals
+        path = math.inf
+        if i_load > 0:
+            vt = sol.voltage_between(pos, neg)
+            vs = sol.voltage_between(self.topology.stack.top, self.topology.stack.bottom)
+            if vt is not None and vs is not None:
+                path = abs(vs - vt) / i_load
+        return sol, sense, path
+
+
+    @cached_property
+    def high_side(self) -> dict[str, bool]:
+        """Channel name -> True when the channel switches the positive rail.
+
+        Read off a solve of the path under load: a channel whose source sits above half the stack
+        voltage is on the positive side [derived], whatever the drawing calls it.
+        """
+        if self.topology.stack is None or not self.topology.channels:
+            return {}
+        emf = self.topology.cell_limits.nominal if self.topology.cell_limits else 3.6
+        net = self.network({ch.name: 1e-3 for ch in self.topology.channels}, cell_emf=emf, cell_r=0.01,
+                           temp=25.0, max_ohms=SIGNAL_OHMS)
+        try:
+            sol = net.solve(ground=self.topology.stack.bottom)
+        except NetworkError:
+            return {}
+        top = sol.voltages.get(self.topology.stack.top)
+        out = {}
+        for ch in self.topology.channels:
+            v = sol.voltages.get(ch.source)
+            if v is not None and top:
+                out[ch.name] = v > top / 2
+        return out
+
+
+    def sense_elements(self, vgs: float) -> tuple[str, ...]:
+        """Parts of the power path whose resistance the protector's sense input sees.
+
+        Asked of the solver, not read off the drawing: each element's resistance is doubled in
+        turn, and it counts when the transresistance from load current to sense voltage moves
+        [derived: in a linear network only an element carrying the load current between the
+        sense pins changes that transresistance]. FET channels are named by package.
+        """
+        p = self.topology.protector
+        if p is None or self.topology.stack is None or not self.topology.channels:
+            return ()
+        g, s = p.pins.get("ground"), p.pins.get("sense")
+        if not g or not s:
+            return ()
+        rds = {ch.name: self.channel_rds(ch, vgs, 25.0, "typ")[0] for ch in self.topology.channels}
+        cell_r = self.topology.stack.part.internal_resistance.nominal
+        emf = self.topology.cell_limits.nominal if self.topology.cell_limits else 3.6
+
+        def sense(net: Network) -> float | None:
+            try:
+                sol = net.solve(ground=self.topology.stack.bottom)
+            except NetworkError:
+                return None
+            i = abs(sol.current("(load)"))
+            v = sol.voltage_between(s, g) if s in sol.voltages and g in sol.voltages else None
+            return abs(v) / i if v is not None and i > 0 else None
+
+        base = sense(self.network(rds, cell_emf=emf, cell_r=cell_r, temp=25.0))
+        if not base:
+            return ()
+        found: list[str] = []
+        for ch in self.topology.channels:
+            doubled = dict(rds, **{ch.name: 2 * rds[ch.name]})
+            r = sense(self.network(doubled, cell_emf=emf, cell_r=cell_r, temp=25.0))
+            if r is not None and abs(r - base) > 1e-6 * base and ch.package not in found:
+                found.append(ch.package)
+        for c in self.topology.path_parts:
+            a, b = c.pins.get("1"), c.pins.get("2")
+            if not a or not b or a == b:
+                continue
+            value = self.part_resistance(c, 25.0, "typ")
+            if value > SIGNAL_OHMS:
+                continue
+            net = self.network(rds, cell_emf=emf, cell_r=cell_r, temp=25.0,
+                               exclude=frozenset({c.refdes}))
+            net.add_resistor(c.refdes, a, b, 2 * value)
+            r = sense(net)
+            if r is not None and abs(r - base) > 1e-6 * base:
+                found.append(c.refdes)
+        return tuple(found)
+
+
+    def direction_network(self, off: str, external: str) -> Network:
+        """The path without cells, ``off``-role switches off, and a one-way external element.
+
+        ``external`` is "load" (current leaves the pack at the positive terminal and returns at
+        the negative one) or "charger" (current enters at the positive terminal).
+        """
+        rds = {ch.name: 1e-3 for ch in self.topology.channels}
+        states = {ch.name: ch.role != off for ch in self.topology.channels}
+        net = self.network(rds, cell_emf=0.0, cell_r=1.0, temp=25.0, switches_on=states,
+                           load=None, cells=False, max_ohms=SIGNAL_OHMS)
+        pos, neg = self.topology.terminals
+        if external == "load":
+            net.add_diode("(load)", pos, neg)
+        else:
+            net.add_diode("(charger)", neg, pos)
+        return net
+
+    def conducts(self, off: str, direction: str):
+        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge")."""
+        if self.topology.stack is None:
+            return None
+        top, bottom = self.topology.stack.top, self.topology.stack.bottom
+        if direction == "discharge":
+            net = self.direction_network(off, "load")
+            src, dst = top, bottom
+        else:
+            net = self.direction_network(off, "charger")
+            src, dst = bottom, top
+        if src not in net.nets or dst not in net.nets:
+            return None
+        return net.reachable(src, dst)
+
+    def in_series_with_path(self, refdes: str) -> bool:
+        """True when removing ``refdes`` separates the cells from the pack terminals."""
+        if self.topology.stack is None:
+            return False
+        rds = {ch.name: 1e-3 for ch in self.topology.channels}
+        net = self.network(rds, cell_emf=0.0, cell_r=1.0, temp=25.0, load=None, cells=False,
+                           exclude=frozenset({refdes}), max_ohms=SIGNAL_OHMS)
+        pos, neg = self.topology.terminals
+        for a, b in ((self.topology.stack.top, pos), (self.topology.stack.bottom, neg)):
+            if a == b:
+                continue
+            if a not in net.nets or b not in net.nets or net.reachable(a, b) is None:
+                return True
+        return False
+
