@@ -60,7 +60,9 @@ TARGET_FLOOR_RATIO = 3.0
 TARGET_COLD = 0.3  # s
 TARGET_SCALING = 12.0  # time ratio allowed for ten times the components
 TARGET_MEMORY = 150.0  # MB
-TARGET_MONTE_CARLO = 1.0  # s for 100 000 samples
+# s for 100 000 samples, by design: the single cell under 1 s, a 4S2P pack under 2 s (the large
+# pack and the low-side example are measured and stated, with no target).
+TARGET_MONTE_CARLO = {"single": 1.0, "pack4s2p": 2.0}
 
 FULL = dict(single=5000, pack4s2p=4900, large=100, scaling=[10, 20, 50, 100, 200, 500, 1000, 2000],
             cold_runs=11, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3,
@@ -590,10 +592,12 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
                  verdict(mem < TARGET_MEMORY)))
     for kind, m in res["monte_carlo"].items():
         scaled = m["median_s"] * 100_000 / m["samples"]
-        rows.append((f"100 000 Monte Carlo samples < 1 s ({kind})",
+        target = TARGET_MONTE_CARLO.get(kind)
+        rows.append((f"100 000 Monte Carlo samples"
+                     + (f" < {target:g} s" if target else "") + f" ({kind})",
                      f"{m['median_s']:.3f} s for {m['samples']:,}"
                      + (f" (~{scaled:.2f} s per 100 000)" if m["samples"] != 100_000 else ""),
-                     verdict(scaled < TARGET_MONTE_CARLO)))
+                     verdict(scaled < target if target else None)))
     return rows
 
 
@@ -756,7 +760,10 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
     res["scaling"] = scaling(files["scaling"], cfg["scaling_runs"])
 
     print(f"Monte Carlo yield, {cfg['mc_samples']:,} samples ...", flush=True)
-    res["monte_carlo"] = monte_carlo(samples, cfg["mc_samples"], cfg["mc_runs"])
+    # The example with the shunt between B- and the FET sources, the layout most multi-cell
+    # packs use, beside the corpus' own designs.
+    mc_files = dict(samples, lowside=REPO / "example_designs/ridgeline-blower-4s2p-lowside.yaml")
+    res["monte_carlo"] = monte_carlo(mc_files, cfg["mc_samples"], cfg["mc_runs"])
     res["monte_carlo_process"] = {}
     for kind in ("single", "pack4s2p"):
         res["monte_carlo_process"][kind] = median_of(

@@ -15,6 +15,7 @@ from pydantic import BaseModel, ConfigDict
 from .records import record
 
 if TYPE_CHECKING:  # pragma: no cover
+    from .model.design import DesignModel
     from .netlist import Netlist
     from .schema import Design
 
@@ -139,7 +140,9 @@ class RuleContext:
     file: str
     design: "Design"
     netlist: "Netlist"
-    model: Any  # packwarden.model.DesignModel
+    #: The design's model: every figure, limit and worst case a rule may read (docs/rules-api.md,
+    #: "The model").
+    model: "DesignModel"
     rule_id: str = ""
     severity: Severity = Severity.error
     _where: Callable[[tuple], tuple[int, int]] = field(default=lambda path: (1, 1), repr=False)

@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import copper
-from packwarden.model.limits import TRACE_RISE
+from packwarden.model import TRACE_RISE
 from packwarden import Q
 from pydantic import Field
 

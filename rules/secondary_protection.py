@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
-from packwarden.model.limits import FUSE_DERATING
+from packwarden.model import FUSE_DERATING
 
 
 class Options(RuleOptions):

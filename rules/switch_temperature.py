@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import stress
-from packwarden.model.limits import JUNCTION_LIMIT
+from packwarden.model import JUNCTION_LIMIT
 from packwarden import Q
 from pydantic import Field
 

@@ -1,6 +1,6 @@
 from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
-from packwarden.model.limits import CHARGE_MARGIN
+from packwarden.model import CHARGE_MARGIN
 
 
 class Options(RuleOptions):
