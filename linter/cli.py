@@ -83,7 +83,7 @@ def check(
         help="--yield draws: uniform within the limits, or normal with the tolerance as 3σ"),
     jobs: Optional[int] = typer.Option(
         None, "--jobs", "-j", metavar="N", min=1,
-        help="worker processes (default: one per processor for a batch of 16 designs or more, "
+        help="worker processes (default: one per processor for a batch of 48 designs or more, "
              "else 1; the html format and --yield lint in one process)"),
 ) -> None:
     """Lint designs; exit 0 clean, 1 findings at or above --fail-on, 2 input could not be used."""
@@ -224,8 +224,8 @@ def schema(kind: SchemaKind = typer.Argument(SchemaKind.design,
     """Print the JSON Schema of design files, part libraries or team policy files."""
     import json
 
-    from .schema import json_schema
-    sys.stdout.write(json.dumps(json_schema(kind.value), indent=2, ensure_ascii=False) + "\n")
+    from .docs import shipped_schema
+    sys.stdout.write(json.dumps(shipped_schema(kind.value), indent=2, ensure_ascii=False) + "\n")
 
 
 @app.command("new-rule")

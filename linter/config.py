@@ -80,7 +80,7 @@ def find_config(start: Path) -> Path | None:
     return None
 
 
-def _line_of(text: str, key: str, tables: tuple[str, ...] = ("",), prefix: str = "") -> tuple[int, int]:
+def line_of(text: str, key: str, tables: tuple[str, ...] = ("",), prefix: str = "") -> tuple[int, int]:
     """Where ``key`` is written: searched in ``tables`` (most specific first) under ``prefix``.
 
     tomllib keeps no positions, so this reads the text: within a table, the first line naming the key
@@ -154,7 +154,7 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
     table = data.get("tool", {}).get("packwarden", {}) if prefix else data
 
     def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
-        line, col = _line_of(text, key, tables, prefix)
+        line, col = line_of(text, key, tables, prefix)
         return InputError(shown, line, col, message)
 
     if not isinstance(table, dict):
@@ -205,7 +205,7 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
         return {rid: r.options() for rid, r in rules.items()}
 
     def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
-        line, col = _line_of(cfg.text, key, tables, cfg.prefix)
+        line, col = line_of(cfg.text, key, tables, cfg.prefix)
         return InputError(cfg.file or "", line, col, message)
 
     def known(rid: str, where: str, tables: tuple[str, ...] = ("",)) -> None:

@@ -40,6 +40,15 @@ PSEUDO_RULES = [
 ]
 
 
+def shipped_schema(which: str) -> dict:
+    """The JSON Schema shipped as ``schemas/{which}.schema.json``: design, parts or policy."""
+    if which == "policy":  # the team policy's model lives with its checks in policy.py
+        from .policy import policy_json_schema
+        return policy_json_schema()
+    from .schema import json_schema
+    return json_schema(which)
+
+
 def builtin_rules(rules: dict[str, Rule]) -> list[Rule]:
     """packwarden's own rules: those registered by the packwarden distribution's entry points."""
     return [rules[rid] for rid in sorted(rules) if rules[rid].origin.startswith("packwarden:")]

@@ -11,7 +11,7 @@ import json
 import sys
 from typing import Any
 
-from .engine import RunResult
+from .results import RunResult
 
 #: The seed ``--yield`` uses unless ``--seed`` is given; cli.py repeats it as the option's default
 #: (a test holds the two equal) so that importing the CLI never imports numpy.

@@ -43,7 +43,7 @@ from pydantic import BaseModel, Field, StrictFloat, StrictInt, StrictStr, WithJs
 from .api import Figure, Finding, RuleContext, Severity
 from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
-from .schema import PART_KINDS, Strict, Toleranced, _drop_titles, quantity_of
+from .schema import PART_KINDS, Strict, Toleranced, drop_titles, quantity_of
 from .validate import validate
 from .records import record
 
@@ -135,8 +135,8 @@ def policy_json_schema() -> dict:
     out = {"$schema": "http://json-schema.org/draft-07/schema#",
            "$id": "https://packwarden.invalid/schemas/policy.schema.json",
            "title": f"packwarden team policy (format {POLICY_FORMAT})"}
-    out.update(_drop_titles(schema))
-    out["definitions"] = {k: _drop_titles(v) for k, v in sorted(defs.items())}
+    out.update(drop_titles(schema))
+    out["definitions"] = {k: drop_titles(v) for k, v in sorted(defs.items())}
     return out
 
 

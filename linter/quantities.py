@@ -98,9 +98,9 @@ def parse_quantity(text: object, unit: str) -> float:
     """
     spec = UNITS[unit]
     if text is None:
-        raise QuantityError(f"no value given; expected {_expected(spec)}, e.g. '{_example(spec)}'")
+        raise QuantityError(f"no value given; expected {_expected(spec)}, e.g. '{example(spec)}'")
     if isinstance(text, bool):
-        raise QuantityError(f"expected {_expected(spec)}, e.g. '{_example(spec)}'; "
+        raise QuantityError(f"expected {_expected(spec)}, e.g. '{example(spec)}'; "
                             f"got the boolean {str(text).lower()}")
     if isinstance(text, (int, float)):
         if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month") or unit == "oz":
@@ -116,7 +116,7 @@ def parse_quantity(text: object, unit: str) -> float:
         value = _parse_text(text, spec)
     else:
         what = {"dict": "mapping"}.get(type(text).__name__, type(text).__name__)
-        raise QuantityError(f"expected {_expected(spec)} as text like '{_example(spec)}', "
+        raise QuantityError(f"expected {_expected(spec)} as text like '{example(spec)}', "
                             f"got a {what}")
     return _check_bounds(value, spec)
 
@@ -139,9 +139,9 @@ def _parse_text(text: str, spec: Unit) -> float:
     if not m:
         if _WIDE_GAP.match(raw):
             raise QuantityError(f"{_q(text)}: put a single space between the number and the "
-                                f"unit, e.g. '{_example(spec)}'")
+                                f"unit, e.g. '{example(spec)}'")
         raise QuantityError(f"{_q(text)} is not a number with a unit; expected "
-                            f"{_expected(spec)}, e.g. '{_example(spec)}'")
+                            f"{_expected(spec)}, e.g. '{example(spec)}'")
     if not rest:
         if spec.symbol in ("%", "°C", "K", "K/W", "months", "%/month", "oz"):
             value = float(m.group("num"))
@@ -156,7 +156,7 @@ def _parse_text(text: str, spec: Unit) -> float:
     if found is None:
         if " " in rest or not (rest[0].isalpha() or rest[0] in "°%℃"):
             raise QuantityError(f"{_q(text)} is not a number with a unit; expected "
-                                f"{_expected(spec)}, e.g. '{_example(spec)}'")
+                                f"{_expected(spec)}, e.g. '{example(spec)}'")
         hint = _case_hint(rest, spec)
         if hint is None and rest in _PREFIX and spec.prefixes:
             raise QuantityError(f"{_q(text)}: {_q(rest)} is a prefix without a unit; write "
@@ -218,7 +218,7 @@ def _rkm_hint(m: re.Match, spec: Unit) -> str:
     letter = m.group("letter")
     prefix = _RKM_PREFIX.get(letter, letter)
     if letter in "VAF" and letter != spec.symbol or prefix and not spec.prefixes:
-        return f"the value with a decimal point and unit, e.g. '{_example(spec)}'"
+        return f"the value with a decimal point and unit, e.g. '{example(spec)}'"
     return f"'{m.group('a')}.{m.group('b')} {prefix}{spec.symbol}'"
 
 
@@ -249,7 +249,7 @@ def _check_bounds(value: float, spec: Unit) -> float:
     return value
 
 
-def _example(spec: Unit) -> str:
+def example(spec: Unit) -> str:
     return {"V": "4.25 V", "A": "1.2 A", "Ω": "22 mΩ", "F": "100 nF", "H": "500 nH",
             "W": "0.25 W", "s": "40 ms", "Ah": "3.4 Ah", "%": "1 %", "°C": "-20 °C",
             "K": "10 K", "K/W": "120 K/W", "A²s": "10 A²s", "m": "2 mm", "oz": "1 oz",

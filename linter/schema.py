@@ -91,7 +91,7 @@ class QuantitySchema:
 
 
 def _example(unit: str) -> str:
-    from .quantities import _example as ex  # one table of examples
+    from .quantities import example as ex  # one table of examples
     return ex(UNITS[unit])
 
 
@@ -101,13 +101,13 @@ AmpHours, Percent, Celsius, Kelvin = Q("Ah"), Q("%"), Q("°C"), Q("K")
 KelvinPerWatt, AmpSquaredSeconds, Metres = Q("K/W"), Q("A²s"), Q("m")
 
 
-def _drop_titles(node: Any) -> Any:
+def drop_titles(node: Any) -> Any:
     # pydantic's per-property titles only repeat the key; editors show descriptions instead.
     if isinstance(node, dict):
-        return {k: _drop_titles(v) for k, v in node.items()
+        return {k: drop_titles(v) for k, v in node.items()
                 if not (k == "title" and isinstance(v, str))}
     if isinstance(node, list):
-        return [_drop_titles(v) for v in node]
+        return [drop_titles(v) for v in node]
     return node
 
 
@@ -183,7 +183,7 @@ class TolJsonSchema:
         self.given, self.unit = given, unit
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
-        given_schema = _drop_titles(self.given.model_json_schema())
+        given_schema = drop_titles(self.given.model_json_schema())
         given_schema["description"] = f"{UNITS[self.unit].name}: any of typ, min, max; or typ with tol"
         return {"anyOf": [given_schema, q_schema(self.unit)]}
 
@@ -929,18 +929,16 @@ class PartLibrary(Strict):
 # --- JSON Schema --------------------------------------------------------------------------------
 
 def json_schema(which: str) -> dict:
-    """The JSON Schema of a design or a part library, in draft-07-compatible keywords."""
-    if which == "policy":  # the team policy's model lives with its checks in policy.py
-        from .policy import policy_json_schema
-        return policy_json_schema()
+    """The JSON Schema of a design or a part library, in draft-07-compatible keywords (a team
+    policy's is ``policy.policy_json_schema``; ``docs.shipped_schema`` gives any of the three)."""
     model = {"design": Design, "parts": PartLibrary}[which]
     schema = model.model_json_schema(ref_template="#/definitions/{model}", mode="validation")
     defs = schema.pop("$defs", {})
-    schema = _drop_titles(schema)
+    schema = drop_titles(schema)
     out = {"$schema": "http://json-schema.org/draft-07/schema#",
            "$id": f"https://packwarden.invalid/schemas/{which}.schema.json",
            "title": {"design": "packwarden design (format packwarden/1)",
                      "parts": "packwarden part library (format packwarden-parts/1)"}[which]}
     out.update(schema)
-    out["definitions"] = {k: _drop_titles(v) for k, v in sorted(defs.items())}
+    out["definitions"] = {k: drop_titles(v) for k, v in sorted(defs.items())}
     return out

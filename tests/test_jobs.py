@@ -16,7 +16,7 @@ from pathlib import Path
 
 import pytest
 
-from packwarden.engine import PARALLEL_MIN_DESIGNS, _worker_count, lint, load_registry
+from packwarden.engine import PARALLEL_MIN_DESIGNS, worker_count, lint, load_registry
 
 REPO = Path(__file__).resolve().parent.parent
 EXAMPLE = (REPO / "example_designs" / "orchard-probe.yaml").read_text(encoding="utf-8")
@@ -110,10 +110,10 @@ def test_a_caller_registry_is_used_by_the_workers(repo: Path) -> None:
 
 
 def test_how_many_workers() -> None:
-    assert _worker_count(1, 10_000, True) == 1
-    assert _worker_count(4, 3, True) == 3  # never more workers than designs
-    assert _worker_count(None, PARALLEL_MIN_DESIGNS - 1, True) == 1  # small batches stay here
-    assert _worker_count(None, PARALLEL_MIN_DESIGNS, True) >= 1
+    assert worker_count(1, 10_000, True) == 1
+    assert worker_count(4, 3, True) == 3  # never more workers than designs
+    assert worker_count(None, PARALLEL_MIN_DESIGNS - 1, True) == 1  # small batches stay here
+    assert worker_count(None, PARALLEL_MIN_DESIGNS, True) >= 1
 
 
 def test_the_command_line_report_is_the_same_with_workers(repo: Path) -> None:

@@ -187,8 +187,8 @@ def test_absolute_zero_itself_is_accepted():
 @pytest.mark.parametrize("unit", sorted(UNITS))
 def test_every_unit_accepts_its_own_example(unit):
     # The example a message suggests must itself be accepted, or the advice is a trap.
-    from packwarden.quantities import _example
-    value = parse_quantity(_example(UNITS[unit]), unit)
+    from packwarden.quantities import example
+    value = parse_quantity(example(UNITS[unit]), unit)
     assert math.isfinite(value)
 
 

@@ -7,7 +7,7 @@ import jsonschema
 import pytest
 
 from packwarden.loader import load_file
-from packwarden.schema import json_schema
+from packwarden.docs import shipped_schema as json_schema
 
 ROOT = Path(__file__).resolve().parents[1]
 

@@ -653,13 +653,25 @@ class Network:
                    if on[k] and v[p] - v[q] - vf <= knee_tol]
         for k in at_knee:
             on[k] = False
-        if leaks or at_knee:
-            # Report on the exact model: off diodes open, so floating islands show as such.
+
+        def exact() -> tuple[list[int], list[float]]:
+            # The exact model: off diodes open, so floating islands show as such.
             elements = linear_elements + [(p, q, g_on, vf) for (_, _, p, q, vf, g_on), s
                                           in zip(diodes, on) if s]
             component = _components(n, elements)
             reference, unknowns = _references(n, component, ig)
-            v = _solve_nodal(n, elements, reference, unknowns)
+            return component, _solve_nodal(n, elements, reference, unknowns)
+
+        if leaks or at_knee:
+            component, v = exact()
+            # A diode with an on-resistance far below the rest of its loop drops almost nothing
+            # while it carries current (a sub-microvolt EMF behind ohms): opening it leaves it
+            # forward of its knee, so it stays on after all.
+            back = [k for k in at_knee if v[diodes[k][2]] - v[diodes[k][3]] - diodes[k][4] > v_tol]
+            if back:
+                for k in back:
+                    on[k] = True
+                component, v = exact()
 
         currents = {name: 0.0 for name in self._branches}
         for name, sign, p, q, g, e in linear:

@@ -16,7 +16,7 @@ from jinja2 import Environment, PackageLoader, StrictUndefined
 
 from .. import __version__
 from ..api import Severity
-from ..engine import DesignResult, RunResult
+from ..results import DesignResult, RunResult
 from ..quantities import format_quantity
 from . import RenderOptions
 from .charts import Chart, charts_for, span_text

@@ -7,7 +7,7 @@ import math
 from dataclasses import asdict
 
 from .. import __version__
-from ..engine import RunResult
+from ..results import RunResult
 from . import RenderOptions
 
 

@@ -30,7 +30,7 @@ from pathlib import PurePosixPath
 from typing import Any
 
 from ..api import Finding
-from ..engine import DesignResult, RunResult
+from ..results import DesignResult, RunResult
 from . import RenderOptions, relative_path, report_root
 from .text import CAUTION
 

@@ -12,7 +12,7 @@ import re
 from typing import Any
 
 from ..api import Finding, Severity
-from ..engine import RunResult
+from ..results import RunResult
 from ..quantities import format_quantity
 from . import RenderOptions, relative_path, report_root
 from .text import CAUTION

@@ -36,7 +36,7 @@ from typing import Any
 
 from .. import __version__
 from ..api import Finding, Rule, Severity
-from ..engine import RunResult
+from ..results import RunResult
 from . import RenderOptions, relative_path, report_root
 from .text import CAUTION
 

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from ..api import Severity
 from ..quantities import format_quantity
-from ..engine import RunResult
+from ..results import RunResult
 from . import RenderOptions
 
 CAUTION = ("Caution: lithium cells can vent, burn or explode. This review is an aid, not a substitute "

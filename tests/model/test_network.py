@@ -580,3 +580,16 @@ def test_adding_a_resistor_never_raises_equivalent_resistance(case, extra):
     after = net.equivalent_resistance(a, b)
     assert after <= before * (1 + 1e-9) or before == math.inf
     assert after == pytest.approx(net.equivalent_resistance(b, a), rel=1e-9)
+
+
+def test_a_diode_carrying_a_tiny_current_stays_on():
+    # A 0.12 µV EMF drives its loop through 1 kΩ and a 0.1 mΩ diode: the diode drops 1.2e-14 V
+    # while it conducts, which looks like "at its knee", but opened it would sit 0.12 µV forward,
+    # 100 times the solver's state tolerance. It must be reported on [derived: the diode law].
+    net = Network()
+    net.add_source("V", "N3", "N2", 1.192092896e-07, 1e-3)
+    net.add_resistor("R", "N3", "N0", 1e3)
+    net.add_diode("D", "N0", "N2", 0.0, 1e-4)
+    sol = net.solve("N0")
+    assert "D" in sol.conducting_diodes
+    assert sol.current("D") == pytest.approx(1.192092896e-07 / (1e3 + 1e-3 + 1e-4), rel=1e-9)

@@ -1,0 +1,334 @@
+"""One design from file to findings, in phases: load -> validate -> resolve libraries ->
+netlist -> model -> rules (each isolated) -> policy -> waivers. The run's shared state (configs,
+libraries, policies) is a :class:`Session`.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import os
+import time
+from dataclasses import field, replace
+from pathlib import Path
+from typing import Any, Iterable
+
+from .api import Finding, RuleContext
+from .config import Config, check_against_rules, find_config, line_of, load_config
+from .library import LibraryCache, repository_root, resolve_libraries, shown_path
+from .loader import Document, InputError, load_file
+from .netlist import Netlist, build_netlist
+from .records import record
+from .registry import Registry
+from .results import DesignResult, InternalError
+from .schema import Design
+from .validate import validate
+
+# --- discovery ----------------------------------------------------------------------------------
+
+def is_design_text(head: str) -> bool:
+    for line in head.splitlines():
+        stripped = line.strip()
+        if stripped.startswith("format:"):
+            return stripped.split(":", 1)[1].strip().strip("'\"") == "packwarden/1"
+    return False
+
+
+def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> list[tuple[Path, str]]:
+    """Files named directly, and design files (``format: packwarden/1``) inside named folders.
+
+    A named folder holding no design is an error (in ``errors``): a typo in a CI path must not
+    pass as "nothing to report".
+    """
+    out: list[tuple[Path, str]] = []
+    for raw in paths:
+        p = Path(raw)
+        if p.is_dir():
+            before = len(out)
+            for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
+                try:
+                    with open(f, encoding="utf-8", errors="replace") as fh:
+                        head = fh.read(4096)
+                except OSError:
+                    continue
+                if is_design_text(head):
+                    out.append((f, shown_path(f)))
+            if len(out) == before and errors is not None:
+                errors.append(InputError(raw, 1, 1, "no design files (format: packwarden/1) in "
+                                                    "this folder"))
+        else:
+            out.append((p, raw))
+    return out
+
+
+# --- running ------------------------------------------------------------------------------------
+
+@record
+class Session:
+    """State shared across the designs of one run: libraries, configs and the registry."""
+
+    registry: Registry
+    libraries: LibraryCache = field(default_factory=LibraryCache)
+    configs: dict[Path | None, tuple[Config | None, dict, InputError | None]] = field(default_factory=dict)
+    config_override: Path | None = None
+    today: _dt.date = field(default_factory=_dt.date.today)
+
+    #: Per folder of designs: the config found above it, and its repository root (a batch
+    #: holds thousands of designs in a few folders; each walk up the tree is done once).
+    config_paths: dict[Path, Path | None] = field(default_factory=dict)
+    roots: dict[Path, Path] = field(default_factory=dict)
+
+    def root_for(self, folder: Path) -> Path:
+        root = self.roots.get(folder)
+        if root is None:
+            root = self.roots[folder] = repository_root(folder)
+        return root
+
+    def config_for(self, design: Path) -> tuple[Config | None, dict, InputError | None]:
+        path = self.config_override
+        if path is None:
+            folder = design.parent
+            if folder not in self.config_paths:
+                self.config_paths[folder] = find_config(folder)
+            path = self.config_paths[folder]
+        if path not in self.configs:
+            try:
+                cfg = load_config(path, shown_path(path) if path else None)
+                options = check_against_rules(cfg, self.registry.rules)
+                self.configs[path] = (cfg, options, None)
+            except InputError as exc:
+                self.configs[path] = (None, {}, exc)
+        return self.configs[path]
+
+    #: Team policies by file, read once per run: (policy or None, its errors).
+    policies: dict[Path, tuple[Any, list[InputError]]] = field(default_factory=dict)
+
+    def policy_for(self, cfg: Config) -> Any:
+        """The team policy ``cfg`` names (``packwarden.policy.Policy``), or None.
+
+        A policy with mistakes is reported once for the run (see :func:`lint`) and checks
+        nothing; the rules still run, so one typo in the policy does not hide every finding.
+        """
+        if cfg.policy is None:
+            return None
+        key = cfg.policy.resolve()
+        if key not in self.policies:
+            from .policy import read_policy
+            shown = shown_path(cfg.policy)
+            root = repository_root(cfg.folder or cfg.policy.parent)
+            line, col = config_position(cfg, "policy")
+            try:
+                key.relative_to(root.resolve())
+            except ValueError:
+                self.policies[key] = (None, [InputError(
+                    cfg.file or "", line, col, f"policy file {shown} lies outside the repository "
+                    f"of this config ({shown_path(root)}); keep it beside the config")])
+            else:
+                if not cfg.policy.is_file():
+                    self.policies[key] = (None, [InputError(
+                        cfg.file or "", line, col, f"policy file {shown} " + (
+                            "is not a file" if cfg.policy.exists() else "does not exist"))])
+                    return None
+                policy, errors = read_policy(cfg.policy, shown)
+                self.policies[key] = (policy, errors)
+        return self.policies[key][0]
+
+    def policy_errors(self) -> list[InputError]:
+        return [e for _, errors in self.policies.values() for e in errors]
+
+
+def config_position(cfg: Config, key: str) -> tuple[int, int]:
+    """Line and column of a top-level key of the project's config."""
+    return line_of(cfg.text, key, ("",), cfg.prefix)
+
+
+def lint_file(session: Session, path: Path, shown: str,
+              timings: dict[str, float] | None = None) -> DesignResult:
+    """Lint one design file. ``timings``, when given, gains the seconds each stage took (added
+    to what it holds, so one dict can sum a batch): load, validate, libraries, netlist, model,
+    rules. The benchmark reads it to show where a design's time goes."""
+    clock = _StageClock(timings)
+    result = DesignResult(file=shown)
+    cfg, options, cfg_error = session.config_for(path)
+    if cfg_error is not None:
+        result.errors.append(cfg_error)
+        return result
+    assert cfg is not None
+    try:
+        doc = load_file(path, shown)
+    except InputError as exc:
+        result.errors.append(exc)
+        return result
+    clock.lap("load")
+    design, errors = validate(doc, Design)
+    clock.lap("validate")
+    if errors:
+        result.errors.extend(errors)
+        return result
+    result.name = design.design.name
+    root = session.root_for(path.parent)
+    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root)
+    clock.lap("libraries")
+    if resolved.errors:
+        result.errors.extend(resolved.errors)
+        return result
+    netlist = build_netlist(design, resolved.parts)
+    clock.lap("netlist")
+    model = make_model(design, netlist, options)
+    result.model = model
+    result.figures = model_figures(model, result)
+    clock.lap("model")
+    run_rules(session, cfg, options, doc, design, netlist, model, result,
+              design_id=design_identity(path, root))
+    clock.lap("rules")
+    return result
+
+
+class _StageClock:
+    """Adds the time since the last lap to ``timings[stage]``; does nothing without a dict."""
+
+    __slots__ = ("timings", "last")
+
+    def __init__(self, timings: dict[str, float] | None) -> None:
+        self.timings = timings
+        self.last = time.perf_counter() if timings is not None else 0.0
+
+    def lap(self, stage: str) -> None:
+        if self.timings is not None:
+            now = time.perf_counter()
+            self.timings[stage] = self.timings.get(stage, 0.0) + now - self.last
+            self.last = now
+
+
+def design_identity(path: Path, root: Path) -> str:
+    """The design's name in fingerprints: its path inside the repository, in POSIX form.
+
+    Not the path as shown, which is relative to the working folder: a baseline written by CI at
+    the repository root must still match when someone lints from a subfolder.
+    """
+    try:
+        return path.resolve().relative_to(root.resolve()).as_posix()
+    except ValueError:
+        return path.resolve().as_posix()
+
+
+def make_model(design: Design, netlist: Netlist, options: dict | None = None) -> Any:
+    """The design's model, judged by the limits of the rules' ``options`` (by rule id)."""
+    from .model.design import DesignModel
+    from .model.limits import Limits
+    return DesignModel(design, netlist, Limits.of(options or {}))
+
+
+def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
+    try:
+        return model.figures()
+    except Exception as exc:  # the model must not take the run down; say where it broke
+        result.internal.append(InternalError("model", result.file, describe(exc)))
+        return {}
+
+
+@record
+class DesignRun:
+    """What the phases after the model share for one design."""
+
+    session: Session
+    cfg: Config
+    options: dict
+    doc: Document
+    design: Design
+    netlist: Netlist
+    model: Any
+    result: DesignResult
+
+    def where(self, path: tuple) -> tuple[int, int]:
+        pos = self.doc.where(path)
+        return pos.line, pos.column
+
+    def context(self, rule_id: str, severity: Any) -> RuleContext:
+        return RuleContext(file=self.result.file, design=self.design, netlist=self.netlist,
+                           model=self.model, rule_id=rule_id, severity=severity,
+                           _where=self.where)
+
+
+def rule_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
+    """Every enabled rule, each isolated: one broken rule must not hide the others."""
+    cfg, result = run.cfg, run.result
+    broken_netlist = bool(run.netlist.problems)
+    rules = run.session.registry.rules
+    for rid in sorted(rules):
+        rule = rules[rid]
+        if not cfg.enabled(rid):
+            continue
+        if broken_netlist and rule.scope != "netlist":
+            result.skipped.append(rid)
+            continue
+        result.checked.append(rid)
+        ctx = run.context(rid, cfg.severity.get(rid, rule.severity))
+        try:
+            override = cfg.severity.get(rid)
+            for f in rule.check(ctx, run.options[rid]) or ():
+                if not isinstance(f, Finding):  # caught here, not later where it takes all down
+                    raise TypeError(f"rule yielded {type(f).__name__}, not a Finding "
+                                    f"(use ctx.finding(...))")
+                # the project's severity override wins even where a rule chose one per finding
+                findings.append(replace(f, severity=override) if override else f)
+        except (Exception, SystemExit) as exc:
+            result.internal.append(InternalError(rid, result.file, describe(exc)))
+    return findings
+
+
+def policy_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
+    """The team policy's limits on the design's figures and parts (no code runs)."""
+    policy = run.session.policy_for(run.cfg)
+    if policy is None:
+        return findings
+    from .policy import check_policy  # only a project with a policy pays for its models
+    found, held = check_policy(policy, lambda limit: run.context(limit.rule, limit.severity),
+                               run.result.figures, run.netlist, bool(run.netlist.problems))
+    run.result.skipped.extend(held)
+    return findings + found
+
+
+def waiver_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
+    """Accepted findings marked with their reason; waivers that expired or match nothing found.
+
+    The waiver findings are the engine's own; the project's select/ignore/severity apply to them
+    as to any rule's.
+    """
+    from .waivers import apply_waivers
+    findings = apply_waivers(findings, run.design, run.doc, run.session.today)
+    cfg, hygiene = run.cfg, "waiver-hygiene"
+    if not cfg.enabled(hygiene):
+        findings = [f for f in findings if f.rule != hygiene]
+    elif hygiene in cfg.severity:
+        findings = [replace(f, severity=cfg.severity[hygiene]) if f.rule == hygiene else f
+                    for f in findings]
+    return findings
+
+
+#: The phases after the model, in order: each takes the findings so far and returns them.
+PHASES = (rule_phase, policy_phase, waiver_phase)
+
+
+def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
+              netlist: Netlist, model: Any, result: DesignResult,
+              design_id: str | None = None) -> None:
+    """Every phase after the model (:data:`PHASES`), then each finding's fingerprint and order."""
+    run = DesignRun(session, cfg, options, doc, design, netlist, model, result)
+    result.options = options
+    findings: list[Finding] = []
+    for phase in PHASES:
+        findings = phase(run, findings)
+    # After the waivers, so their own findings (expired, unused) share the design's identity.
+    design_id = design_id or Path(result.file).as_posix()
+    findings = [f.with_fingerprint(design_id) for f in findings]
+    findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
+    result.findings = findings
+    result.linted = True
+
+
+def describe(exc: BaseException) -> str:
+    import traceback
+    tb = traceback.extract_tb(exc.__traceback__)
+    last = tb[-1] if tb else None
+    where = f" (at {os.path.basename(last.filename)}:{last.lineno})" if last else ""
+    return f"{type(exc).__name__}: {exc}{where}"
