@@ -142,10 +142,15 @@ def config_position(cfg: Config, key: str) -> tuple[int, int]:
 
 
 def lint_file(session: Session, path: Path, shown: str,
-              timings: dict[str, float] | None = None) -> DesignResult:
+              timings: dict[str, float] | None = None,
+              document: Document | None = None) -> DesignResult:
     """Lint one design file. ``timings``, when given, gains the seconds each stage took (added
     to what it holds, so one dict can sum a batch): load, validate, libraries, netlist, model,
-    rules. The benchmark reads it to show where a design's time goes."""
+    rules. The benchmark reads it to show where a design's time goes.
+
+    ``document``, when given, is linted instead of the file's text, as if it were at ``path``
+    (libraries resolve from its folder, positions point into it): a rule case's base design with
+    its overrides applied (``packwarden.overrides``)."""
     clock = _StageClock(timings)
     result = DesignResult(file=shown)
     cfg, options, cfg_error = session.config_for(path)
@@ -154,7 +159,7 @@ def lint_file(session: Session, path: Path, shown: str,
         return result
     assert cfg is not None
     try:
-        doc = load_file(path, shown)
+        doc = load_file(path, shown) if document is None else document
     except InputError as exc:
         result.errors.append(exc)
         return result

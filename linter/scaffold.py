@@ -2,8 +2,8 @@
 
 The package registers its rule in the ``packwarden.rules`` entry-point group, declares an option in
 units and an example, and tests itself with packwarden's own case runner
-(:mod:`packwarden.testing`) against a passing and a failing design. It passes its own tests as
-generated; the author then rewrites the check, the designs and the cases.
+(:mod:`packwarden.testing`) against a passing design, and cases that change it to fail. It passes
+its own tests as generated; the author then rewrites the check, the design and the cases.
 
 The templates are kept here as text, not as package data, so the command works from any
 installation (a zip, a wheel, an editable checkout) without locating data files.
@@ -59,7 +59,6 @@ def new_rule(rule_id: str, parent: Path) -> list[Path]:
         "tests/test_rule_cases.py": TEST,
         f"tests/cases/{names.rule_id}.yaml": CASES,
         "tests/designs/passing.yaml": PASSING,
-        "tests/designs/failing.yaml": FAILING,
         "tests/designs/parts/example-parts.yaml": PARTS,
     }
     written = []
@@ -114,9 +113,10 @@ Next steps:
 
 1. Rewrite `check()` in `$package/$module.py`: its docstring is the rationale shown by
    `packwarden explain $rule_id`; cite the source of every number.
-2. Replace `tests/designs/` with designs of your own: one that passes and, for each way the
-   rule fails, a copy with exactly one flaw.
-3. Describe the findings each design must produce in `tests/cases/$rule_id.yaml`.
+2. Replace `tests/designs/passing.yaml` with a design of your own that the rule passes.
+3. In `tests/cases/$rule_id.yaml`, give each way the rule fails a case: the passing design plus
+   the values that make the flaw (`set`, `add`, `delete` by YAML path), and the findings the rule
+   must produce.
 4. In CI, run `packwarden check --require-plugins $distribution ...` so a missing install fails
    the run instead of passing it silently.
 
@@ -201,7 +201,9 @@ cases:
     design: tests/designs/passing.yaml        # relative to the folder holding pyproject.toml
     expect: []
   - name: two FET pairs in parallel trip too high
-    design: tests/designs/failing.yaml
+    design: tests/designs/passing.yaml
+    # a second pair beside Q1 halves the sense resistance: the trip max doubles to about 15.6 A
+    add: {components.Q2: {part: EX-FET-D20, pins: {s1: B-, g1: DG, d: MID2, s2: P-, g2: CG}}}
     expect:
       - {element: U1, severity: error, message_contains: "exceeds max_trip 10 A"}
   - name: a lower max_trip fails the passing design
@@ -211,7 +213,11 @@ cases:
       - {element: U1, message_contains: "exceeds max_trip 5 A"}
 '''
 
-_DESIGN_HEAD = '''\
+PASSING = '''\
+# A design the rule passes: one NMC cell, low-side protection with one dual-FET pair
+# (trip max about 7.8 A). Invented parts (tests/designs/parts/example-parts.yaml). The failing
+# cases in tests/cases/ are this design with a few values changed.
+design: {name: Example pack, revision: A}
 format: packwarden/1
 libraries: [parts/example-parts.yaml]
 pack:
@@ -236,20 +242,6 @@ components:
   R2: {part: EX-RES-2K0, pins: [VM, P-]}
   F1: {part: EX-FUSE-12A, pins: [B+, P+]}
 '''
-
-PASSING = ('''\
-# A design the rule passes: one NMC cell, low-side protection with one dual-FET pair
-# (trip max about 7.8 A). Invented parts (tests/designs/parts/example-parts.yaml).
-design: {name: Example pack, revision: A}
-''' + _DESIGN_HEAD)
-
-FAILING = ('''\
-# One flaw: a second FET pair in parallel with Q1 halves the sense resistance, so the
-# over-current trip max doubles to about 15.6 A, above the default max_trip of 10 A.
-design: {name: Example pack (two pairs), revision: A}
-''' + _DESIGN_HEAD + '''\
-  Q2: {part: EX-FET-D20, pins: {s1: B-, g1: DG, d: MID2, s2: P-, g2: CG}}
-''')
 
 PARTS = '''\
 # Invented parts for the rule's tests; values follow the shape of typical data sheets, and none of

@@ -1,7 +1,9 @@
 """Rule test cases as data: the harness packwarden's own rules use, public for team rule packages.
 
 A case file, ``tests/rules/cases/<rule-id>.yaml``, names one rule and lists designs with the findings
-that rule must produce on each::
+that rule must produce on each. A case's design is a file, or a base file with a few values changed
+by YAML path (``set``, ``add``, ``delete``; see :mod:`packwarden.overrides`), so the case shows what
+it tests::
 
     rule: unknown-part
     cases:
@@ -9,11 +11,14 @@ that rule must produce on each::
         design: example_designs/orchard-probe.yaml     # relative to the repository root
         expect: []
       - name: misspelt part name
-        design: tests/rules/designs/unknown-part/misspelt.yaml
+        design: example_designs/orchard-probe.yaml
+        set: {components.Q1.part: OR-FET-D2O}
         expect:
           - {element: Q1, severity: error, message_contains: "OR-FET-D2O"}
 
 The repository root is the nearest folder at or above the case file that holds ``pyproject.toml``.
+A changed design is linted as if it were the base file, so findings point into the base file: at
+the value a change replaced, or at the nearest key the base has above a value it lacks.
 An expected finding may give ``element``, ``severity``, ``message_contains``, ``hint_contains`` and
 ``path`` (the dotted YAML path, e.g. ``components.Q1.part``); only what it gives is compared. Line
 numbers are deliberately not comparable: a case should survive an edit elsewhere in the design.
@@ -47,12 +52,14 @@ from .config import Config
 from .engine import Registry, RunResult, Session, lint, lint_file, load_registry
 from .library import shown_path
 from .loader import Document, InputError, load_file
+from .overrides import Override, OverrideError, apply_overrides, parse_path
 from .records import record
 
-__all__ = ["Case", "Expected", "CaseError", "load_cases", "run_case", "check_case", "cases_in"]
+__all__ = ["Case", "Expected", "CaseError", "Override", "load_cases", "run_case", "check_case",
+           "cases_in"]
 
 _FILE_KEYS = ("rule", "cases")
-_CASE_KEYS = ("name", "design", "expect", "options")
+_CASE_KEYS = ("name", "design", "set", "add", "delete", "expect", "options")
 _EXPECT_KEYS = ("element", "severity", "message_contains", "hint_contains", "path")
 
 
@@ -100,10 +107,11 @@ class Expected:
 class Case:
     rule: str
     name: str
-    design: Path  # absolute
+    design: Path  # absolute; the base file when there are overrides
     expect: tuple[Expected, ...]
     source: str  # "case-file:line", where the case is written
     options: dict[str, Any] = field(default_factory=dict)
+    overrides: tuple[Override, ...] = ()  # changes to the design file (set, add, delete)
 
     @property
     def id(self) -> str:
@@ -161,8 +169,41 @@ def load_cases(path: str | Path) -> list[Case]:
         if not isinstance(options, dict):
             raise doc.error(where + ("options",), "'options' must be a mapping of the rule's options")
         out.append(Case(rule=rule, name=name, design=root / design, expect=expect,
-                        source=f"{doc.file}:{line}", options=options))
+                        source=f"{doc.file}:{line}", options=options,
+                        overrides=_overrides(doc, where, raw)))
     return out
+
+
+def _overrides(doc: Document, where: tuple, raw: dict) -> tuple[Override, ...]:
+    """The case's ``set``/``add`` (path: value) and ``delete`` (list of paths), as written."""
+    out: list[Override] = []
+    for action in ("set", "add", "delete"):
+        if action not in raw:
+            continue
+        given = raw[action]
+        at = where + (action,)
+        if action == "delete":
+            if not isinstance(given, list) or not given:
+                raise doc.error(at, "'delete' is a list of YAML paths, e.g. "
+                                    "[charger.temperature_window]")
+            entries = [(at + (i,), path, None) for i, path in enumerate(given)]
+        else:
+            if not isinstance(given, dict) or not given:
+                raise doc.error(at, f"'{action}' is a mapping of YAML path to value, e.g. "
+                                    f"{{components.Q1.part: OR-FET-D2O}}")
+            entries = [(at + (path,), path, value) for path, value in given.items()]
+        for spot, path, value in entries:
+            if not isinstance(path, str):
+                raise doc.error(spot, f"a path in '{action}' is text, e.g. components.Q1.part")
+            try:
+                parse_path(path)
+            except ValueError as exc:
+                raise doc.error(spot, str(exc), key=action != "delete") from None
+            if value is None and action != "delete":
+                raise doc.error(spot, f"'{path}' has no value; to remove it from the design, "
+                                      f"list it under 'delete'")
+            out.append(Override(action, path, value, f"{doc.file}:{doc.where(spot).line}"))
+    return tuple(out)
 
 
 def _expected(doc: Document, where: tuple, raw: Any) -> Expected:
@@ -256,7 +297,17 @@ def run_case(case: Case, registry: Registry | None = None) -> list[Finding]:
     if not case.design.is_file():
         raise CaseError(f"{case.source}: design file {shown_path(case.design)} does not exist")
     session = _CaseSession(reg, (Config(), options, None))
-    result = lint_file(session, case.design, shown_path(case.design))
+    shown = shown_path(case.design)
+    document = None
+    if case.overrides:
+        try:
+            document = apply_overrides(load_file(case.design, shown), case.overrides)
+        except InputError as exc:
+            raise CaseError(f"{case.source}: the base design of case '{case.name}' cannot be "
+                            f"read:\n  {exc}") from None
+        except OverrideError as exc:
+            raise CaseError(f"{exc} (base design {shown})") from None
+    result = lint_file(session, case.design, shown, document=document)
     if result.errors:
         raise CaseError(f"{case.source}: the design of case '{case.name}' cannot be used, so it "
                         f"proves nothing:\n" + "\n".join(f"  {e}" for e in result.errors))
@@ -318,6 +369,7 @@ def _show(f: Finding) -> str:
 
 def _diff(case: Case, missing: list[Expected], extra: list[Finding], actual: list[Finding]) -> str:
     lines = [f"rule case {case.id} ({case.source}) failed", f"design: {shown_path(case.design)}"]
+    lines += [f"  {ov.describe()}" for ov in case.overrides]
     if missing:
         lines.append(f"expected, not found ({len(missing)}):")
         lines += [f"  - {e.describe()}" for e in missing]

@@ -54,9 +54,8 @@ def test_the_package_has_an_entry_point_a_rule_and_tests(tmp_path: Path) -> None
     test_source = (pkg / "tests" / "test_rule_cases.py").read_text(encoding="utf-8")
     ast.parse(test_source)
     assert "cases_in(CASES)" in test_source and "check_case(case)" in test_source
-    for rel in ("tests/designs/passing.yaml", "tests/designs/failing.yaml",
-                "tests/designs/parts/example-parts.yaml", "tests/cases/trip-limit.yaml",
-                "README.md"):
+    for rel in ("tests/designs/passing.yaml", "tests/designs/parts/example-parts.yaml",
+                "tests/cases/trip-limit.yaml", "README.md"):
         assert (pkg / rel).is_file(), rel
 
 
@@ -82,12 +81,12 @@ def test_the_generated_cases_pass_against_the_generated_rule(tmp_path: Path) -> 
 
 def test_the_generated_cases_can_fail(tmp_path: Path) -> None:
     pkg = scaffold(tmp_path)
-    failing = pkg / "tests" / "designs" / "failing.yaml"
-    text = failing.read_text(encoding="utf-8")
-    q2 = next(line for line in text.splitlines() if line.startswith("  Q2:"))
-    failing.write_text(text.replace(q2 + "\n", ""), encoding="utf-8")  # the flaw removed
-    [case] = [c for c in load_cases(pkg / "tests" / "cases" / "trip-limit.yaml")
-              if c.name == "two FET pairs in parallel trip too high"]
+    cases = pkg / "tests" / "cases" / "trip-limit.yaml"
+    text = cases.read_text(encoding="utf-8")
+    q2 = next(line for line in text.splitlines() if line.startswith("    add: {components.Q2:"))
+    cases.write_text(text.replace(q2 + "\n", ""), encoding="utf-8")  # the flaw removed
+    [case] = [c for c in load_cases(cases) if c.name == "two FET pairs in parallel trip too high"]
+    assert case.overrides == ()
     with pytest.raises(AssertionError, match="expected, not found"):
         check_case(case, registry_with(pkg))
 

@@ -10,6 +10,7 @@ in a virtual environment that holds the packages.
 from __future__ import annotations
 
 import importlib.util
+import json
 import os
 import shutil
 import subprocess
@@ -91,17 +92,27 @@ def test_packwarden_rules_lists_the_team_rules_beside_the_builtin_ones(installed
     assert "tallgrass" not in proc.stderr
 
 
-def test_the_team_rules_fire_in_a_check(installed: dict) -> None:
-    proc = run(installed, "check", "--format", "json", "tests/designs")
-    import json
+def _team_findings(proc: subprocess.CompletedProcess) -> set[tuple[str, str, str]]:
     data = json.loads(proc.stdout)
-    fired = {(d["file"], f["rule"], f["element"]) for d in data["designs"] for f in d["findings"]
-             if f["rule"].startswith("tallgrass-")}
-    assert fired == {
-        ("tests/designs/low-side-fuse.yaml", "tallgrass-fuse-at-cell-positive", "F1"),
-        ("tests/designs/small-fet.yaml", "tallgrass-fet-current-derating", "Q1"),
-    }
+    return {(d["file"], f["rule"], f["element"]) for d in data["designs"] for f in d["findings"]
+            if f["rule"].startswith("tallgrass-")}
+
+
+def test_the_team_rules_fire_in_a_check(installed: dict, tmp_path: Path) -> None:
+    proc = run(installed, "check", "--format", "json", "tests/designs")
+    assert _team_findings(proc) == {
+        ("tests/designs/low-side-fuse.yaml", "tallgrass-fuse-at-cell-positive", "F1")}
     assert proc.returncode == 1
+    # the derating rule stays silent at its default 60 % (its failing case changes the beacon's
+    # part, which is no file of its own), and fires on both designs with the project's 10 %
+    strict = tmp_path / "packwarden.toml"
+    strict.write_text("[rules.tallgrass-fet-current-derating]\nderating = 0.1\n")
+    proc = run(installed, "check", "--format", "json", "--config", str(strict), "tests/designs")
+    assert _team_findings(proc) == {
+        ("tests/designs/low-side-fuse.yaml", "tallgrass-fuse-at-cell-positive", "F1"),
+        ("tests/designs/beacon.yaml", "tallgrass-fet-current-derating", "Q1"),
+        ("tests/designs/low-side-fuse.yaml", "tallgrass-fet-current-derating", "Q1")}, \
+        proc.stdout + proc.stderr
 
 
 def test_require_plugins_passes_with_the_package_and_fails_fast_without(installed: dict) -> None:
