@@ -25,6 +25,7 @@ from types import UnionType
 from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origin
 
 from .api import Rule
+from .kinds import KINDS, NUMBERED_PINS
 from .schema import quantity_of as _quantity_of
 
 HEADER = ("<!-- Generated from the rule registry by `packwarden docs rules > docs/rules.md`; "
@@ -407,37 +408,10 @@ TOLERANCED_REFUSED: tuple[tuple[str, str], ...] = (
     ("{}", "V"),
 )
 
-#: What each pin of each kind connects to. ``cellN``/``balanceN`` stand for the numbered pins of a
-#: multi-cell protector.
+#: What each pin of each kind connects to (kinds.py). ``cellN``/``balanceN`` stand for the
+#: numbered pins of a multi-cell protector.
 PIN_TEXT: dict[str, dict[str, str]] = {
-    "cell": {"pos": "positive terminal", "neg": "negative terminal"},
-    "protector": {
-        "supply": "supply input; a single-cell protector measures the cell here, through the "
-                  "supply filter resistor",
-        "ground": "ground: the negative end of the stack, and one side of the current sense",
-        "sense": "current-sense input: across the sense resistance from ground (the switch FETs "
-                 "or a shunt), usually through a resistor to the pack's negative terminal",
-        "discharge_gate": "gate output of the discharge switch",
-        "charge_gate": "gate output of the charge switch",
-        "temperature": "temperature-sense input (recorded, not modelled)",
-        "cellN": "sense input of the top of cell N, counted from the bottom (cell1 is the bottom "
-                 "cell)",
-        "balanceN": "balancing (bleed) output of cell N, closing to the pin below that cell",
-    },
-    "fet": {"d": "drain", "g": "gate", "s": "source"},
-    "fet_pair_common_drain": {
-        "s1": "source of channel 1", "g1": "gate of channel 1",
-        "s2": "source of channel 2", "g2": "gate of channel 2",
-        "d": "the common drain; internal to the package, may stay unconnected",
-    },
-    "fuse": {"1": "first terminal", "2": "second terminal"},
-    "ptc": {"1": "first terminal", "2": "second terminal"},
-    "resistor": {"1": "first terminal", "2": "second terminal"},
-    "capacitor": {"1": "first terminal", "2": "second terminal"},
-    "trace": {"1": "one end", "2": "the other end"},
-    "wire": {"1": "one end", "2": "the other end"},
-    "diode": {"anode": "anode", "cathode": "cathode"},
-}
+    name: {**k.pins, **NUMBERED_PINS.get(name, {})} for name, k in KINDS.items()}
 # Cell counts at which a multi-cell protector's numbered pins are read off netlist.pin_names.
 _MULTI = (1, 3)
 

@@ -11,34 +11,19 @@ import difflib
 from dataclasses import field
 from typing import Any
 
+from .kinds import KINDS
 from .schema import INLINE_KINDS, PART_KINDS, Design, PartRef
 from .records import record
 
 TWO_TERMINAL = ("1", "2")
 
-#: Pins every part kind has: (required, optional). Lists of nets fill these in order.
+#: Pins every part kind has: (required, optional), from its declaration in kinds.py. Lists of
+#: nets fill these in order.
 PIN_NAMES: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
-    "cell": (("pos", "neg"), ()),
-    "protector": (("supply", "ground", "sense", "discharge_gate", "charge_gate"), ("temperature",)),
-    "fet": (("d", "g", "s"), ()),
-    # The common drain of a pair is internal to the package; bringing it out is optional.
-    "fet_pair_common_drain": (("s1", "g1", "s2", "g2"), ("d",)),
-    "fuse": (TWO_TERMINAL, ()),
-    "ptc": (TWO_TERMINAL, ()),
-    "resistor": (TWO_TERMINAL, ()),
-    "capacitor": (TWO_TERMINAL, ()),
-    "trace": (TWO_TERMINAL, ()),
-    "wire": (TWO_TERMINAL, ()),
-    "diode": (("anode", "cathode"), ()),
-}
+    name: (k.required_pins, k.optional_pins) for name, k in KINDS.items()}
 
 #: How a kind reads in a message: "a common-drain FET pair has no pin 'gate1'".
-KIND_TEXT = {
-    "cell": "cell", "protector": "protector", "fet": "FET",
-    "fet_pair_common_drain": "common-drain FET pair", "fuse": "fuse", "ptc": "PTC",
-    "resistor": "resistor", "capacitor": "capacitor", "trace": "trace", "wire": "wire",
-    "diode": "diode",
-}
+KIND_TEXT = {name: k.text for name, k in KINDS.items()}
 
 #: Kinds whose pins may be written as a list, in this order.
 LIST_PINS = {k: req for k, (req, opt) in PIN_NAMES.items() if len(req) == 2 and not opt}

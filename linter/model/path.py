@@ -14,9 +14,10 @@ import math
 from functools import cached_property
 from typing import Any
 
+from ..kinds import KINDS
 from ..netlist import Component
 from ..records import record
-from . import copper, thermal
+from . import thermal
 from .network import Network, NetworkError, Switch
 from .rdson import DEFAULT_HOT_RATIO, rds_on
 from .topology import SwitchChannel, Topology
@@ -71,20 +72,10 @@ class PowerPath:
         return value
 
     def _part_resistance(self, c: Component, temp: float, corner: str) -> float:
-        part = c.part
-        if c.kind == "resistor":
-            k = {"min": 1 - part.tol / 100, "typ": 1.0, "max": 1 + part.tol / 100}[corner]
-            return max(part.value * k, IDEAL)
-        if c.kind == "fuse":
-            return part.resistance if part.resistance else IDEAL
-        if c.kind == "ptc":
-            return {"min": part.resistance.low, "typ": part.resistance.nominal,
-                    "max": part.resistance.high}[corner]
-        if c.kind == "trace":
-            return copper.trace_resistance(part.width, copper.trace_thickness(part), part.length, temp)
-        if c.kind == "wire":
-            return part.resistance if part.resistance else IDEAL
-        raise ValueError(c.kind)  # pragma: no cover
+        kind = KINDS[c.kind]
+        if kind.resistance is None:
+            raise ValueError(f"{c.refdes}: a {kind.text} does not carry the pack's current")
+        return kind.resistance(c.part, temp, corner)
 
     def network(self, rds: dict[str, float], *, cell_emf: float, cell_r: float, temp: float,
                 corner: str = "typ", switches_on: dict[str, bool] | None = None,

@@ -13,6 +13,7 @@ import heapq
 from functools import cached_property
 from typing import Any
 
+from ..kinds import SERIES_KINDS, SWITCH_KINDS
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design
@@ -196,7 +197,7 @@ class Topology:
     def channels(self) -> tuple[SwitchChannel, ...]:
         out = []
         roles = self.gate_nets
-        for c in self.netlist.of_kind("fet", "fet_pair_common_drain"):
+        for c in self.netlist.of_kind(*SWITCH_KINDS):
             part = c.part
             if c.kind == "fet":
                 if not {"d", "s"} <= set(c.pins):
@@ -259,7 +260,7 @@ class Topology:
     @cached_property
     def path_parts(self) -> tuple[Component, ...]:
         """Parts that may carry the pack's current besides cells and switches."""
-        return tuple(self.netlist.of_kind("fuse", "ptc", "resistor", "trace", "wire"))
+        return tuple(self.netlist.of_kind(*SERIES_KINDS))
 
 
 def _stack_levels(cells: tuple[Component, ...], bottom: str,
