@@ -98,6 +98,19 @@ def test_waived_findings_are_hints_with_the_reason(project: Path) -> None:
     assert all(n.message.startswith("waived (port keyed against the adapter): ") for n in margin)
 
 
+def test_the_rule_reference_it_links_to_is_removed_when_it_is_done(project: Path) -> None:
+    linter = LiveLinter()
+    design = project / FLAWED
+    linter.lint_design(design, design.read_text(encoding="utf-8"))
+    link = linter.rule_docs(design, "switch-voltage-margin")
+    assert link is not None and link.endswith("#switch-voltage-margin")
+    reference = Path(link.split("#")[0].removeprefix("file://"))
+    assert "\n## switch-voltage-margin\n" in reference.read_text(encoding="utf-8")
+    assert linter.rule_docs(design, "no-such-rule") is None
+    linter.dispose()
+    assert not reference.parent.exists()
+
+
 def test_it_holds_no_more_than_the_open_documents(project: Path) -> None:
     linter = LiveLinter()
     first, second = project / FLAWED, project / "orchard-probe.yaml"

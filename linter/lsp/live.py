@@ -248,7 +248,7 @@ class LiveLinter:
     def lint_config(self, path: Path) -> list[Note]:
         """A project config's mistakes, as saved (TOML is read from disk, as ``check`` reads it)."""
         path = absolute(path)
-        if find_config(path.parent) != path:
+        if find_config(path.parent) != path.resolve():
             return []  # a pyproject.toml without [tool.packwarden], or one a closer config hides
         try:
             cfg = load_config(path, shown_path(path))
@@ -261,6 +261,13 @@ class LiveLinter:
         finally:
             self._drop_unused()
         return []
+
+    def dispose(self) -> None:
+        """Remove the rule references written for the diagnostics' links."""
+        if self._docs_folder is not None:
+            shutil.rmtree(self._docs_folder, ignore_errors=True)
+            self._docs_folder = None
+            self._docs.clear()
 
     # --- documentation links -------------------------------------------------------------------
 
@@ -278,7 +285,7 @@ class LiveLinter:
             from ..docs import render_rules
             if self._docs_folder is None:
                 self._docs_folder = Path(tempfile.mkdtemp(prefix="packwarden-lsp-"))
-                atexit.register(shutil.rmtree, self._docs_folder, True)
+                atexit.register(self.dispose)  # for use in a process that ends normally
             # one file per config, rewritten when its rules are loaded again
             reference = self._docs_folder / f"rules-{_digest(str(design.config))}.md"
             reference.write_text(render_rules(registry.rules[r] for r in sorted(registry.rules)),

@@ -18,6 +18,7 @@ from __future__ import annotations
 import asyncio
 import logging
 import re
+import sys
 from pathlib import Path
 
 from lsprotocol import types as lsp
@@ -25,7 +26,7 @@ from pygls.lsp.server import LanguageServer
 from pygls.uris import from_fs_path, to_fs_path
 
 from .. import __version__
-from .live import LiveLinter, Note, is_config, is_design, is_library
+from .live import LiveLinter, Note, absolute, is_config, is_design, is_library
 
 #: Seconds of quiet after the last change before a design is linted again.
 DEBOUNCE = 0.3
@@ -47,6 +48,8 @@ class PackwardenServer(LanguageServer):
         #: source document URI -> target file URI -> diagnostics the source puts there
         self.shares: dict[str, dict[str, list[lsp.Diagnostic]]] = {}
         self.pending: dict[str, asyncio.TimerHandle] = {}
+        #: open designs' URIs as the client spells them, by the path the linter knows them by
+        self.uris: dict[Path, str] = {}
 
     # --- linting -------------------------------------------------------------------------------
 
@@ -60,15 +63,17 @@ class PackwardenServer(LanguageServer):
                 return
             text = doc.source
             if is_design(text):
+                self.uris[absolute(path)] = uri
                 notes = self.live.lint_design(path, text)
-            elif is_library(text):
-                self.live.close(path)  # a design turned into a library: forget the design
-                notes = self.live.lint_library(path, text)
-            elif is_config(path):
-                notes = self.live.lint_config(path)
-            else:
+            else:  # not, or no longer, a design
                 self.live.close(path)
-                notes = []
+                self.uris.pop(absolute(path), None)
+                if is_library(text):
+                    notes = self.live.lint_library(path, text)
+                elif is_config(path):
+                    notes = self.live.lint_config(path)
+                else:
+                    notes = []
         except Exception as exc:  # last resort: the editor shows it, the server goes on
             log.exception("lint of %s failed", uri)
             notes = [Note(Path(to_fs_path(uri) or "."), 1, 1, "error",
@@ -79,9 +84,15 @@ class PackwardenServer(LanguageServer):
     def share(self, source: str, notes: list[Note], design: Path | None = None) -> None:
         before = set(self.shares.get(source, {}))
         now: dict[str, list[lsp.Diagnostic]] = {}
+        own = _path(source)
+        lines: dict[str, list[str]] = {}
         for note in notes:
-            target = from_fs_path(str(note.file)) or source
-            now.setdefault(target, []).append(self.diagnostic(note, design))
+            # the source's own notes under the URI the client gave it, however it spells paths
+            target = source if own is not None and note.file == absolute(own) else \
+                from_fs_path(str(note.file)) or source
+            if target not in lines:
+                lines[target] = self.lines_of(target, note.file)
+            now.setdefault(target, []).append(self.diagnostic(note, lines[target], design))
         self.shares[source] = now
         for target in before | set(now) | {source}:  # the source's own, even when now clean
             self.publish(target)
@@ -97,22 +108,23 @@ class PackwardenServer(LanguageServer):
         self.text_document_publish_diagnostics(
             lsp.PublishDiagnosticsParams(uri=target, diagnostics=out))
 
-    def diagnostic(self, note: Note, design: Path | None) -> lsp.Diagnostic:
+    def diagnostic(self, note: Note, lines: list[str], design: Path | None) -> lsp.Diagnostic:
         href = self.live.rule_docs(design, note.code) if design and note.code else None
-        related = [lsp.DiagnosticRelatedInformation(
-            location=lsp.Location(uri=from_fs_path(str(r.file)) or "",
-                                  range=self.span(r.file, r.line, r.column)),
-            message=r.message) for r in note.related]
+        related = []
+        for r in note.related:
+            where = from_fs_path(str(r.file)) or ""
+            related.append(lsp.DiagnosticRelatedInformation(
+                location=lsp.Location(uri=where, range=self.span(
+                    self.lines_of(where, r.file), r.line, r.column)), message=r.message))
         return lsp.Diagnostic(
-            range=self.span(note.file, note.line, note.column),
+            range=self.span(lines, note.line, note.column),
             message=note.message, severity=SEVERITIES[note.severity], source="packwarden",
             code=note.code,
             code_description=lsp.CodeDescription(href=href) if href else None,
             related_information=related or None)
 
-    def span(self, file: Path, line: int, column: int) -> lsp.Range:
+    def span(self, lines: list[str], line: int, column: int) -> lsp.Range:
         """The token at a 1-based line and code-point column, in the client's units."""
-        lines = self.lines_of(file)
         row = max(line - 1, 0)
         start = max(column - 1, 0)
         end = start
@@ -123,8 +135,9 @@ class PackwardenServer(LanguageServer):
         return lsp.Range(start=codec.position_to_client_units(lines, lsp.Position(row, start)),
                          end=codec.position_to_client_units(lines, lsp.Position(row, end)))
 
-    def lines_of(self, file: Path) -> list[str]:
-        doc = self.workspace.text_documents.get(from_fs_path(str(file)) or "")
+    def lines_of(self, uri: str, file: Path) -> list[str]:
+        """The file's lines: the editor's text if it is open, else as saved."""
+        doc = self.workspace.text_documents.get(uri)
         if doc is not None:
             return list(doc.lines)
         try:
@@ -147,7 +160,8 @@ class PackwardenServer(LanguageServer):
             return
         self.live.forget(path)
         for design in self.live.dependents(path):
-            self.lint(from_fs_path(str(design)) or "")
+            if design in self.uris:
+                self.lint(self.uris[design])
         if uri in self.workspace.text_documents and not is_design(
                 self.workspace.text_documents[uri].source):
             self.lint(uri)
@@ -159,6 +173,7 @@ class PackwardenServer(LanguageServer):
         path = _path(uri)
         if path is not None:
             self.live.close(path)
+            self.uris.pop(absolute(path), None)
         self.share(uri, [])
         self.shares.pop(uri, None)
 
@@ -218,6 +233,26 @@ def hover(ls: PackwardenServer, params: lsp.HoverParams) -> lsp.Hover | None:
     return lsp.Hover(contents=lsp.MarkupContent(kind=lsp.MarkupKind.Markdown, value=text))
 
 
+@server.feature(lsp.INITIALIZED)
+def initialized(ls: PackwardenServer, params: lsp.InitializedParams) -> None:
+    # Ask to hear of libraries and configs changed outside the editor, where the client can
+    # be asked; others are caught at the next lint by the files' stamps (see live.py).
+    watched = ls.client_capabilities.workspace and \
+        ls.client_capabilities.workspace.did_change_watched_files
+    if watched and watched.dynamic_registration:
+        ls.client_register_capability(lsp.RegistrationParams(registrations=[lsp.Registration(
+            id="packwarden-watched-files", method=lsp.WORKSPACE_DID_CHANGE_WATCHED_FILES,
+            register_options=lsp.DidChangeWatchedFilesRegistrationOptions(watchers=[
+                lsp.FileSystemWatcher(glob_pattern=pattern)
+                for pattern in ("**/*.yaml", "**/*.yml", "**/*.toml")]))]))
+
+
 def serve() -> None:
     """Serve one editor over stdin and stdout until it says exit."""
-    server.start_io()
+    stdin, stdout = sys.stdin.buffer, sys.stdout.buffer
+    # The protocol owns standard output: a rule's stray print() would corrupt its messages.
+    sys.stdout = sys.stderr
+    try:
+        server.start_io(stdin, stdout)
+    finally:
+        server.live.dispose()
