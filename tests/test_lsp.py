@@ -90,12 +90,16 @@ def of_rule(rule: str):
     return lambda ds: [d for d in ds if d.code == rule]
 
 
+def cli_output(design: Path) -> str:
+    return subprocess.run([sys.executable, "-m", "packwarden.cli", "check", str(design)],
+                          capture_output=True, text=True, encoding="utf-8",
+                          cwd=design.parent).stdout
+
+
 def cli_lines(design: Path, rule: str) -> set[tuple[int, int]]:
     """(line, column) of each finding of ``rule`` as ``packwarden check`` prints it."""
-    out = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", str(design)],
-                         capture_output=True, text=True, encoding="utf-8", cwd=design.parent)
     found = set()
-    for line in out.stdout.splitlines():
+    for line in cli_output(design).splitlines():
         head, _, rest = line.partition(f": error {rule}:")
         if rest:
             _, row, col = head.rsplit(":", 2)
@@ -153,6 +157,25 @@ async def test_broken_yaml_is_an_error_at_its_line(client: LanguageClient, proje
     assert "YAML syntax error" in error.message
     # the YAML parser finds an unclosed flow sequence where the next key begins, or on its line
     assert row + 1 <= error.range.start.line <= row + 2
+
+
+@pytest.mark.asyncio
+async def test_columns_are_counted_in_utf_16_as_the_protocol_says(
+        client: LanguageClient, project: Path) -> None:
+    # The command line counts columns in code points; LSP 3.17 (Position) in UTF-16 code units
+    # unless the client agrees otherwise: a pear (U+1F350, outside the BMP) takes two.
+    design = project / "orchard-probe.yaml"
+    text = design.read_text(encoding="utf-8").replace(
+        "design: {name: Orchard soil probe, revision: C}",
+        'design: {name: "Orchard \U0001F350 probe", revision: C, colour: green}')
+    design.write_text(text, encoding="utf-8")
+    (expected,) = [ln for ln in cli_output(design).splitlines() if "unknown key 'colour'" in ln]
+    row, column = (int(x) for x in expected.split(": ")[0].rsplit(":", 2)[1:])
+    open_doc(client, design)
+    found = await until(client, design, of_rule("input-error"), "the unknown key is reported")
+    start = found[0].range.start
+    assert (start.line + 1, start.character + 1) == (row, column + 1)
+    assert found[0].range.end.character - start.character == len("colour")
 
 
 @pytest.mark.asyncio
@@ -231,8 +254,11 @@ async def test_hover_shows_a_switch_s_figures_and_a_part_s_ratings(
         return result.contents.value
 
     on_refdes = await hover_at(line.index("Q1") + 1)
-    # the trip window and junction temperature the command line prints for this design
-    assert "over-current trip: 1.79 A to 7.78 A (typ 3.67 A)" in on_refdes
+    # the trip window the command line prints for this design ("over-current trip 1.79 A–7.78 A
+    # (typ 3.67 A)" in its figures line)
+    figures = next(ln for ln in cli_output(design).splitlines() if ": figures: " in ln)
+    trip = figures.split("over-current trip ")[1].split(";")[0]
+    assert "over-current trip: " + trip.replace("–", " to ") in on_refdes
     assert "junction temperature, continuous load" in on_refdes
     assert "switch-voltage-margin" in on_refdes and "must block 28.3 V" in on_refdes
     on_part = await hover_at(line.index("OR-FET-D20") + 3)

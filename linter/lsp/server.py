@@ -34,8 +34,9 @@ DEBOUNCE = 0.3
 SEVERITIES = {"error": lsp.DiagnosticSeverity.Error, "warning": lsp.DiagnosticSeverity.Warning,
               "info": lsp.DiagnosticSeverity.Information, "hint": lsp.DiagnosticSeverity.Hint}
 
-# The token a diagnostic underlines: from its column to the next space, comma or bracket.
-_TOKEN = re.compile(r"[^\s,{}\[\]]+")
+# The token a diagnostic underlines: from its column to the next space, comma or bracket, or to
+# the colon that ends a key.
+_TOKEN = re.compile(r"[^\s,{}\[\]]+?(?=:\s|:$|[\s,{}\[\]]|$)")
 
 log = logging.getLogger(__name__)
 
