@@ -87,6 +87,23 @@ def test_a_broken_library_is_shown_in_the_library_and_summed_up_in_the_design(
     assert linter.lint_library(library, lib) == []
 
 
+def test_a_config_error_is_shown_in_the_config(project: Path) -> None:
+    config = project.parent / "packwarden.toml"
+    config.write_text('fail_on = "warning"\nignroe = ["storage-drain"]\n', encoding="utf-8")
+    design = project / FLAWED
+    linter = LiveLinter()
+    notes = linter.lint_design(design, design.read_text(encoding="utf-8"))
+    # as `packwarden check` reports it: config file, line 2, column 1
+    in_config = [(n.line, n.column, n.message) for n in notes if n.file == config]
+    assert in_config == [(2, 1, "unknown config key 'ignroe' (did you mean 'ignore'?)")]
+    (summary,) = [n for n in notes if n.file == design]
+    assert summary.message.startswith("not reviewed: ") and (summary.line, summary.column) == (1, 1)
+    assert [(n.file, n.line) for n in linter.lint_config(config)] == [(config, 2)]
+    config.write_text('ignore = ["storage-drain"]\n', encoding="utf-8")
+    assert linter.lint_config(config) == []
+    assert linter.dependents(config) == [design]
+
+
 def test_waived_findings_are_hints_with_the_reason(project: Path) -> None:
     design = project / FLAWED
     text = design.read_text(encoding="utf-8") + (
