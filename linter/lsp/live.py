@@ -180,7 +180,7 @@ class LiveLinter:
                 depends.add(cfg.policy.resolve())
         self.designs[path] = OpenDesign(result, config, frozenset(depends))
         self._drop_unused()
-        notes = [self._finding_note(path, f, session) for f in result.findings]
+        notes = [_finding_note(path, f) for f in result.findings]
         for ie in result.internal:
             notes.append(Note(path, 1, 1, "error", f"rule '{ie.rule}' failed, so this design is "
                               f"only partly reviewed (a fault in the rule or in packwarden, not "
@@ -192,13 +192,6 @@ class LiveLinter:
             notes.append(_error_note(e))
         notes += _summaries(path, shown, text, errors, libraries.touched)
         return notes
-
-    def _finding_note(self, path: Path, f: Finding, session: Session) -> Note:
-        message = f.message + (f"\nhint: {f.hint}" if f.hint else "")
-        if f.waived:
-            return Note(path, f.location.line, f.location.column, "hint",
-                        f"waived ({f.waived}): {message}", f.rule)
-        return Note(path, f.location.line, f.location.column, f.severity.value, message, f.rule)
 
     def close(self, path: Path) -> None:
         self.designs.pop(absolute(path), None)
@@ -252,7 +245,7 @@ class LiveLinter:
             return []  # a pyproject.toml without [tool.packwarden], or one a closer config hides
         try:
             cfg = load_config(path, shown_path(path))
-            check_against_rules(cfg, self.session_for(path).registry.rules)
+            check_against_rules(cfg, self.session_for(path.resolve()).registry.rules)
         except InputError as exc:
             return [_error_note(exc)]
         except Exception as exc:
@@ -320,6 +313,14 @@ class LiveLinter:
 
 def _digest(text: str) -> str:
     return hashlib.sha256(text.encode()).hexdigest()[:12]
+
+
+def _finding_note(path: Path, f: Finding) -> Note:
+    message = f.message + (f"\nhint: {f.hint}" if f.hint else "")
+    if f.waived:
+        return Note(path, f.location.line, f.location.column, "hint",
+                    f"waived ({f.waived}): {message}", f.rule)
+    return Note(path, f.location.line, f.location.column, f.severity.value, message, f.rule)
 
 
 def _error_note(e: InputError) -> Note:
