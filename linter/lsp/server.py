@@ -187,24 +187,18 @@ def _path(uri: str) -> Path | None:
 server = PackwardenServer()
 
 
-@server.feature(lsp.TEXT_DOCUMENT_DID_OPEN)
-def did_open(ls: PackwardenServer, params: lsp.DidOpenTextDocumentParams) -> None:
-    ls.lint(params.text_document.uri)
+def _on_document(handle):
+    """A handler of a notification about one open document: ``handle(server, its URI)``."""
+    def notified(ls: PackwardenServer, params) -> None:
+        handle(ls, params.text_document.uri)
+    return notified
 
 
-@server.feature(lsp.TEXT_DOCUMENT_DID_CHANGE)
-def did_change(ls: PackwardenServer, params: lsp.DidChangeTextDocumentParams) -> None:
-    ls.soon(params.text_document.uri)
-
-
-@server.feature(lsp.TEXT_DOCUMENT_DID_SAVE)
-def did_save(ls: PackwardenServer, params: lsp.DidSaveTextDocumentParams) -> None:
-    ls.saved(params.text_document.uri)
-
-
-@server.feature(lsp.TEXT_DOCUMENT_DID_CLOSE)
-def did_close(ls: PackwardenServer, params: lsp.DidCloseTextDocumentParams) -> None:
-    ls.closed(params.text_document.uri)
+for _method, _handle in ((lsp.TEXT_DOCUMENT_DID_OPEN, PackwardenServer.lint),
+                         (lsp.TEXT_DOCUMENT_DID_CHANGE, PackwardenServer.soon),
+                         (lsp.TEXT_DOCUMENT_DID_SAVE, PackwardenServer.saved),
+                         (lsp.TEXT_DOCUMENT_DID_CLOSE, PackwardenServer.closed)):
+    server.feature(_method)(_on_document(_handle))
 
 
 @server.feature(lsp.WORKSPACE_DID_CHANGE_WATCHED_FILES)
