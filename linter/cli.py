@@ -277,6 +277,22 @@ def list_rules(
 
 
 @app.command()
+def lsp() -> None:
+    """Run the language server on stdin/stdout, for editors: findings as you type, hover figures."""
+    try:
+        from .lsp.server import serve  # pygls: a third of a second to import, so only here
+    except ModuleNotFoundError as exc:
+        if (exc.name or "").split(".")[0] not in ("pygls", "lsprotocol"):
+            raise
+        sys.stderr.write(f"packwarden lsp: the language server needs {exc.name.split('.')[0]}, "
+                         f"which is not installed: pip install 'packwarden[lsp]'\n")
+        raise typer.Exit(2)
+    import gc
+    gc.enable()  # main turned it off for start-up; a server runs for hours
+    serve()
+
+
+@app.command()
 def explain(rule_id: str = typer.Argument(..., help="a rule id, e.g. threshold-ladder")) -> None:
     """Print a rule's rationale, options and example."""
     import difflib

@@ -142,8 +142,12 @@ def decode(raw: bytes, shown: str) -> str:
     return text
 
 
-def load_file(path: Path, shown: str | None = None) -> Document:
+def load_file(path: Path, shown: str | None = None, text: str | None = None) -> Document:
+    """Load ``path``; with ``text``, that is its content (an editor's unsaved buffer) in place of
+    what is on disk, held to the same checks (size, NUL bytes) as the file would be."""
     shown = shown if shown is not None else str(path)
+    if text is not None:
+        return load_text(decode(text.encode("utf-8", "replace"), shown), shown)
     return load_text(read_text(path, shown), shown)
 
 

@@ -26,11 +26,17 @@ from .validate import validate
 # --- discovery ----------------------------------------------------------------------------------
 
 def is_design_text(head: str) -> bool:
+    return format_of(head) == "packwarden/1"
+
+
+def format_of(head: str) -> str | None:
+    """The value of the first top-level ``format:`` line: ``packwarden/1`` for a design,
+    ``packwarden-parts/1`` for a part library, None when there is none."""
     for line in head.splitlines():
         stripped = line.strip()
         if stripped.startswith("format:"):
-            return stripped.split(":", 1)[1].strip().strip("'\"") == "packwarden/1"
-    return False
+            return stripped.split(":", 1)[1].strip().strip("'\"")
+    return None
 
 
 def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> list[tuple[Path, str]]:
@@ -143,14 +149,17 @@ def config_position(cfg: Config, key: str) -> tuple[int, int]:
 
 def lint_file(session: Session, path: Path, shown: str,
               timings: dict[str, float] | None = None,
-              document: Document | None = None) -> DesignResult:
+              document: Document | None = None, text: str | None = None) -> DesignResult:
     """Lint one design file. ``timings``, when given, gains the seconds each stage took (added
     to what it holds, so one dict can sum a batch): load, validate, libraries, netlist, model,
     rules. The benchmark reads it to show where a design's time goes.
 
     ``document``, when given, is linted instead of the file's text, as if it were at ``path``
     (libraries resolve from its folder, positions point into it): a rule case's base design with
-    its overrides applied (``packwarden.overrides``)."""
+    its overrides applied (``packwarden.overrides``).
+
+    ``text``, when given, is the design as an editor holds it, linted in place of the file on
+    disk (the language server); its libraries and config are read from disk, as saved."""
     clock = _StageClock(timings)
     result = DesignResult(file=shown)
     cfg, options, cfg_error = session.config_for(path)
@@ -159,7 +168,7 @@ def lint_file(session: Session, path: Path, shown: str,
         return result
     assert cfg is not None
     try:
-        doc = load_file(path, shown) if document is None else document
+        doc = load_file(path, shown, text) if document is None else document
     except InputError as exc:
         result.errors.append(exc)
         return result

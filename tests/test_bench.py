@@ -115,3 +115,17 @@ def test_the_start_up_floor(results: dict) -> None:
     floor = results["startup_floor"]
     assert list(floor) == ["interpreter", "libraries", "schema"]
     assert all(_positive(step["median_s"]) and step["runs"] >= 1 for step in floor.values())
+
+
+def test_the_editor_re_lint_and_round_trip(results: dict) -> None:
+    # A warm re-lint after an edit was timed for every kind of design; over stdio, the edit that
+    # fixes the flawed example and the one that brings the flaw back were each answered, never
+    # before the 300 ms debounce had passed.
+    for kind in KINDS:
+        e = results["editor"]["relint"][kind]
+        assert e["components"] >= 7 and e["runs"] >= 1 and _positive(e["median_s"])
+    trip = results["editor"]["round_trip"]
+    if not trip["available"]:
+        pytest.skip(trip["reason"])
+    for key in ("fix_cleared", "flaw_flagged"):
+        assert trip[key]["runs"] >= 1 and trip[key]["min_s"] >= trip["debounce_s"]
