@@ -28,7 +28,7 @@ from typing import Annotated, Any, get_args, get_origin
 
 from ..api import Finding
 from ..config import find_config, load_config, check_against_rules
-from ..engine import DesignResult, Session, _describe, format_of, lint_file, load_registry
+from ..engine import DesignResult, Session, describe, format_of, lint_file, load_registry
 from ..library import LibraryCache, shown_path
 from ..loader import InputError, load_file
 from ..quantities import format_quantity
@@ -162,7 +162,7 @@ class LiveLinter:
         except Exception as exc:  # the server must outlive any fault of ours: say it and go on
             self.designs.pop(path, None)
             return [Note(path, 1, 1, "error", f"packwarden could not lint this file (a fault in "
-                                               f"packwarden, not in the design): {_describe(exc)}")]
+                                               f"packwarden, not in the design): {describe(exc)}")]
 
     def _lint_design(self, path: Path, text: str) -> list[Note]:
         config = find_config(path.parent)
@@ -235,7 +235,7 @@ class LiveLinter:
             errors = [exc]
         except Exception as exc:
             return [Note(path, 1, 1, "error", f"packwarden could not check this library (a fault "
-                                               f"in packwarden): {_describe(exc)}")]
+                                               f"in packwarden): {describe(exc)}")]
         return [_error_note(e) for e in errors]
 
     def lint_config(self, path: Path) -> list[Note]:
@@ -250,7 +250,7 @@ class LiveLinter:
             return [_error_note(exc)]
         except Exception as exc:
             return [Note(path, 1, 1, "error", f"packwarden could not check this config (a fault "
-                                               f"in packwarden): {_describe(exc)}")]
+                                               f"in packwarden): {describe(exc)}")]
         finally:
             self._drop_unused()
         return []
