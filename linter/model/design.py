@@ -895,37 +895,39 @@ class DesignModel:
     # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, Any]:
-        """The design's key figures, by name, in SI units (reported even when no rule fires)."""
+        """The design's key figures (:class:`packwarden.figures.KeyFigure`), by name, unrounded SI
+        values, each declared in :mod:`packwarden.figures` (reported even when no rule fires)."""
+        from ..figures import typed
         out: dict[str, Any] = {"component_count": len(self.netlist.components)}
         if self.stack is not None:
             out.update(cells=len(self.stack.cells), series=self.stack.series,
                        parallel=self.stack.parallel)
         t = self.overcurrent_trip
         if t is not None:
-            out.update(trip_current_min=_num(t.min), trip_current_typ=_num(t.typical),
-                       trip_current_max=_num(t.max),
-                       sense_resistance_min=_num(t.high.sense_resistance),
-                       sense_resistance_typ=_num(t.typ.sense_resistance),
-                       sense_resistance_max=_num(t.low.sense_resistance))
+            out.update(trip_current_min=t.min, trip_current_typ=t.typical,
+                       trip_current_max=t.max,
+                       sense_resistance_min=t.high.sense_resistance,
+                       sense_resistance_typ=t.typ.sense_resistance,
+                       sense_resistance_max=t.low.sense_resistance)
         s = self.short_circuit_trip
         if s is not None:
-            out.update(short_circuit_trip_min=_num(s.min), short_circuit_trip_max=_num(s.max))
+            out.update(short_circuit_trip_min=s.min, short_circuit_trip_max=s.max)
         psc = self.prospective_short_circuit
         if psc is not None:
-            out["prospective_short_circuit"] = _num(psc)
+            out["prospective_short_circuit"] = psc
         if self.gate_drive is not None:
             out.update(gate_drive_min=self.gate_drive.low, gate_drive_max=self.gate_drive.high)
         # hottest switch junction under the continuous load at the highest ambient (a team policy
         # bounds it, e.g. 100 °C for a product line); a lower bound when the switch runs away
         continuous = [h.tj for h in self.switch_heat if h.case == "continuous"]
         if continuous:
-            out["switch_tj_continuous"] = _num(max(continuous))
+            out["switch_tj_continuous"] = max(continuous)
         sb = self.storage_budget
         if sb is not None:
-            out["storage_months_to_cutoff"] = _num(sb.to_cutoff.months)
+            out["storage_months_to_cutoff"] = sb.to_cutoff.months
             if sb.to_lower_limit is not None:
-                out["storage_months_cutoff_to_lower_limit"] = _num(sb.to_lower_limit.months)
-        return out
+                out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
+        return typed(out.items())
 
 
 def _stack_levels(cells: tuple[Component, ...], bottom: str,

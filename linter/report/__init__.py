@@ -46,6 +46,17 @@ def formatter(name: str) -> Callable:
     return module.render
 
 
+def figure_text(fig: Any) -> str:
+    """A key figure (:class:`packwarden.figures.KeyFigure`) as every report shows it: in its
+    declared unit with an engineering prefix, a count as a plain number, "—" when unknown."""
+    if fig is None or not fig.known:
+        return "—"
+    if fig.unit:
+        from ..quantities import format_quantity
+        return format_quantity(float(fig.value), fig.unit)
+    return f"{fig.value:g}"
+
+
 def source_root(start: Path) -> Path:
     """The folder report paths are relative to: the version-control checkout holding ``start``.
 
