@@ -23,7 +23,7 @@ from packwarden.engine import lint, load_registry
 from packwarden.loader import InputError
 from packwarden.figures import DECLARED
 from packwarden.policy import load_policy, parameter_unit, policy_json_schema
-from packwarden.report import FORMATS, RenderOptions, formatter
+from packwarden.report import RenderOptions, formatter, load_formats
 
 REPO = Path(__file__).resolve().parent.parent
 EXAMPLE = (REPO / "example_designs" / "orchard-probe.yaml").read_text(encoding="utf-8")
@@ -396,7 +396,7 @@ def test_a_policy_finding_can_be_waived(repo: Path) -> None:
 def test_policy_findings_appear_in_every_format(repo: Path) -> None:
     with_policy(repo, BRIEF_POLICY)
     run = lint(["designs/probe.yaml"])
-    for name in FORMATS:
+    for name in load_formats().names():
         out = formatter(name)(run, RenderOptions())
         for rid in ("policy/trip-max-product-line", "policy/fet-vds-30", "policy/no-legacy-fuse"):
             assert rid in out, f"{rid} missing from the {name} report"

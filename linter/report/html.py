@@ -94,6 +94,11 @@ def render(run: RunResult, opts: RenderOptions) -> str:
     return _environment().get_template("report.html.j2").render(**ctx)
 
 
+# The charts draw from each design's model, which stays in the process that built it: the CLI
+# lints in one process for a format that says so.
+render.needs_models = True  # type: ignore[attr-defined]
+
+
 def _environment() -> Environment:
     # autoescape=True for every template, not by file suffix: the template's name ends in .j2.
     return Environment(loader=PackageLoader("packwarden.report", "templates"), autoescape=True,
