@@ -59,16 +59,24 @@ def load_formats() -> FormatRegistry:
     """Every format of the ``packwarden.formats`` entry points, none of them imported yet."""
     from importlib.metadata import entry_points
 
-    def dist(ep: Any) -> str:
-        return ep.dist.name if ep.dist is not None else ep.module
+    # A distribution's name is parsed from its metadata file on every access; the entry points of
+    # one distribution share one distribution object, so each name is read once.
+    names: dict[int, str] = {}
 
+    def dist(ep: Any) -> str:
+        if ep.dist is None:
+            return ep.module
+        if id(ep.dist) not in names:
+            names[id(ep.dist)] = ep.dist.name
+        return names[id(ep.dist)]
+
+    found = [(dist(ep), ep) for ep in entry_points(group=FORMAT_GROUP)]
     # packwarden's own formats first, then plugins by distribution: a plugin that reuses a name
     # is the one reported, and the outcome never depends on the order of the installation
-    found = sorted(entry_points(group=FORMAT_GROUP),
-                   key=lambda ep: (dist(ep) != "packwarden", dist(ep), ep.name))
+    found.sort(key=lambda item: (item[0] != "packwarden", item[0], item[1].name))
     reg = FormatRegistry({}, [])
-    for ep in found:
-        origin = f"{dist(ep)}:{ep.name}"
+    for dist, ep in found:
+        origin = f"{dist}:{ep.name}"
         if ep.name in reg.entries:
             reg.broken.append((origin, f"duplicate output format '{ep.name}': registered by "
                                        f"{reg.entries[ep.name][0]} and by {origin}"))
