@@ -603,12 +603,14 @@ def scaling(files: list[Path], runs: int) -> dict:
         t0 = time.perf_counter()
         yaml.compose(f.read_text(encoding="utf-8"), Loader=yaml.CSafeLoader)
         parse = time.perf_counter() - t0
-        points.append({"components": result.figures["component_count"],
-                       "series": result.figures.get("series"),
-                       "parallel": result.figures.get("parallel"),
+        shape = {k: result.figures[k].value if k in result.figures else None
+                 for k in ("component_count", "series", "parallel")}
+        points.append({"components": shape["component_count"],
+                       "series": shape["series"],
+                       "parallel": shape["parallel"],
                        "lint_s": statistics.median(times), "compose_s": parse,
                        "lint_per_component_s": statistics.median(times) /
-                       result.figures["component_count"]})
+                       shape["component_count"]})
     ratios = []
     by_n = {p["components"]: p for p in points}
     for n, p in by_n.items():
@@ -635,7 +637,7 @@ def monte_carlo(files: dict[str, Path], samples: int, runs: int) -> dict:
             run_yield(d.model, samples)
             times.append(time.perf_counter() - t0)
         out[kind] = {"samples": samples, "median_s": statistics.median(times), "runs": runs,
-                     "components": d.figures["component_count"]}
+                     "components": d.figures["component_count"].value}
     return out
 
 

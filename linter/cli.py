@@ -16,15 +16,6 @@ app = typer.Typer(add_completion=False, no_args_is_help=True, pretty_exceptions_
                   help="Design-review linter for lithium-ion battery protection circuits.")
 
 
-class Format(str, Enum):
-    text = "text"
-    json = "json"
-    sarif = "sarif"
-    junit = "junit"
-    markdown = "markdown"
-    html = "html"
-
-
 class Level(str, Enum):
     error = "error"
     warning = "warning"
@@ -52,7 +43,9 @@ def _use_color(output: Optional[Path], fmt: str) -> bool:
 def check(
     paths: List[str] = typer.Argument(..., metavar="PATH",
                                       help="design files, or folders to search for designs"),
-    format: Format = typer.Option(Format.text, "--format", "-f", help="output format"),
+    format: str = typer.Option(
+        "text", "--format", "-f", metavar="FORMAT",  # packwarden.report.DEFAULT_FORMAT
+        help="output format: text, or any registered one (`packwarden formats` lists them)"),
     output: Optional[Path] = typer.Option(None, "--output", "-o", help="write the report here"),
     fail_on: Optional[Level] = typer.Option(
         None, "--fail-on", help="lowest severity that fails the run (default: config, else error)"),
@@ -84,17 +77,24 @@ def check(
     jobs: Optional[int] = typer.Option(
         None, "--jobs", "-j", metavar="N", min=1,
         help="worker processes (default: one per processor for a batch of 48 designs or more, "
-             "else 1; the html format and --yield lint in one process)"),
+             "else 1; formats that draw on the models, such as html, and --yield lint in one "
+             "process)"),
 ) -> None:
     """Lint designs; exit 0 clean, 1 findings at or above --fail-on, 2 input could not be used."""
     from .api import Severity
     from .engine import Registry, RequiredPluginError, lint
     from .loader import InputError
     from .progress import progress_for
-    from .report import FormatUnavailable, RenderOptions, formatter
+    from .report import DEFAULT_FORMAT, FormatUnavailable, RenderOptions, formatter, load_formats
 
+    format_problems: list[tuple[str, str]] = []
     try:
-        render = formatter(format.value)
+        if format == DEFAULT_FORMAT:  # found without reading the entry points (start-up time)
+            render = formatter(format)
+        else:
+            formats = load_formats()
+            render = formats.load(format)
+            format_problems = formats.broken
     except FormatUnavailable as exc:
         sys.stderr.write(f"packwarden check: {exc}\n")
         raise typer.Exit(2)
@@ -107,7 +107,7 @@ def check(
     bar = progress_for(sys.stderr, quiet=quiet)
     # The HTML report and the yield run read each design's model, which stays in the process
     # that built it: they lint in this one.
-    needs_models = format == Format.html or bool(yield_samples)
+    needs_models = getattr(render, "needs_models", False) or bool(yield_samples)
     if _OWN_PROCESS:
         # What is loaded by now lives as long as the process: keep the cycle collector from
         # walking it again and again while the designs are linted, and turn it back on (main
@@ -151,11 +151,13 @@ def check(
             comparison.earlier_errors = earlier_errors
     except InputError as exc:  # one line, exit 2; the report of the run is still written
         run.errors.append(exc)
-    text = render(run, RenderOptions(color=_use_color(output, format.value), quiet=quiet,
+    # a format plugin that reuses a name: reported in the report like a broken rule plugin
+    run.broken_plugins.extend(format_problems)
+    text = render(run, RenderOptions(color=_use_color(output, format), quiet=quiet,
                                      baseline=comparison))
     if yield_samples:
         from .montecarlo import add_yield
-        text = add_yield(text, format.value, run, yield_samples, seed, distribution.value)
+        text = add_yield(text, format, run, yield_samples, seed, distribution.value)
     if output is not None:
         try:
             output.write_text(text, encoding="utf-8")
@@ -274,6 +276,27 @@ def list_rules(
     for origin, message in reg.broken:
         sys.stdout.write(f"{origin}:1:1: {message}\n")
     raise typer.Exit(2 if reg.broken else 0)
+
+
+@app.command("formats")
+def list_formats() -> None:
+    """List the output formats from the registry (the packwarden.formats entry points): name and
+    the distribution that registers it. Each is loaded, so a broken one is reported here."""
+    from .report import FormatUnavailable, load_formats
+    reg = load_formats()
+    problems = list(reg.broken)
+    width = max((len(n) for n in reg.names()), default=10)
+    for name in reg.names():
+        origin = reg.entries[name][0]
+        try:
+            reg.load(name)
+        except FormatUnavailable as exc:
+            problems.append((origin, str(exc)))
+            continue
+        sys.stdout.write(f"{name:<{width}}  {origin}\n")
+    for origin, message in problems:
+        sys.stdout.write(f"{origin}:1:1: {message}\n")
+    raise typer.Exit(2 if problems else 0)
 
 
 @app.command()

@@ -41,6 +41,7 @@ from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origi
 from pydantic import BaseModel, Field, StrictFloat, StrictInt, StrictStr, WithJsonSchema
 
 from .api import Figure, Finding, RuleContext, Severity
+from .figures import DECLARED, KeyFigure
 from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
 from .schema import PART_KINDS, Strict, Toleranced, drop_titles, quantity_of
@@ -50,40 +51,6 @@ from .records import record
 POLICY_FORMAT = "packwarden-policy/1"
 RULE_PREFIX = "policy/"
 LIMIT_ID = re.compile(r"^[a-z0-9][a-z0-9-]{0,62}$")
-
-# --- the figures a policy may bound -----------------------------------------------------------
-
-#: Every figure ``DesignModel.figures()`` reports, with its unit (values are SI; "" for counts) and
-#: the component a finding about it points at: the protector sets the trip and sense figures
-#: through its detection voltages and gate drive, the cells set the stack's shape.
-#: A test holds this table to what the model reports, so a new figure cannot go unbounded.
-#: Figures of the switches (junction temperatures) point at the first switch package.
-SWITCHES = ("fet", "fet_pair_common_drain")
-FIGURES: dict[str, tuple[str, tuple[str, ...]]] = {
-    "component_count": ("", ()),
-    "cells": ("", ("cell",)),
-    "series": ("", ("cell",)),
-    "parallel": ("", ("cell",)),
-    "trip_current_min": ("A", ("protector",)),
-    "trip_current_typ": ("A", ("protector",)),
-    "trip_current_max": ("A", ("protector",)),
-    "sense_resistance_min": ("Ω", ("protector",)),
-    "sense_resistance_typ": ("Ω", ("protector",)),
-    "sense_resistance_max": ("Ω", ("protector",)),
-    "short_circuit_trip_min": ("A", ("protector",)),
-    "short_circuit_trip_max": ("A", ("protector",)),
-    "prospective_short_circuit": ("A", ("cell",)),
-    "gate_drive_min": ("V", ("protector",)),
-    "gate_drive_max": ("V", ("protector",)),
-    "switch_tj_continuous": ("°C", SWITCHES),
-    # shelf life of a stored pack: the protector's supply current and the cells' self-discharge
-    "storage_months_to_cutoff": ("months", ("cell",)),
-    "storage_months_cutoff_to_lower_limit": ("months", ("cell",)),
-}
-
-#: Figure name -> unit, for tools and docs.
-FIGURE_UNITS: dict[str, str] = {name: unit for name, (unit, _) in FIGURES.items()}
-
 
 # --- the file format (pydantic; the JSON Schema is generated from here) -------------------------
 
@@ -109,7 +76,7 @@ class LimitSpec(Strict):
 
     id: Annotated[str, WithJsonSchema({"type": "string", "pattern": LIMIT_ID.pattern})] = Field(
         description="stable id; findings carry the rule id policy/<id>")
-    figure: Annotated[str, WithJsonSchema({"type": "string", "enum": list(FIGURES)})] | None = Field(
+    figure: Annotated[str, WithJsonSchema({"type": "string", "enum": list(DECLARED)})] | None = Field(
         default=None, description="a key of the design's figures, e.g. trip_current_max")
     part: PartSelector | None = Field(default=None, description="the parts this limit applies to")
     parameter: str | None = Field(default=None, description="a part parameter, e.g. vds_max or "
@@ -235,12 +202,12 @@ def _limit(doc: Document, where: tuple, spec: LimitSpec) -> Limit:
             if key in raw:
                 raise fail(key, f"'{key}' belongs to part limits; a figure limit gives 'min' "
                                 f"and/or 'max'", on_key=True)
-        if spec.figure not in FIGURES:
-            close = difflib.get_close_matches(spec.figure, list(FIGURES), n=1)
+        if spec.figure not in DECLARED:
+            close = difflib.get_close_matches(spec.figure, list(DECLARED), n=1)
             raise fail("figure", f"unknown figure '{spec.figure}'" +
                        (f" (did you mean '{close[0]}'?)" if close else
-                        f"; known figures: {', '.join(FIGURES)}"))
-        unit = FIGURES[spec.figure][0]
+                        f"; known figures: {', '.join(DECLARED)}"))
+        unit = DECLARED[spec.figure].unit
         low, high = _bounds(doc, where, spec, raw, unit, f"figure {spec.figure}")
         return Limit(**common, unit=unit, figure=spec.figure, low=low, high=high)
 
@@ -377,7 +344,7 @@ def parameter_unit(kind: str, dotted: tuple[str, ...]) -> str:
 
 # --- checking a design --------------------------------------------------------------------------
 
-def check_policy(policy: Policy, ctx_for, figures: dict[str, Any], netlist: Any,
+def check_policy(policy: Policy, ctx_for, figures: dict[str, KeyFigure], netlist: Any,
                  held_back: bool = False) -> tuple[list[Finding], list[str]]:
     """Findings of every limit on one design, and the limits held back.
 
@@ -415,14 +382,15 @@ def _anchor(kinds: tuple[str, ...], netlist: Any) -> tuple[tuple, str | None]:
     return ("components",), None
 
 
-def _figure_findings(limit: Limit, ctx: RuleContext, figures: dict[str, Any],
+def _figure_findings(limit: Limit, ctx: RuleContext, figures: dict[str, KeyFigure],
                      netlist: Any) -> Iterable[Finding]:
     name, unit = limit.figure, limit.unit
     if name not in figures:
         return  # the design has no such figure (no short-circuit detection, say): nothing to bound
-    path, element = _anchor(FIGURES[name][1], netlist)
-    value = figures[name]
-    if value is None or not math.isfinite(float(value)):
+    path, element = _anchor(DECLARED[name].element, netlist)
+    figure = figures[name]
+    value = figure.value
+    if not figure.known:
         yield ctx.finding(f"{name} could not be computed for this design, so the policy limit on "
                           f"it cannot be checked", path=path, element=element, key="unknown",
                           hint=_hint(limit))

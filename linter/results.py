@@ -23,6 +23,7 @@ class DesignResult:
     file: str
     name: str | None = None
     findings: list[Finding] = field(default_factory=list)
+    #: The model's key figures by name (:class:`packwarden.figures.KeyFigure`).
     figures: dict[str, Any] = field(default_factory=dict)
     errors: list[InputError] = field(default_factory=list)
     internal: list[InternalError] = field(default_factory=list)

@@ -21,9 +21,9 @@ from packwarden import Severity
 from packwarden.cli import app
 from packwarden.engine import lint, load_registry
 from packwarden.loader import InputError
-from packwarden.policy import (FIGURE_UNITS, FIGURES, load_policy, parameter_unit,
-                               policy_json_schema)
-from packwarden.report import FORMATS, RenderOptions, formatter
+from packwarden.figures import DECLARED
+from packwarden.policy import load_policy, parameter_unit, policy_json_schema
+from packwarden.report import RenderOptions, formatter, load_formats
 
 REPO = Path(__file__).resolve().parent.parent
 EXAMPLE = (REPO / "example_designs" / "orchard-probe.yaml").read_text(encoding="utf-8")
@@ -74,7 +74,7 @@ def figures_of_example(root: Path) -> dict:
     (root / "pyproject.toml").unlink()
     [d] = lint(["designs/probe.yaml"]).designs
     (root / "pyproject.toml").write_text('[tool.packwarden]\npolicy = "team-policy.yaml"\n')
-    return d.figures
+    return {name: fig.value for name, fig in d.figures.items()}
 
 
 # --- reading ------------------------------------------------------------------------------------
@@ -287,7 +287,7 @@ def test_the_brief_policy_fires_on_the_example(repo: Path) -> None:
     assert trip.hint == "our connector is rated 5 A"
     assert trip.location.path == ("components", "U1", "part")
     assert [(g.name, g.unit) for g in trip.figures] == [("trip_current_max", "A"), ("policy max", "A")]
-    assert trip.figures[0].value == figures["trip_current_max"] and trip.figures[1].value == 5.0
+    assert trip.figures[0].value == figures["trip_current_max"].value and trip.figures[1].value == 5.0
     assert trip.message.startswith("trip_current_max ") and "above the policy maximum 5 A" in trip.message
     # Q1's vds_max is 20 V in the library [the example's data sheet value]
     vds = found["policy/fet-vds-30"]
@@ -396,7 +396,7 @@ def test_a_policy_finding_can_be_waived(repo: Path) -> None:
 def test_policy_findings_appear_in_every_format(repo: Path) -> None:
     with_policy(repo, BRIEF_POLICY)
     run = lint(["designs/probe.yaml"])
-    for name in FORMATS:
+    for name in load_formats().names():
         out = formatter(name)(run, RenderOptions())
         for rid in ("policy/trip-max-product-line", "policy/fet-vds-30", "policy/no-legacy-fuse"):
             assert rid in out, f"{rid} missing from the {name} report"
@@ -424,9 +424,9 @@ def test_every_figure_the_model_reports_has_a_unit_and_an_anchor() -> None:
     run = lint([str(REPO / "example_designs")], registry=load_registry())
     reported = {k for d in run.designs for k in d.figures}
     assert run.designs and "trip_current_max" in reported
-    assert reported <= set(FIGURES), (
-        f"figures without a unit in packwarden.policy.FIGURES: {sorted(reported - set(FIGURES))}")
-    assert FIGURE_UNITS["trip_current_max"] == "A" and FIGURE_UNITS["sense_resistance_min"] == "Ω"
+    assert reported <= set(DECLARED), (
+        f"figures not declared in packwarden.figures: {sorted(reported - set(DECLARED))}")
+    assert DECLARED["trip_current_max"].unit == "A" and DECLARED["sense_resistance_min"].unit == "Ω"
 
 
 @pytest.mark.parametrize("kind, parameter, unit", [
@@ -452,7 +452,7 @@ def test_the_example_team_policy_is_valid() -> None:
     assert [lim.id for lim in policy.limits] == ["beacon-trip-max", "junction-100", "fet-vds-20",
                                                  "cell-charge-window", "no-small-fet"]
     assert policy_json_schema()["definitions"]["LimitSpec"]["properties"]["figure"]["anyOf"][0][
-        "enum"] == list(FIGURES)
+        "enum"] == list(DECLARED)
 
 
 def test_load_policy_raises_the_first_mistake(tmp_path: Path) -> None:
@@ -475,7 +475,7 @@ def test_a_junction_temperature_limit(repo: Path) -> None:
     [design] = run.designs
     [heat] = [h for h in design.model.switch_heat if h.case == "continuous"]
     # T_J = T_A + P · R_θJA [published: data sheet definition]: Q1 (83 K/W) at 55 °C ambient
-    tj = design.figures["switch_tj_continuous"]
+    tj = design.figures["switch_tj_continuous"].value
     assert heat.ambient == 55.0
     assert tj == pytest.approx(55.0 + heat.power * 83.0, abs=0.01)
     # 1.2 A through two channels of 23-32 mΩ, hot: a few tenths of a watt at most [derived]

@@ -79,6 +79,7 @@ def test_pip_installed_the_distributions_with_their_entry_points(installed: dict
                      "tallgrass_packwarden_rules-1.2.0.dist-info"]
     eps = (installed["target"] / infos[1] / "entry_points.txt").read_text(encoding="utf-8")
     assert "[packwarden.rules]" in eps and "tallgrass-fuse-at-cell-positive =" in eps
+    assert "[packwarden.formats]" in eps and "tallgrass-csv =" in eps
 
 
 def test_packwarden_rules_lists_the_team_rules_beside_the_builtin_ones(installed: dict) -> None:
@@ -113,6 +114,25 @@ def test_the_team_rules_fire_in_a_check(installed: dict, tmp_path: Path) -> None
         ("tests/designs/beacon.yaml", "tallgrass-fet-current-derating", "Q1"),
         ("tests/designs/low-side-fuse.yaml", "tallgrass-fet-current-derating", "Q1")}, \
         proc.stdout + proc.stderr
+
+
+def test_the_team_format_is_registered_and_writes_its_csv(installed: dict) -> None:
+    # the package's own output format, found through the packwarden.formats entry points; read
+    # back with Python's csv reader [published: RFC 4180]
+    import csv
+    import io
+    listed = run(installed, "formats")
+    assert "tallgrass-csv  tallgrass-packwarden-rules:tallgrass-csv" in listed.stdout
+    assert listed.returncode == 0, listed.stdout + listed.stderr
+    proc = run(installed, "check", "--format", "tallgrass-csv", "tests/designs")
+    header, *rows = list(csv.reader(io.StringIO(proc.stdout)))
+    assert header[:5] == ["file", "line", "column", "severity", "rule"]
+    fired = {(r[0], r[4], r[5]) for r in rows if r[4].startswith("tallgrass-")}
+    assert fired == {
+        ("tests/designs/low-side-fuse.yaml", "tallgrass-fuse-at-cell-positive", "F1"),
+        ("tests/designs/small-fet.yaml", "tallgrass-fet-current-derating", "Q1"),
+    }
+    assert proc.returncode == 1 and proc.stderr == ""
 
 
 def test_require_plugins_passes_with_the_package_and_fails_fast_without(installed: dict) -> None:

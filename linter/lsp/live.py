@@ -29,6 +29,7 @@ from typing import Annotated, Any, get_args, get_origin
 from ..api import Finding
 from ..config import find_config, load_config, check_against_rules
 from ..engine import DesignResult, Session, describe, format_of, lint_file, load_registry
+from ..kinds import SWITCH_KINDS
 from ..library import LibraryCache, shown_path
 from ..loader import InputError, load_file
 from ..quantities import format_quantity
@@ -365,9 +366,6 @@ def _word_at(line: str, column: int) -> str | None:
 
 # --- hover text -----------------------------------------------------------------------------------
 
-SWITCH_KINDS = ("fet", "fet_pair_common_drain")
-
-
 def component_hover(c: Any, result: DesignResult) -> str:
     """The component's part, the design's trip window (for its protector, switches and fuse), the
     switch's junction temperature in each load case, and the findings about it with their
@@ -375,7 +373,7 @@ def component_hover(c: Any, result: DesignResult) -> str:
     kind = c.kind or "unknown part"
     head = f"**{c.refdes}**: {kind}" + (f", part `{c.part_name}`" if c.part_name else "")
     out = [head, ""]
-    fig = result.figures
+    fig = {name: f.value for name, f in result.figures.items()}  # KeyFigure values, SI
     if c.kind in ("protector", "fuse", *SWITCH_KINDS):
         trip = _window(fig, "trip_current")
         if trip:

@@ -9,10 +9,10 @@ the yield run, the charts and policies all read it from here.
 
 from __future__ import annotations
 
-import math
 from functools import cached_property
 from typing import Any
 
+from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
@@ -357,42 +357,36 @@ class DesignModel:
 
     # --- reporting -----------------------------------------------------------------------------
 
-    def figures(self) -> dict[str, Any]:
-        """The design's key figures, by name, in SI units (reported even when no rule fires)."""
+    def figures(self) -> dict[str, KeyFigure]:
+        """The design's key figures (:class:`packwarden.figures.KeyFigure`), by name, unrounded SI
+        values, each declared in :mod:`packwarden.figures` (reported even when no rule fires)."""
         out: dict[str, Any] = {"component_count": len(self.netlist.components)}
         if self.stack is not None:
             out.update(cells=len(self.stack.cells), series=self.stack.series,
                        parallel=self.stack.parallel)
         t = self.overcurrent_trip
         if t is not None:
-            out.update(trip_current_min=_num(t.min), trip_current_typ=_num(t.typ),
-                       trip_current_max=_num(t.max),
-                       sense_resistance_min=_num(t.sense_resistance.min),
-                       sense_resistance_typ=_num(t.sense_resistance.typ),
-                       sense_resistance_max=_num(t.sense_resistance.max))
+            out.update(trip_current_min=t.min, trip_current_typ=t.typ, trip_current_max=t.max,
+                       sense_resistance_min=t.sense_resistance.min,
+                       sense_resistance_typ=t.sense_resistance.typ,
+                       sense_resistance_max=t.sense_resistance.max)
         s = self.short_circuit_trip
         if s is not None:
-            out.update(short_circuit_trip_min=_num(s.min), short_circuit_trip_max=_num(s.max))
+            out.update(short_circuit_trip_min=s.min, short_circuit_trip_max=s.max)
         psc = self.prospective_short_circuit
         if psc is not None:
-            out["prospective_short_circuit"] = _num(psc)
+            out["prospective_short_circuit"] = psc
         if self.gate_drive is not None:
             out.update(gate_drive_min=self.gate_drive.min, gate_drive_max=self.gate_drive.max)
         # hottest switch junction under the continuous load at the highest ambient (a team policy
         # bounds it, e.g. 100 °C for a product line); a lower bound when the switch runs away
         continuous = [h.tj for h in self.switch_heat if h.case == "continuous"]
         if continuous:
-            out["switch_tj_continuous"] = _num(max(continuous))
+            out["switch_tj_continuous"] = max(continuous)
         sb = self.storage_budget
         if sb is not None:
-            out["storage_months_to_cutoff"] = _num(sb.to_cutoff.months)
+            out["storage_months_to_cutoff"] = sb.to_cutoff.months
             if sb.to_lower_limit is not None:
-                out["storage_months_cutoff_to_lower_limit"] = _num(sb.to_lower_limit.months)
-        return out
+                out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
+        return typed(out.items())
 
-
-def _num(x: float) -> float | None:
-    """A figure fit for JSON: rounded to 6 significant digits, None when not finite."""
-    if x is None or not math.isfinite(x):
-        return None
-    return float(f"{x:.6g}")

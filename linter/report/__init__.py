@@ -1,29 +1,96 @@
-"""Formatters behind one interface: ``render(run, options) -> str``, looked up by name.
+"""Formatters behind one interface: ``render(run, options) -> str``, registered by name.
 
-Adding a format touches one module here and the table below.
+Formats register in the ``packwarden.formats`` entry-point group, the built-in ones in
+packwarden's own ``pyproject.toml`` exactly as a team's package would, so adding a format is its
+module and one line there. Nothing is imported until a format is asked for, and the default text
+format is found without reading the entry points at all: a plain ``check`` pays nothing for the
+registry.
 """
 
 from __future__ import annotations
 
-import importlib
-import importlib.util
+import difflib
 from pathlib import Path
 from typing import Any, Callable
 
 from ..records import record
 
-FORMATS = {
-    "text": "text",
-    "json": "json_format",
-    "sarif": "sarif",
-    "junit": "junit",
-    "markdown": "markdown",
-    "html": "html",
-}
+FORMAT_GROUP = "packwarden.formats"
+DEFAULT_FORMAT = "text"
 
 
 class FormatUnavailable(LookupError):
-    """A format named in :data:`FORMATS` whose module is not part of this installation."""
+    """The format asked for is not registered, or its module could not be loaded (one line)."""
+
+
+@record
+class FormatRegistry:
+    """The formats installed, by name: each an entry point, loaded only when asked for."""
+
+    #: name -> (origin ``distribution:name``, entry point); packwarden's own formats first
+    entries: dict[str, tuple[str, Any]]
+    #: (origin, message) of each registration of a name already taken: reported like a broken
+    #: rule plugin (exit code 2); the first registration stays in use
+    broken: list[tuple[str, str]]
+
+    def names(self) -> list[str]:
+        return sorted(self.entries)
+
+    def load(self, name: str) -> Callable:
+        """The ``render`` function of format ``name``; :class:`FormatUnavailable` if there is none."""
+        if name not in self.entries:
+            close = difflib.get_close_matches(name, self.names(), n=1)
+            raise FormatUnavailable(f"unknown output format '{name}'" + (
+                f" (did you mean '{close[0]}'?)" if close else "")
+                + f"; registered formats: {', '.join(self.names())}")
+        origin, ep = self.entries[name]
+        try:
+            render = ep.load()
+        except (Exception, SystemExit) as exc:  # a broken plugin is one line, not a traceback
+            raise FormatUnavailable(f"output format '{name}' ({origin}) failed to load: "
+                                    f"{type(exc).__name__}: {exc}") from None
+        if not callable(render):
+            raise FormatUnavailable(f"output format '{name}' ({origin}) is not a render function "
+                                    f"(got {type(render).__name__})")
+        return render
+
+
+def load_formats() -> FormatRegistry:
+    """Every format of the ``packwarden.formats`` entry points, none of them imported yet."""
+    from importlib.metadata import entry_points
+
+    # A distribution's name is parsed from its metadata file on every access; the entry points of
+    # one distribution share one distribution object, so each name is read once.
+    names: dict[int, str] = {}
+
+    def dist(ep: Any) -> str:
+        if ep.dist is None:
+            return ep.module
+        if id(ep.dist) not in names:
+            names[id(ep.dist)] = ep.dist.name
+        return names[id(ep.dist)]
+
+    found = [(dist(ep), ep) for ep in entry_points(group=FORMAT_GROUP)]
+    # packwarden's own formats first, then plugins by distribution: a plugin that reuses a name
+    # is the one reported, and the outcome never depends on the order of the installation
+    found.sort(key=lambda item: (item[0] != "packwarden", item[0], item[1].name))
+    reg = FormatRegistry({}, [])
+    for dist, ep in found:
+        origin = f"{dist}:{ep.name}"
+        if ep.name in reg.entries:
+            reg.broken.append((origin, f"duplicate output format '{ep.name}': registered by "
+                                       f"{reg.entries[ep.name][0]} and by {origin}"))
+            continue
+        reg.entries[ep.name] = (origin, ep)
+    return reg
+
+
+def formatter(name: str) -> Callable:
+    """The ``render`` function of format ``name``, imported only when asked for (start-up time)."""
+    if name == DEFAULT_FORMAT:
+        from .text import render
+        return render
+    return load_formats().load(name)
 
 
 @record(frozen=True)
@@ -37,13 +104,15 @@ class RenderOptions:
     baseline: Any = None
 
 
-def formatter(name: str) -> Callable:
-    """The ``render`` function of format ``name``; imported only when asked for (start-up time)."""
-    target = f"{__name__}.{FORMATS[name]}"
-    if importlib.util.find_spec(target) is None:
-        raise FormatUnavailable(f"output format '{name}' is not available in this installation")
-    module = importlib.import_module(target)
-    return module.render
+def figure_text(fig: Any) -> str:
+    """A key figure (:class:`packwarden.figures.KeyFigure`) as every report shows it: in its
+    declared unit with an engineering prefix, a count as a plain number, "—" when unknown."""
+    if fig is None or not fig.known:
+        return "—"
+    if fig.unit:
+        from ..quantities import format_quantity
+        return format_quantity(float(fig.value), fig.unit)
+    return f"{fig.value:g}"
 
 
 def source_root(start: Path) -> Path:

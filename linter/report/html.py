@@ -16,9 +16,10 @@ from jinja2 import Environment, PackageLoader, StrictUndefined
 
 from .. import __version__
 from ..api import Severity
-from ..results import DesignResult, RunResult
+from ..figures import ENDS, rows
 from ..quantities import format_quantity
-from . import RenderOptions
+from ..results import DesignResult, RunResult
+from . import RenderOptions, figure_text
 from .charts import Chart, charts_for, span_text
 from .text import CAUTION
 from ..records import record
@@ -33,22 +34,6 @@ CAUTIONS = (
     "Waived findings are still hazards someone accepted: each waiver's reason is shown beside the "
     "finding so the review can judge it.",
 )
-
-#: The model's key figures (``DesignModel.figures``) as the report shows them: single values,
-#: then ranges with their min/typ/max keys. Figures not named here are listed by their key.
-SINGLE_FIGURES: dict[str, tuple[str, str]] = {
-    "component_count": ("components", ""),
-    "cells": ("cells", ""),
-    "series": ("cells in series", ""),
-    "parallel": ("cells in parallel", ""),
-    "prospective_short_circuit": ("prospective short circuit", "A"),
-}
-RANGE_FIGURES: dict[str, tuple[str, str]] = {
-    "trip_current": ("over-current trip", "A"),
-    "sense_resistance": ("sense resistance", "Ω"),
-    "short_circuit_trip": ("short-circuit trip", "A"),
-    "gate_drive": ("gate drive", "V"),
-}
 
 _EXIT_MEANING = {0: "passes: nothing at or above the fail-on level",
                  1: "fails: findings at or above the fail-on level",
@@ -107,6 +92,11 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         "baseline": opts.baseline.summary() if getattr(opts, "baseline", None) is not None else None,
     }
     return _environment().get_template("report.html.j2").render(**ctx)
+
+
+# The charts draw from each design's model, which stays in the process that built it: the CLI
+# lints in one process for a format that says so.
+render.needs_models = True  # type: ignore[attr-defined]
 
 
 def _environment() -> Environment:
@@ -170,30 +160,12 @@ def _where(loc: Any, design_file: str) -> str:
 
 
 def _figures(figures: dict[str, Any]) -> list[tuple[str, str, str, str]]:
-    """Rows of (figure, min, typ, max); a single value sits in the typ column."""
-    out = []
-    used: set[str] = set()
-    for stem, (label, unit) in RANGE_FIGURES.items():
-        keys = [f"{stem}_{end}" for end in ("min", "typ", "max")]
-        if any(k in figures for k in keys):
-            used.update(keys)
-            out.append((label, *(_value(figures.get(k), unit) if k in figures else "" for k in keys)))
-    singles = [k for k in SINGLE_FIGURES if k in figures]
-    others = sorted(k for k in figures if k not in used and k not in SINGLE_FIGURES)
-    for key in singles + others:
-        label, unit = SINGLE_FIGURES.get(key, (key.replace("_", " "), ""))
-        out.append((label, "", _value(figures[key], unit), ""))
-    return out
-
-
-def _value(value: Any, unit: str) -> str:
-    if value is None:
-        return "—"
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        return str(value)
-    if unit:
-        return format_quantity(float(value), unit)
-    return f"{value:g}"
+    """Rows of (figure, min, typ, max): the ranges, then the single figures in the typ column,
+    each as :mod:`packwarden.figures` declares it."""
+    lines = rows(figures)
+    return ([(r.label, *(figure_text(r.get(end)) if r.get(end) is not None else "" for end in ENDS))
+             for r in lines if r.is_range]
+            + [(r.label, "", figure_text(r.get()), "") for r in lines if not r.is_range])
 
 
 def _conditions(model: Any) -> list[tuple[str, str]]:

@@ -7,6 +7,7 @@ import math
 from dataclasses import asdict
 
 from .. import __version__
+from ..figures import DECLARED
 from ..results import RunResult
 from . import RenderOptions
 
@@ -30,7 +31,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                    for e in run.input_errors()],
         "broken_plugins": [{"plugin": o, "message": m} for o, m in run.broken_plugins],
         "designs": [{
-            "file": d.file, "name": d.name, "figures": d.figures,
+            "file": d.file, "name": d.name, "figures": key_figures(d.figures),
             "findings": [finding_dict(f) for f in d.findings],
             "internal_errors": [asdict(i) for i in d.internal],
             "skipped_rules": d.skipped,
@@ -45,6 +46,19 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         }
     return json.dumps(_finite(out), indent=2, sort_keys=False, ensure_ascii=False,
                       allow_nan=False) + "\n"
+
+
+def key_figures(figures: dict) -> dict:
+    """A design's key figures as JSON writes them: by name in declaration order, counts as they
+    are, measures rounded to 6 significant digits (more than any input carries), and null where
+    not finite."""
+    return {name: _rounded(figures[name].value) for name in DECLARED if name in figures}
+
+
+def _rounded(value):
+    if isinstance(value, float):
+        return float(f"{value:.6g}") if math.isfinite(value) else None
+    return value
 
 
 def _finite(node):

@@ -12,9 +12,10 @@ import re
 from typing import Any
 
 from ..api import Finding, Severity
+from ..figures import Row, stack_shape
+from ..figures import rows as figure_lines
 from ..results import RunResult
-from ..quantities import format_quantity
-from . import RenderOptions, relative_path, report_root
+from . import RenderOptions, figure_text, relative_path, report_root
 from .text import CAUTION
 
 MAX_ROWS = 200
@@ -111,10 +112,9 @@ def render(run: RunResult, opts: RenderOptions) -> str:
 
     figure_rows = [(d, _figure_cells(d.figures)) for d in run.designs if d.figures]
     if figure_rows:
-        out += ["### Key figures", "",
-                "| design | cells | trip current min / typ / max | short-circuit trip min / max "
-                "| prospective short circuit | gate drive min / max |",
-                "|---|---|---|---|---|---|"]
+        columns = ["design", "cells"] + [_heading(r) for r in figure_lines(headline=True)]
+        out += ["### Key figures", "", "| " + " | ".join(columns) + " |",
+                "|" + "---|" * len(columns)]
         for d, cells in figure_rows:
             name = esc(d.name) + f"<br>{code(where(d.file))}" if d.name else code(where(d.file))
             out.append(f"| {name} | " + " | ".join(cells) + " |")
@@ -130,25 +130,17 @@ def _order(f: Finding) -> tuple:
     return (f.location.file, f.location.line, f.location.column, f.rule)
 
 
-def _q(value: Any, unit: str) -> str:
-    if not isinstance(value, (int, float)) or isinstance(value, bool):
-        return "—"
-    return format_quantity(value, unit)
+def _heading(row: Row) -> str:
+    return f"{row.label} {' / '.join(row.ends)}" if row.is_range else row.label
 
 
 def _figure_cells(fig: dict[str, Any]) -> list[str]:
-    cells = "—"
-    if fig.get("series") and fig.get("parallel"):
-        cells = f"{fig['series']}S{fig['parallel']}P"
-
-    def span(*keys: str, unit: str) -> str:
-        values = [fig.get(k) for k in keys]
-        if all(v is None for v in values):
-            return "—"
-        return " / ".join(_q(v, unit) for v in values)
-
-    return [cells,
-            esc(span("trip_current_min", "trip_current_typ", "trip_current_max", unit="A")),
-            esc(span("short_circuit_trip_min", "short_circuit_trip_max", unit="A")),
-            esc(span("prospective_short_circuit", unit="A")),
-            esc(span("gate_drive_min", "gate_drive_max", unit="V"))]
+    """The stack, then each headline line: its figures in their order, "—" for a missing one."""
+    cells = [stack_shape(fig) or "—"]
+    present = {row.range: row for row in figure_lines(fig, headline=True)}
+    for column in figure_lines(headline=True):
+        row = present.get(column.range)
+        found = [row.get(end) for end in column.ends] if row is not None else []
+        cells.append(esc(" / ".join(figure_text(f) for f in found))
+                     if any(f is not None and f.known for f in found) else "—")
+    return cells

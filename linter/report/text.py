@@ -3,9 +3,9 @@
 from __future__ import annotations
 
 from ..api import Severity
-from ..quantities import format_quantity
+from ..figures import rows, stack_shape
 from ..results import RunResult
-from . import RenderOptions
+from . import RenderOptions, figure_text
 
 CAUTION = ("Caution: lithium cells can vent, burn or explode. This review is an aid, not a substitute "
            "for the cell maker's approval, safety testing (e.g. IEC 62133-2, UL 2054, UN 38.3) or "
@@ -19,22 +19,26 @@ _COLOURS = {Severity.error: "\033[31m", Severity.warning: "\033[33m", Severity.i
 _FIGURE_LINES_UP_TO = 1
 
 
-def key_figures(fig: dict) -> str:
-    def a(x):
-        return format_quantity(x, "A")
-
+def key_figures(figures: dict) -> str:
+    """The headline figures on one line: the stack, then each range from its minimum to its
+    maximum (typical in brackets), then single figures; what the design lacks is left out."""
     parts = []
-    if fig.get("trip_current_min") is not None and fig.get("trip_current_max") is not None:
-        typ = fig.get("trip_current_typ")
-        parts.append(f"over-current trip {a(fig['trip_current_min'])}–{a(fig['trip_current_max'])}"
-                     + (f" (typ {a(typ)})" if typ is not None else ""))
-    if fig.get("short_circuit_trip_min") is not None and fig.get("short_circuit_trip_max") is not None:
-        parts.append(f"short-circuit trip {a(fig['short_circuit_trip_min'])}–"
-                     f"{a(fig['short_circuit_trip_max'])}")
-    if fig.get("prospective_short_circuit") is not None:
-        parts.append(f"prospective short circuit {a(fig['prospective_short_circuit'])}")
-    if fig.get("series") and fig.get("parallel"):
-        parts.insert(0, f"{fig['series']}S{fig['parallel']}P")
+    shape = stack_shape(figures)
+    if shape:
+        parts.append(shape)
+    for row in rows(figures, headline=True):
+        if not row.is_range:
+            if row.get().known:
+                parts.append(f"{row.label} {figure_text(row.get())}")
+            continue
+        low, typ, high = row.get("min"), row.get("typ"), row.get("max")
+        if low is None or not low.known or high is None or not high.known:
+            continue
+        span = figure_text(low)
+        if figure_text(high) != span:  # a fixed gate drive is one value, not "12 V–12 V"
+            span += f"–{figure_text(high)}"
+        parts.append(f"{row.label} {span}"
+                     + (f" (typ {figure_text(typ)})" if typ is not None and typ.known else ""))
     return "; ".join(parts)
 
 

@@ -60,7 +60,7 @@ def _figures(tmp_path: Path, extra: str = "") -> dict:
     assert not run.input_errors(), [str(e) for e in run.input_errors()]
     (result,) = run.designs
     assert not result.internal, result.internal
-    return result.figures
+    return {name: fig.value for name, fig in result.figures.items()}
 
 
 def test_worked_example_single_pair_trips_at_3_amperes(tmp_path):

@@ -21,7 +21,10 @@ from pathlib import Path
 import pytest
 
 from packwarden.progress import Progress, progress_for
-from packwarden.report import FORMATS, FormatUnavailable, formatter
+from importlib.metadata import EntryPoint
+
+from packwarden.report import (FORMAT_GROUP, FormatRegistry, FormatUnavailable, formatter,
+                               load_formats)
 
 from report_data import CLEAN, EXAMPLES, FLAWED, REPO
 
@@ -68,21 +71,35 @@ def run_on_terminal(*args: str, env: dict) -> tuple[str, str, int]:
     return got[out_m].decode(), got[err_m].decode(), code
 
 
-def test_every_format_is_in_the_table_and_html_resolves() -> None:
-    assert set(FORMATS) == {"text", "json", "sarif", "junit", "markdown", "html"}
-    for name in ("text", "json", "sarif", "junit", "markdown"):
-        assert callable(formatter(name))
-    try:
-        html = formatter("html")
-    except FormatUnavailable:
-        pytest.skip("the HTML report is not part of this checkout yet")
-    assert html.__module__ == "packwarden.report.html"
+def test_every_builtin_format_is_registered_and_resolves_to_its_module() -> None:
+    formats = load_formats()
+    assert formats.broken == []
+    assert {name for name, (origin, _) in formats.entries.items()
+            if origin.startswith("packwarden:")} == {"text", "json", "sarif", "junit", "markdown",
+                                                     "html"}
+    modules = {"json": "json_format"}
+    for name in ("text", "json", "sarif", "junit", "markdown", "html"):
+        render = formatter(name)
+        assert render is formats.load(name)
+        assert render.__module__ == f"packwarden.report.{modules.get(name, name)}"
+    # the HTML report's charts read the models, so the command lints in one process for it
+    assert formatter("html").needs_models and not hasattr(formatter("json"), "needs_models")
 
 
-def test_an_unavailable_format_is_one_line_and_exit_2(monkeypatch) -> None:
-    monkeypatch.setitem(FORMATS, "html", "no_such_module")
-    with pytest.raises(FormatUnavailable, match="output format 'html' is not available"):
-        formatter("html")
+def test_an_unavailable_or_unknown_format_is_one_line() -> None:
+    missing = EntryPoint("html", "packwarden.report.no_such_module:render", FORMAT_GROUP)
+    formats = FormatRegistry({"html": ("packwarden:html", missing)}, [])
+    with pytest.raises(FormatUnavailable) as err:
+        formats.load("html")
+    assert str(err.value) == ("output format 'html' (packwarden:html) failed to load: "
+                              "ModuleNotFoundError: No module named 'packwarden.report.no_such_module'")
+    with pytest.raises(FormatUnavailable) as err:
+        load_formats().load("jsn")
+    assert str(err.value).startswith("unknown output format 'jsn' (did you mean 'json'?); "
+                                     "registered formats: html, json, ")
+    code = run("check", "--format", "jsn", str(CLEAN))
+    assert code.returncode == 2 and code.stdout == ""
+    assert code.stderr.splitlines() == [f"packwarden check: {err.value}"]
 
 
 @pytest.mark.parametrize("fmt", ["json", "sarif", "junit", "markdown"])

@@ -80,12 +80,12 @@ def test_counts_findings_and_caution(example_run) -> None:
 
 def test_key_figures_per_design(example_run) -> None:
     figures = tables(to_html(render_md(example_run)))[2]
-    assert figures[0][:3] == ["design", "cells", "trip current min / typ / max"]
+    assert figures[0][:3] == ["design", "cells", "over-current trip min / typ / max"]
     # the design cell is the design's name, then its path
     by_file = {re.findall(r"<code>(.*?)</code>", r[0])[-1]: r for r in figures[1:]}
     assert len(by_file) == len(example_run.designs)
     for d in example_run.designs:
-        fig = d.figures
+        fig = {name: f.value for name, f in d.figures.items()}
         row = by_file[Path(d.file).resolve().relative_to(REPO).as_posix()]
         assert text(row[1]) == f"{fig['series']}S{fig['parallel']}P"
         assert text(row[2]) == " / ".join(format_quantity(fig[k], "A") for k in (
