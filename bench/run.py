@@ -516,7 +516,7 @@ def editor_relint(files: dict[str, Path], runs: int) -> dict:
             times.append(time.perf_counter() - t0)
         if any(n.code == "input-error" or n.code is None for n in notes):
             raise RuntimeError(f"{f}: {notes}")
-        out[kind] = {"components": live.designs[absolute(f)].result.figures["component_count"],
+        out[kind] = {"components": live.designs[absolute(f)].result.figures["component_count"].value,
                      **_stats(times)}
     return out
 

@@ -130,7 +130,6 @@ def test_the_team_format_is_registered_and_writes_its_csv(installed: dict) -> No
     fired = {(r[0], r[4], r[5]) for r in rows if r[4].startswith("tallgrass-")}
     assert fired == {
         ("tests/designs/low-side-fuse.yaml", "tallgrass-fuse-at-cell-positive", "F1"),
-        ("tests/designs/small-fet.yaml", "tallgrass-fet-current-derating", "Q1"),
     }
     assert proc.returncode == 1 and proc.stderr == ""
 

@@ -10,10 +10,15 @@ registry.
 from __future__ import annotations
 
 import difflib
-from pathlib import Path
 from typing import Any, Callable
 
 from ..records import record
+# Shared by every format; they import it from .common, never from this package (no cycle).
+from .common import RenderOptions, figure_text, relative_path, report_root, source_root
+
+__all__ = ["FORMAT_GROUP", "DEFAULT_FORMAT", "FormatUnavailable", "FormatRegistry", "load_formats",
+           "formatter", "RenderOptions", "figure_text", "relative_path", "report_root",
+           "source_root"]
 
 FORMAT_GROUP = "packwarden.formats"
 DEFAULT_FORMAT = "text"
@@ -91,55 +96,3 @@ def formatter(name: str) -> Callable:
         from .text import render
         return render
     return load_formats().load(name)
-
-
-@record(frozen=True)
-class RenderOptions:
-    color: bool = False
-    quiet: bool = False
-    repo_root: str | None = None
-    #: Set by ``--baseline`` / ``--since``: the findings hidden as unchanged and those fixed
-    #: (a :class:`packwarden.baseline.Comparison`). The run handed to ``render`` then holds only
-    #: the new findings, so a formatter that ignores this field still reports the right ones.
-    baseline: Any = None
-
-
-def figure_text(fig: Any) -> str:
-    """A key figure (:class:`packwarden.figures.KeyFigure`) as every report shows it: in its
-    declared unit with an engineering prefix, a count as a plain number, "—" when unknown."""
-    if fig is None or not fig.known:
-        return "—"
-    if fig.unit:
-        from ..quantities import format_quantity
-        return format_quantity(float(fig.value), fig.unit)
-    return f"{fig.value:g}"
-
-
-def source_root(start: Path) -> Path:
-    """The folder report paths are relative to: the version-control checkout holding ``start``.
-
-    CI systems resolve report paths against their checkout, so the nearest ``.git`` wins; outside
-    a repository, the project root the engine uses (a ``pyproject.toml`` or ``packwarden.toml``).
-    """
-    from ..library import repository_root
-    start = start.resolve()
-    for folder in (start, *start.parents):
-        if (folder / ".git").exists():
-            return folder
-    return repository_root(start)
-
-
-def report_root(run: Any, opts: RenderOptions) -> Path:
-    """The root for this run's report paths: ``opts.repo_root``, else the first design's checkout."""
-    if opts.repo_root:
-        return Path(opts.repo_root).resolve()
-    files = [d.file for d in run.designs] + [e.file for e in run.input_errors()]
-    return source_root(Path(files[0]).resolve().parent if files else Path.cwd())
-
-
-def relative_path(file: str, root: Path) -> str | None:
-    """``file`` relative to ``root`` in POSIX form, or None when it lies outside."""
-    try:
-        return Path(file).resolve().relative_to(root).as_posix()
-    except ValueError:
-        return None

@@ -19,7 +19,7 @@ from ..api import Severity
 from ..figures import ENDS, rows
 from ..quantities import format_quantity
 from ..results import DesignResult, RunResult
-from . import RenderOptions, figure_text
+from .common import RenderOptions, figure_text
 from .charts import Chart, charts_for, span_text
 from .text import CAUTION
 from ..records import record

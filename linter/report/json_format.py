@@ -9,7 +9,7 @@ from dataclasses import asdict
 from .. import __version__
 from ..figures import DECLARED
 from ..results import RunResult
-from . import RenderOptions
+from .common import RenderOptions
 
 
 def finding_dict(f) -> dict:

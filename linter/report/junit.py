@@ -31,7 +31,7 @@ from typing import Any
 
 from ..api import Finding
 from ..results import DesignResult, RunResult
-from . import RenderOptions, relative_path, report_root
+from .common import RenderOptions, relative_path, report_root
 from .text import CAUTION
 
 INPUT_ERROR = "input-error"

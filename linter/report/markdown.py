@@ -15,7 +15,7 @@ from ..api import Finding, Severity
 from ..figures import Row, stack_shape
 from ..figures import rows as figure_lines
 from ..results import RunResult
-from . import RenderOptions, figure_text, relative_path, report_root
+from .common import RenderOptions, figure_text, relative_path, report_root
 from .text import CAUTION
 
 MAX_ROWS = 200

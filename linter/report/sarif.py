@@ -37,7 +37,7 @@ from typing import Any
 from .. import __version__
 from ..api import Finding, Rule, Severity
 from ..results import RunResult
-from . import RenderOptions, relative_path, report_root
+from .common import RenderOptions, relative_path, report_root
 from .text import CAUTION
 
 SCHEMA_URI = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json"

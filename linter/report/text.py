@@ -5,7 +5,7 @@ from __future__ import annotations
 from ..api import Severity
 from ..figures import rows, stack_shape
 from ..results import RunResult
-from . import RenderOptions, figure_text
+from .common import RenderOptions, figure_text
 
 CAUTION = ("Caution: lithium cells can vent, burn or explode. This review is an aid, not a substitute "
            "for the cell maker's approval, safety testing (e.g. IEC 62133-2, UL 2054, UN 38.3) or "
