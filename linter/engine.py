@@ -19,6 +19,7 @@ from .config import Config, check_against_rules, find_config, load_config
 from .library import LibraryCache, repository_root, resolve_libraries, shown_path
 from .loader import Document, InputError, load_file
 from .netlist import Netlist, build_netlist
+from .schematic import assemble
 from .schema import Design
 from .validate import validate
 from .records import record
@@ -282,6 +283,8 @@ class Session:
     #: holds thousands of designs in a few folders; each walk up the tree is done once).
     config_paths: dict[Path, Path | None] = field(default_factory=dict)
     roots: dict[Path, Path] = field(default_factory=dict)
+    #: Schematic netlists read this run, by resolved path (or the error reading one gave).
+    netlists: dict[Path, Any] = field(default_factory=dict)
 
     def root_for(self, folder: Path) -> Path:
         root = self.roots.get(folder)
@@ -372,19 +375,28 @@ def lint_file(session: Session, path: Path, shown: str,
         return result
     result.name = design.design.name
     root = session.root_for(path.parent)
-    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root)
+    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root,
+                                 cfg.library_roots)
     clock.lap("libraries")
     if resolved.errors:
         result.errors.extend(resolved.errors)
         return result
+    sources = assemble(design, doc, path, root, resolved.parts, session.netlists)
+    if sources.errors:
+        result.errors.extend(sources.errors)
+        return result
+    design = sources.design
     netlist = build_netlist(design, resolved.parts)
+    netlist.problems[:0] = sources.problems
+    netlist.outside = sources.outside
     clock.lap("netlist")
     model = make_model(design, netlist)
     result.model = model
     result.figures = model_figures(model, result)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
-              design_id=design_identity(path, root))
+              design_id=design_identity(path, root),
+              elsewhere=lambda p: sources.locate(doc, p))
     clock.lap("rules")
     return result
 
@@ -431,7 +443,8 @@ def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
 
 
 def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
-              netlist: Netlist, model: Any, result: DesignResult, design_id: str | None = None) -> None:
+              netlist: Netlist, model: Any, result: DesignResult, design_id: str | None = None,
+              elsewhere: Callable[[tuple], Any] = lambda path: None) -> None:
     def where(p: tuple) -> tuple[int, int]:
         pos = doc.where(p)
         return pos.line, pos.column
@@ -449,7 +462,8 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
             continue
         result.checked.append(rid)
         ctx = RuleContext(file=result.file, design=design, netlist=netlist, model=model,
-                          rule_id=rid, severity=cfg.severity.get(rid, rule.severity), _where=where)
+                          rule_id=rid, severity=cfg.severity.get(rid, rule.severity), _where=where,
+                          _elsewhere=elsewhere)
         try:
             override = cfg.severity.get(rid)
             for f in rule.check(ctx, options[rid]) or ():
@@ -466,7 +480,8 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
 
         def ctx_for(limit) -> RuleContext:
             return RuleContext(file=result.file, design=design, netlist=netlist, model=model,
-                               rule_id=limit.rule, severity=limit.severity, _where=where)
+                               rule_id=limit.rule, severity=limit.severity, _where=where,
+                               _elsewhere=elsewhere)
         found, held = check_policy(policy, ctx_for, result.figures, netlist, broken_netlist)
         findings.extend(found)
         result.skipped.extend(held)

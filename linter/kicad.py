@@ -1,0 +1,290 @@
+"""KiCad's netlist export, read from its S-expression form: ``(export (version "E") ...)``.
+
+KiCad 6, 7, 8 and 9 write the same skeleton (``design``, ``components``, ``libparts``,
+``libraries``, ``nets``) and add elements over the versions; only what a review needs is read
+(components with their fields, nets with their nodes) and every element not known here is passed
+over, so a newer KiCad's additions do not break the import. Every token keeps its line and column:
+a broken file is reported as one ``file:line:column: message``.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import field
+from pathlib import Path
+
+from .loader import InputError, read_text
+from .records import record
+
+#: The export versions KiCad writes: "D" (5.x, same skeleton) and "E" (6.0 onwards).
+VERSIONS = ("D", "E")
+
+#: Characters KiCad writes as ``{name}`` inside a net name, since the bare character means
+#: something else there (``/`` separates sheets). [memory] of KiCad's escaped net names.
+_NET_ESCAPES = {
+    "slash": "/", "backslash": "\\", "lt": "<", "gt": ">", "colon": ":", "dblquote": '"',
+    "quote": "'", "space": " ", "tab": "\t", "return": "\n", "comma": ",", "brace": "{",
+    "bar": "|", "ast": "*", "question": "?",
+}
+_NET_ESCAPE = re.compile(r"\{(" + "|".join(_NET_ESCAPES) + r")\}")
+#: Backslash escapes inside a quoted string; any other escaped character stands for itself.
+_STRING_ESCAPES = {"n": "\n", "r": "\r", "t": "\t"}
+
+
+@record(frozen=True)
+class Atom:
+    """A string or bare word, kept as text (pin "01" stays "01")."""
+
+    text: str
+    line: int
+    column: int
+
+
+@record(frozen=True)
+class Group:
+    """A parenthesised list; ``head`` is its first word (``comp``, ``net``...), or ""."""
+
+    items: tuple
+    line: int
+    column: int
+
+    @property
+    def head(self) -> str:
+        return self.items[0].text if self.items and isinstance(self.items[0], Atom) else ""
+
+    def children(self, head: str) -> list["Group"]:
+        return [g for g in self.items if isinstance(g, Group) and g.head == head]
+
+    def child(self, head: str) -> "Group | None":
+        found = self.children(head)
+        return found[0] if found else None
+
+    def value(self, head: str) -> str | None:
+        """The text of ``(head "text")``, or None when the element is absent or empty."""
+        g = self.child(head)
+        if g is None or len(g.items) < 2 or not isinstance(g.items[1], Atom):
+            return None
+        return g.items[1].text
+
+
+def parse(text: str, file: str) -> Group:
+    """The one top-level list of ``text``; raises :class:`InputError` at the first mistake."""
+    stack: list[tuple[list, int, int]] = []
+    top: Group | None = None
+    i, line, line_start, n = 0, 1, 0, len(text)
+
+    def error(at: int, at_line: int, at_start: int, message: str) -> InputError:
+        return InputError(file, at_line, at - at_start + 1, message)
+
+    while i < n:
+        ch = text[i]
+        if ch == "\n":
+            line, line_start = line + 1, i + 1
+            i += 1
+        elif ch in " \t\r":
+            i += 1
+        elif ch == "(":
+            if top is not None:
+                raise error(i, line, line_start, "text after the end of the netlist's outer list")
+            stack.append(([], line, i - line_start + 1))
+            i += 1
+        elif ch == ")":
+            if not stack:
+                raise error(i, line, line_start, "')' closes a list that was never opened")
+            items, gl, gc = stack.pop()
+            group = Group(tuple(items), gl, gc)
+            if stack:
+                stack[-1][0].append(group)
+            else:
+                top = group
+            i += 1
+        elif ch == '"':
+            start, start_line, start_ls = i, line, line_start
+            out: list[str] = []
+            i += 1
+            while True:
+                if i >= n:
+                    raise error(start, start_line, start_ls, "string opened here is never closed")
+                c = text[i]
+                if c == '"':
+                    i += 1
+                    break
+                if c == "\\" and i + 1 < n:
+                    nxt = text[i + 1]
+                    out.append(_STRING_ESCAPES.get(nxt, nxt))
+                    if nxt == "\n":
+                        line, line_start = line + 1, i + 2
+                    i += 2
+                    continue
+                if c == "\n":
+                    line, line_start = line + 1, i + 1
+                out.append(c)
+                i += 1
+            atom = Atom("".join(out), start_line, start - start_ls + 1)
+            if not stack:
+                raise error(start, start_line, start_ls, "a string outside the netlist's outer list")
+            stack[-1][0].append(atom)
+        else:
+            start = i
+            while i < n and text[i] not in ' \t\r\n()"':
+                i += 1
+            if not stack:
+                raise error(start, line, line_start, f"'{text[start:i]}' outside the netlist's "
+                                                     f"outer list")
+            stack[-1][0].append(Atom(text[start:i], line, start - line_start + 1))
+    if stack:
+        _, gl, gc = stack[-1]
+        raise InputError(file, line, i - line_start + 1,
+                         f"the file ends inside the list opened at {gl}:{gc} "
+                         f"({len(stack)} ')' missing): truncated, or a ')' left out")
+    if top is None:
+        raise InputError(file, 1, 1, "empty file: expected a KiCad netlist, (export (version \"E\") ...)")
+    return top
+
+
+@record(frozen=True)
+class Node:
+    """One pin on a net: ``(node (ref "Q1") (pin "3") (pinfunction "D") (pintype "passive"))``."""
+
+    ref: str
+    pin: str
+    function: str
+    type: str
+    line: int
+    column: int
+
+    @property
+    def no_connect(self) -> bool:
+        # KiCad 7+ writes "no_connect" or "passive+no_connect" for pins marked not to connect.
+        return "no_connect" in self.type
+
+
+@record(frozen=True)
+class Net:
+    name: str  # as the schematic shows it (see net_name)
+    nodes: tuple[Node, ...]
+    line: int
+    column: int
+
+
+@record(frozen=True)
+class Symbol:
+    """A component of the netlist: reference, value, footprint and fields by name."""
+
+    ref: str
+    value: str
+    footprint: str
+    fields: dict
+    line: int
+    column: int
+
+    def field_value(self, name: str) -> str | None:
+        """A field by name (exact, else ignoring case); None when absent or empty."""
+        got = self.fields.get(name)
+        if got is None:
+            folded = name.casefold()
+            got = next((v for k, v in self.fields.items() if k.casefold() == folded), None)
+        return got.strip() or None if got is not None else None
+
+
+@record
+class KicadNetlist:
+    file: str
+    components: dict[str, Symbol] = field(default_factory=dict)
+    nets: list[Net] = field(default_factory=list)
+
+    def pins_of(self, ref: str) -> list[tuple[Node, str]]:
+        """Each pin of ``ref`` with its net name, in the order of the file."""
+        return [(node, net.name) for net in self.nets for node in net.nodes if node.ref == ref]
+
+
+def net_name(raw: str) -> str:
+    """A net's name as the schematic shows it: a local label's leading '/' (the root sheet)
+    dropped, ``{slash}``-style escapes decoded; generated names (``Net-(Q1-Pad7)``) kept."""
+    name = raw[1:] if raw.startswith("/") and len(raw) > 1 else raw
+    return _NET_ESCAPE.sub(lambda m: _NET_ESCAPES[m.group(1)], name)
+
+
+def read_netlist(path: Path, shown: str) -> KicadNetlist:
+    """Read a KiCad netlist file; raise :class:`InputError` (file, line, column) when broken."""
+    return build(parse(read_text(path, shown), shown), shown)
+
+
+def build(top: Group, file: str) -> KicadNetlist:
+    if top.head != "export":
+        raise InputError(file, top.line, top.column,
+                         "not a KiCad netlist: expected (export (version \"E\") ...); export the "
+                         "netlist from the schematic editor in KiCad's own format")
+    version = top.child("version")
+    if version is None or top.value("version") not in VERSIONS:
+        where = version or top
+        raise InputError(file, where.line, where.column,
+                         f"KiCad netlist version {top.value('version')!r} is not known here "
+                         f"(known: {', '.join(VERSIONS)})")
+    out = KicadNetlist(file)
+    _misplaced(top, file)
+    for block in top.children("components"):
+        for comp in block.children("comp"):
+            sym = _symbol(comp, file)
+            first = out.components.get(sym.ref)
+            if first is not None:
+                raise InputError(file, comp.line, comp.column,
+                                 f"component '{sym.ref}' is listed twice (first at line "
+                                 f"{first.line}); annotate the schematic again")
+            out.components[sym.ref] = sym
+    for block in top.children("nets"):
+        for net in block.children("net"):
+            name = net.value("name")
+            if name is None:
+                raise InputError(file, net.line, net.column, "net without (name ...)")
+            nodes = []
+            for node in net.children("node"):
+                ref, pin = node.value("ref"), node.value("pin")
+                if not ref or pin is None:
+                    raise InputError(file, node.line, node.column,
+                                     "node without (ref ...) and (pin ...)")
+                nodes.append(Node(ref, pin, node.value("pinfunction") or "",
+                                  node.value("pintype") or "", node.line, node.column))
+            out.nets.append(Net(net_name(name), tuple(nodes), net.line, net.column))
+    return out
+
+
+def _symbol(comp: Group, file: str) -> Symbol:
+    ref = comp.value("ref")
+    if not ref:
+        raise InputError(file, comp.line, comp.column, "component without (ref ...)")
+    fields: dict[str, str] = {}
+    # KiCad 6+ writes user fields twice: (fields (field (name N) "text")) and
+    # (property (name N) (value V)); either one is enough.
+    for prop in comp.children("property"):
+        name, value = prop.value("name"), prop.value("value")
+        if name is not None:
+            fields[name] = value or ""
+    for block in comp.children("fields"):
+        for f in block.children("field"):
+            name = f.value("name")
+            text = next((a.text for a in f.items[1:] if isinstance(a, Atom)), "")
+            if name is not None:
+                fields[name] = text
+    return Symbol(ref, comp.value("value") or "", comp.value("footprint") or "", fields,
+                  comp.line, comp.column)
+
+
+#: Where the elements this reader takes must sit; found anywhere else, a ')' is missing before
+#: them (the file still balances when one is added at the end), which is said there and then.
+_PARENTS = {"comp": "components", "net": "nets", "node": "net", "components": "export",
+            "nets": "export"}
+
+
+def _misplaced(top: Group, file: str) -> None:
+    def walk(group: Group) -> None:
+        for item in group.items:
+            if not isinstance(item, Group):
+                continue
+            want = _PARENTS.get(item.head)
+            if want is not None and group.head != want:
+                raise InputError(file, item.line, item.column,
+                                 f"({item.head} ...) inside ({group.head or '...'} ...) opened at "
+                                 f"{group.line}:{group.column}: a ')' is missing before here")
+            walk(item)
+    walk(top)
