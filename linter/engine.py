@@ -19,7 +19,6 @@ from .config import Config, check_against_rules, find_config, load_config
 from .library import LibraryCache, repository_root, resolve_libraries, shown_path
 from .loader import Document, InputError, load_file
 from .netlist import Netlist, build_netlist
-from .schematic import assemble
 from .schema import Design
 from .validate import validate
 from .records import record
@@ -381,14 +380,18 @@ def lint_file(session: Session, path: Path, shown: str,
     if resolved.errors:
         result.errors.extend(resolved.errors)
         return result
-    sources = assemble(design, doc, path, root, resolved.parts, session.netlists)
-    if sources.errors:
-        result.errors.extend(sources.errors)
-        return result
-    design = sources.design
+    sources = None
+    if not _written_out(design, doc):
+        from .schematic import assemble  # only for designs with a schematic, stacks or a slip
+        sources = assemble(design, doc, path, root, resolved.parts, session.netlists)
+        if sources.errors:
+            result.errors.extend(sources.errors)
+            return result
+        design = sources.design
     netlist = build_netlist(design, resolved.parts)
-    netlist.problems[:0] = sources.problems
-    netlist.outside = sources.outside
+    if sources is not None:
+        netlist.problems[:0] = sources.problems
+        netlist.outside = sources.outside
     clock.lap("netlist")
     model = make_model(design, netlist)
     result.model = model
@@ -396,9 +399,17 @@ def lint_file(session: Session, path: Path, shown: str,
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root),
-              elsewhere=lambda p: sources.locate(doc, p))
+              elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else lambda p: None)
     clock.lap("rules")
     return result
+
+
+def _written_out(design: Design, doc: Document) -> bool:
+    """True when the design file itself gives every component with its pins: no schematic, no
+    stacks, nothing left out. Then there is nothing to put together (``schematic.assemble``)."""
+    return (design.schematic is None and not design.stacks and
+            isinstance(doc.data, dict) and "components" in doc.data and
+            all(c.pins is not None for c in design.components.values()))
 
 
 class _StageClock:

@@ -71,6 +71,7 @@ def parse(text: str, file: str) -> Group:
     """The one top-level list of ``text``; raises :class:`InputError` at the first mistake."""
     stack: list[tuple[list, int, int]] = []
     top: Group | None = None
+    closed = (0, 0)
     i, line, line_start, n = 0, 1, 0, len(text)
 
     def error(at: int, at_line: int, at_start: int, message: str) -> InputError:
@@ -85,7 +86,9 @@ def parse(text: str, file: str) -> Group:
             i += 1
         elif ch == "(":
             if top is not None:
-                raise error(i, line, line_start, "text after the end of the netlist's outer list")
+                raise error(i, line, line_start, f"text after the end of the netlist's outer list, "
+                                                 f"closed at {closed[0]}:{closed[1]}: a ')' too many "
+                                                 f"before there?")
             stack.append(([], line, i - line_start + 1))
             i += 1
         elif ch == ")":
@@ -96,7 +99,7 @@ def parse(text: str, file: str) -> Group:
             if stack:
                 stack[-1][0].append(group)
             else:
-                top = group
+                top, closed = group, (line, i - line_start + 1)
             i += 1
         elif ch == '"':
             start, start_line, start_ls = i, line, line_start
@@ -133,9 +136,10 @@ def parse(text: str, file: str) -> Group:
                                                      f"outer list")
             stack[-1][0].append(Atom(text[start:i], line, start - line_start + 1))
     if stack:
-        _, gl, gc = stack[-1]
+        items, gl, gc = stack[-1]
+        head = items[0].text if items and isinstance(items[0], Atom) else "..."
         raise InputError(file, line, i - line_start + 1,
-                         f"the file ends inside the list opened at {gl}:{gc} "
+                         f"the file ends inside ({head} ...) opened at {gl}:{gc} "
                          f"({len(stack)} ')' missing): truncated, or a ')' left out")
     if top is None:
         raise InputError(file, 1, 1, "empty file: expected a KiCad netlist, (export (version \"E\") ...)")

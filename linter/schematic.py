@@ -12,17 +12,22 @@ split pin, each a :class:`~packwarden.netlist.Problem` at the component.
 
 from __future__ import annotations
 
+import os
 from dataclasses import field
 from pathlib import Path
 from typing import Any
 
+from typing import TYPE_CHECKING
+
 from .api import Location
-from .kicad import KicadNetlist, Node, Symbol, read_netlist
 from .library import confine, shown_path
 from .loader import Document, InputError
 from .netlist import KIND_TEXT, LIST_PINS, Problem, pin_names
 from .records import record
 from .schema import Design, PartRef
+
+if TYPE_CHECKING:  # pragma: no cover - the reader is imported only for designs that name a netlist
+    from .kicad import KicadNetlist, Node, Symbol
 
 #: Pin names a schematic symbol commonly gives, for the part pin they mean [practice]: a battery
 #: symbol's "+" and "-", a diode's "A" and "K".
@@ -114,8 +119,9 @@ def _read(entry: str, doc: Document, path: Path, root: Path, errors: list[InputE
     if cache is not None and real in cache:
         got = cache[real]
     else:
+        from .kicad import read_netlist
         try:
-            got = read_netlist(real, shown_path(path.parent / entry))
+            got = read_netlist(real, shown_path(Path(os.path.normpath(path.parent / entry))))
         except InputError as exc:
             got = exc
         if cache is not None:
@@ -141,6 +147,8 @@ def _cells(stack: Any) -> list[tuple[str, PartRef]]:
 
 def _from_netlist(netlist: KicadNetlist, design: Design, parts: dict[str, Any],
                   out: Components) -> dict[str, Any]:
+    from .kicad import Symbol
+
     field_name = design.schematic.part_field
     symbols = dict(netlist.components)
     for net in netlist.nets:  # a node's component missing from (components ...) still counts
