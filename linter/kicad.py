@@ -9,6 +9,7 @@ a broken file is reported as one ``file:line:column: message``.
 
 from __future__ import annotations
 
+import gc
 import re
 from dataclasses import field
 from pathlib import Path
@@ -31,40 +32,55 @@ _NET_ESCAPE = re.compile(r"\{(" + "|".join(_NET_ESCAPES) + r")\}")
 _STRING_ESCAPES = {"n": "\n", "r": "\r", "t": "\t"}
 
 
-@record(frozen=True)
 class Atom:
     """A string or bare word, kept as text (pin "01" stays "01")."""
 
-    text: str
-    line: int
-    column: int
+    # Plain slotted classes, not records: a netlist of a big pack has some 200 000 tokens, and
+    # their creation is most of the reading.
+    __slots__ = ("text", "line", "column")
+
+    def __init__(self, text: str, line: int, column: int) -> None:
+        self.text, self.line, self.column = text, line, column
+
+    def __repr__(self) -> str:
+        return f"Atom({self.text!r}, {self.line}, {self.column})"
 
 
-@record(frozen=True)
 class Group:
     """A parenthesised list; ``head`` is its first word (``comp``, ``net``...), or ""."""
 
-    items: tuple
-    line: int
-    column: int
+    __slots__ = ("items", "line", "column", "head")
 
-    @property
-    def head(self) -> str:
-        return self.items[0].text if self.items and isinstance(self.items[0], Atom) else ""
+    def __init__(self, items: list, line: int, column: int) -> None:
+        self.items, self.line, self.column = items, line, column
+        self.head = items[0].text if items and type(items[0]) is Atom else ""
+
+    def __repr__(self) -> str:
+        return f"Group({self.head!r} at {self.line}:{self.column}, {len(self.items)} items)"
 
     def children(self, head: str) -> list["Group"]:
-        return [g for g in self.items if isinstance(g, Group) and g.head == head]
+        return [g for g in self.items if type(g) is Group and g.head == head]
 
     def child(self, head: str) -> "Group | None":
-        found = self.children(head)
-        return found[0] if found else None
+        return next((g for g in self.items if type(g) is Group and g.head == head), None)
 
     def value(self, head: str) -> str | None:
         """The text of ``(head "text")``, or None when the element is absent or empty."""
         g = self.child(head)
-        if g is None or len(g.items) < 2 or not isinstance(g.items[1], Atom):
+        if g is None or len(g.items) < 2 or type(g.items[1]) is not Atom:
             return None
         return g.items[1].text
+
+
+#: One token: a parenthesis, a quoted string (backslash escapes, newlines allowed), a bare word,
+#: a newline, or a lone '"' that opens a string never closed. Blanks between them are skipped.
+_TOKEN = re.compile(r'[^\S\n]*(?:(\()|(\))|("(?:[^"\\\n]|\\.)*")|([^\s()"]+)|(\n)|("(?:[^"\\]|\\.)*")|(")|\Z)',
+                    re.S)
+_ESCAPED = re.compile(r"\\(.)", re.S)
+
+
+def _unescape(m: re.Match) -> str:
+    return _STRING_ESCAPES.get(m.group(1), m.group(1))
 
 
 def parse(text: str, file: str) -> Group:
@@ -72,73 +88,56 @@ def parse(text: str, file: str) -> Group:
     stack: list[tuple[list, int, int]] = []
     top: Group | None = None
     closed = (0, 0)
-    i, line, line_start, n = 0, 1, 0, len(text)
+    line, line_start, pos, n = 1, 0, 0, len(text)
+    match = _TOKEN.match
 
-    def error(at: int, at_line: int, at_start: int, message: str) -> InputError:
-        return InputError(file, at_line, at - at_start + 1, message)
+    def error(at: int, message: str) -> InputError:
+        return InputError(file, line, at - line_start + 1, message)
 
-    while i < n:
-        ch = text[i]
-        if ch == "\n":
-            line, line_start = line + 1, i + 1
-            i += 1
-        elif ch in " \t\r":
-            i += 1
-        elif ch == "(":
+    while True:
+        m = match(text, pos)
+        pos = m.end()
+        kind = m.lastindex
+        if kind is None:  # the end of the text
+            break
+        at = m.start(kind)
+        if kind == 1:  # (
             if top is not None:
-                raise error(i, line, line_start, f"text after the end of the netlist's outer list, "
-                                                 f"closed at {closed[0]}:{closed[1]}: a ')' too many "
-                                                 f"before there?")
-            stack.append(([], line, i - line_start + 1))
-            i += 1
-        elif ch == ")":
+                raise error(at, f"text after the end of the netlist's outer list, closed at "
+                                f"{closed[0]}:{closed[1]}: a ')' too many before there?")
+            stack.append(([], line, at - line_start + 1))
+        elif kind == 2:  # )
             if not stack:
-                raise error(i, line, line_start, "')' closes a list that was never opened")
+                raise error(at, "')' closes a list that was never opened")
             items, gl, gc = stack.pop()
-            group = Group(tuple(items), gl, gc)
+            group = Group(items, gl, gc)
             if stack:
                 stack[-1][0].append(group)
             else:
-                top, closed = group, (line, i - line_start + 1)
-            i += 1
-        elif ch == '"':
-            start, start_line, start_ls = i, line, line_start
-            out: list[str] = []
-            i += 1
-            while True:
-                if i >= n:
-                    raise error(start, start_line, start_ls, "string opened here is never closed")
-                c = text[i]
-                if c == '"':
-                    i += 1
-                    break
-                if c == "\\" and i + 1 < n:
-                    nxt = text[i + 1]
-                    out.append(_STRING_ESCAPES.get(nxt, nxt))
-                    if nxt == "\n":
-                        line, line_start = line + 1, i + 2
-                    i += 2
-                    continue
-                if c == "\n":
-                    line, line_start = line + 1, i + 1
-                out.append(c)
-                i += 1
-            atom = Atom("".join(out), start_line, start - start_ls + 1)
+                top, closed = group, (line, at - line_start + 1)
+        elif kind == 5:  # a line break
+            line, line_start = line + 1, pos
+        elif kind in (3, 4, 6):  # a string on one line, a bare word, a string across lines
+            raw = m.group(kind)
+            if top is not None:
+                raise error(at, f"text after the end of the netlist's outer list, closed at "
+                                f"{closed[0]}:{closed[1]}: a ')' too many before there?")
             if not stack:
-                raise error(start, start_line, start_ls, "a string outside the netlist's outer list")
-            stack[-1][0].append(atom)
-        else:
-            start = i
-            while i < n and text[i] not in ' \t\r\n()"':
-                i += 1
-            if not stack:
-                raise error(start, line, line_start, f"'{text[start:i]}' outside the netlist's "
-                                                     f"outer list")
-            stack[-1][0].append(Atom(text[start:i], line, start - line_start + 1))
+                raise error(at, f"'{raw}' outside the netlist's outer list" if kind == 4 else
+                            "a string outside the netlist's outer list")
+            if kind != 4:
+                raw = _ESCAPED.sub(_unescape, raw[1:-1]) if "\\" in raw else raw[1:-1]
+            stack[-1][0].append(Atom(raw, line, at - line_start + 1))
+            if kind == 6:  # raw line breaks inside the string: later tokens are on later lines
+                text_so_far = m.group(6)
+                line += text_so_far.count("\n")
+                line_start = at + text_so_far.rfind("\n") + 1
+        else:  # a '"' whose string never ends
+            raise error(at, "string opened here is never closed")
     if stack:
         items, gl, gc = stack[-1]
         head = items[0].text if items and isinstance(items[0], Atom) else "..."
-        raise InputError(file, line, i - line_start + 1,
+        raise InputError(file, line, n - line_start + 1,
                          f"the file ends inside ({head} ...) opened at {gl}:{gc} "
                          f"({len(stack)} ')' missing): truncated, or a ')' left out")
     if top is None:
@@ -196,10 +195,18 @@ class KicadNetlist:
     file: str
     components: dict[str, Symbol] = field(default_factory=dict)
     nets: list[Net] = field(default_factory=list)
+    #: Each component's pins with their net names, in the order of the file; made on first use,
+    #: so a pack of thousands of parts is not searched once per part.
+    _pins: dict[str, list[tuple[Node, str]]] | None = field(default=None, repr=False)
 
     def pins_of(self, ref: str) -> list[tuple[Node, str]]:
         """Each pin of ``ref`` with its net name, in the order of the file."""
-        return [(node, net.name) for net in self.nets for node in net.nodes if node.ref == ref]
+        if self._pins is None:
+            self._pins = {}
+            for net in self.nets:
+                for node in net.nodes:
+                    self._pins.setdefault(node.ref, []).append((node, net.name))
+        return self._pins.get(ref, [])
 
 
 def net_name(raw: str) -> str:
@@ -211,7 +218,16 @@ def net_name(raw: str) -> str:
 
 def read_netlist(path: Path, shown: str) -> KicadNetlist:
     """Read a KiCad netlist file; raise :class:`InputError` (file, line, column) when broken."""
-    return build(parse(read_text(path, shown), shown), shown)
+    text = read_text(path, shown)
+    # The token tree of a big pack is some 200 000 small objects without cycles: the cycle
+    # collector would walk them again and again while they are made (two thirds of the time).
+    collecting = gc.isenabled()
+    gc.disable()
+    try:
+        return build(parse(text, shown), shown)
+    finally:
+        if collecting:
+            gc.enable()
 
 
 def build(top: Group, file: str) -> KicadNetlist:
@@ -283,7 +299,7 @@ _PARENTS = {"comp": "components", "net": "nets", "node": "net", "components": "e
 def _misplaced(top: Group, file: str) -> None:
     def walk(group: Group) -> None:
         for item in group.items:
-            if not isinstance(item, Group):
+            if type(item) is not Group:
                 continue
             want = _PARENTS.get(item.head)
             if want is not None and group.head != want:

@@ -140,6 +140,19 @@ def test_broken_netlists(text, message):
     assert _error(text) == message
 
 
+def test_any_whitespace_between_tokens():
+    # form feeds, no-break and other Unicode spaces separate tokens as blanks do
+    net = build(parse('(export\f(version\u00a0"E")\u2003(components (comp (ref "R1"))))', "x.net"), "x.net")
+    assert list(net.components) == ["R1"]
+
+
+def test_a_line_break_inside_a_string_keeps_later_positions_right():
+    text = '(export (version "E")\n  (components\n    (comp (ref "R1") (value "two\nlines"))\n    (comp (ref "R2"))))'
+    net = build(parse(text, "x.net"), "x.net")
+    assert net.components["R1"].value == "two\nlines"
+    assert (net.components["R2"].line, net.components["R2"].column) == (5, 5)
+
+
 @settings(max_examples=150, deadline=None)
 @given(st.integers(min_value=0, max_value=KICAD6.stat().st_size), st.sampled_from(["", ")", "(", '"', "\\"]))
 def test_any_cut_or_stray_character_is_an_input_error(cut, extra):

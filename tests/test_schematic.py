@@ -345,3 +345,26 @@ def test_schema_write_puts_the_schemas_where_designs_can_name_them(tmp_path):
     assert "$schema=" in result.output
     one = CliRunner().invoke(app, ["schema", "parts", "--write", str(tmp_path / "one")])
     assert one.exit_code == 0 and [p.name for p in (tmp_path / "one").iterdir()] == ["parts.schema.json"]
+
+
+def test_since_reads_the_netlist_as_it_was(tmp_path):
+    """A schematic change alone is judged too: the netlist is taken from the revision with the
+    designs, so a symbol that loses its part id is a new finding."""
+    from test_baseline import cli, git
+
+    repo = make_repo(tmp_path)
+    git("init", "-q", "-b", "main", cwd=repo)
+    git("add", "-A", cwd=repo)
+    git("commit", "-q", "-m", "rev A", cwd=repo)
+    variant(repo / "tests/data/kicad-protect1s/protect1s.net",
+            ('        (field (name "packwarden-part") "RES-2K0"))', '        )'),
+            ('(property (name "packwarden-part") (value "RES-2K0"))', ""))
+    proc = cli("check", "--since", "HEAD", "tests/data/kicad/protect1s.yaml", cwd=repo)
+    # R2 (VM to P-) drops out of the review: it is listed, and what its absence means follows
+    assert "3 new, 1 unchanged (not shown), 0 fixed" in proc.stderr, proc.stderr
+    new = [ln.split(" (design ")[0] for ln in proc.stdout.splitlines() if ": error " in ln or ": warning " in ln]
+    assert [ln.split(": ", 2)[:2] for ln in new] == [
+        ["tests/data/kicad-protect1s/protect1s.net:84:5", "warning unreviewed-component"],
+        ["tests/data/kicad-protect1s/protect1s.net:94:5", "warning single-connection-net"],
+        ["tests/data/kicad-protect1s/protect1s.net:94:5", "error trip-current-window"]]
+    assert "R2 (2 kΩ) has no part id" in new[0] and "it connects to VM (pin 1), P- (pin 2)" in new[0]
