@@ -20,6 +20,12 @@ from .records import record
 #: The export versions KiCad writes: "D" (5.x, same skeleton) and "E" (6.0 onwards).
 VERSIONS = ("D", "E")
 
+#: Deepest nesting read: KiCad's export nests about 6 levels; the bound keeps a hostile file from
+#: exhausting the recursion of the checks that walk the tree.
+MAX_DEPTH = 64
+#: As many components as a design file may hold (schema.Design.components).
+MAX_COMPONENTS = 20_000
+
 #: Characters KiCad writes as ``{name}`` inside a net name, since the bare character means
 #: something else there (``/`` separates sheets). [memory] of KiCad's escaped net names.
 _NET_ESCAPES = {
@@ -105,6 +111,9 @@ def parse(text: str, file: str) -> Group:
             if top is not None:
                 raise error(at, f"text after the end of the netlist's outer list, closed at "
                                 f"{closed[0]}:{closed[1]}: a ')' too many before there?")
+            if len(stack) == MAX_DEPTH:
+                raise error(at, f"lists nested deeper than {MAX_DEPTH} levels: not a netlist "
+                                f"KiCad writes (its deepest is about 6)")
             stack.append(([], line, at - line_start + 1))
         elif kind == 2:  # )
             if not stack:
@@ -252,6 +261,10 @@ def build(top: Group, file: str) -> KicadNetlist:
                                  f"component '{sym.ref}' is listed twice (first at line "
                                  f"{first.line}); annotate the schematic again")
             out.components[sym.ref] = sym
+            if len(out.components) > MAX_COMPONENTS:
+                raise InputError(file, comp.line, comp.column,
+                                 f"more than {MAX_COMPONENTS} components; a design holds at most "
+                                 f"{MAX_COMPONENTS}")
     for block in top.children("nets"):
         for net in block.children("net"):
             name = net.value("name")

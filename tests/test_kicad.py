@@ -133,11 +133,19 @@ def test_a_parenthesis_too_many():
                                        "\"E\") ...); export the netlist from the schematic editor "
                                        "in KiCad's own format"),
     ('(export (version "Z"))', "x.net:1:9: KiCad netlist version 'Z' is not known here (known: D, E)"),
+    ("(" * 100_000, "x.net:1:65: lists nested deeper than 64 levels: not a netlist KiCad writes "
+                    "(its deepest is about 6)"),
     ('(export (version "E") (nets (net (code "1") (node (ref "R1") (pin "1")))))',
      "x.net:1:29: net without (name ...)"),
 ])
 def test_broken_netlists(text, message):
     assert _error(text) == message
+
+
+def test_a_netlist_holds_no_more_components_than_a_design():
+    comps = "".join(f'(comp (ref "R{k}"))\n' for k in range(20_001))
+    assert _error(f'(export (version "E")\n(components\n{comps}))') == (
+        "x.net:20003:1: more than 20000 components; a design holds at most 20000")
 
 
 def test_any_whitespace_between_tokens():
