@@ -142,6 +142,15 @@ def test_broken_netlists(text, message):
     assert _error(text) == message
 
 
+def test_bare_words_read_as_quoted_strings():
+    # KiCad 5 (export version "D") wrote most atoms unquoted; the skeleton is the same [memory]
+    net = build(parse("(export (version D)\n (components (comp (ref R1) (value 10k)\n"
+                      "  (fields (field (name packwarden-part) RES-470))))\n"
+                      " (nets (net (code 1) (name /B+) (node (ref R1) (pin 01)))))", "x.net"), "x.net")
+    assert net.components["R1"].field_value("packwarden-part") == "RES-470"
+    assert [(node.pin, name) for node, name in net.pins_of("R1")] == [("01", "B+")]
+
+
 def test_a_netlist_holds_no_more_components_than_a_design():
     comps = "".join(f'(comp (ref "R{k}"))\n' for k in range(20_001))
     assert _error(f'(export (version "E")\n(components\n{comps}))') == (
