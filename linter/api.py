@@ -49,6 +49,9 @@ class Location:
     path: tuple = ()  # YAML path, e.g. ("components", "Q1", "part")
     line: int = 1
     column: int = 1
+    #: The design's own place for a finding located in another file (a component of the
+    #: schematic's netlist is found at the netlist's line; the design names the netlist).
+    related: "Location | None" = None
 
     @property
     def dotted(self) -> str:
@@ -146,15 +149,20 @@ class RuleContext:
     rule_id: str = ""
     severity: Severity = Severity.error
     _where: Callable[[tuple], tuple[int, int]] = field(default=lambda path: (1, 1), repr=False)
+    #: Where a path lies outside the design file (a component of the schematic's netlist), or
+    #: None: then it is in the design, at ``_where``.
+    _elsewhere: Callable[[tuple], Location | None] = field(default=lambda path: None, repr=False)
 
     def finding(self, message: str, *, path: Iterable = (), hint: str | None = None,
                 element: str | None = None, figures: Iterable[Figure] = (), key: str = "",
                 severity: Severity | str | None = None) -> Finding:
         """Make a finding of the running rule, located at ``path`` in the design file."""
         path = tuple(path)
-        line, col = self._where(path)
+        location = self._elsewhere(path)
+        if location is None:
+            location = Location(self.file, path, *self._where(path))
         return Finding(rule=self.rule_id, severity=Severity(severity) if severity else self.severity,
-                       message=message, location=Location(self.file, path, line, col), hint=hint,
+                       message=message, location=location, hint=hint,
                        element=element, figures=tuple(figures), key=key)
 
     def component_path(self, refdes: str, *rest: str) -> tuple:

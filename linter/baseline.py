@@ -38,9 +38,10 @@ from .records import record
 
 BASELINE_FORMAT = "packwarden-baseline/1"
 
-#: Files taken from a revision for ``--since``: designs, part libraries and configuration. Nothing
-#: else is read by a lint, and hardware repositories often hold large binary CAD files.
-REVISION_SUFFIXES = (".yaml", ".yml", ".toml", ".json")
+#: Files taken from a revision for ``--since``: designs, part libraries, configuration and the
+#: schematic netlists designs name (KiCad writes ``.net``). Nothing else is read by a lint, and
+#: hardware repositories often hold large binary CAD files.
+REVISION_SUFFIXES = (".yaml", ".yml", ".toml", ".json", ".net")
 
 
 @record(frozen=True)

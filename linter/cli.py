@@ -221,13 +221,34 @@ def docs(
 
 
 @app.command()
-def schema(kind: SchemaKind = typer.Argument(SchemaKind.design,
-                                             help="design, parts or policy")) -> None:
+def schema(kind: Optional[SchemaKind] = typer.Argument(None, help="design (the default), parts or policy"),
+           write: Optional[Path] = typer.Option(
+               None, "--write", metavar="DIR",
+               help="write the schema (without a kind: every schema) into DIR as KIND.schema.json, "
+                    "for your repository's $schema lines")) -> None:
     """Print the JSON Schema of design files, part libraries or team policy files."""
     import json
 
     from .docs import shipped_schema
-    sys.stdout.write(json.dumps(shipped_schema(kind.value), indent=2, ensure_ascii=False) + "\n")
+
+    def text(which: SchemaKind) -> str:
+        return json.dumps(shipped_schema(which.value), indent=2, ensure_ascii=False) + "\n"
+
+    if write is None:
+        sys.stdout.write(text(kind or SchemaKind.design))
+        return
+    try:
+        write.mkdir(parents=True, exist_ok=True)
+        for which in [kind] if kind else list(SchemaKind):
+            target = write / f"{which.value}.schema.json"
+            target.write_text(text(which), encoding="utf-8")
+            sys.stdout.write(f"wrote {target}\n")
+    except OSError as exc:
+        sys.stderr.write(f"{write}:1:1: cannot write the schemas: {exc.strerror or exc}\n")
+        raise typer.Exit(2)
+    first = (kind or SchemaKind.design).value
+    sys.stdout.write(f"point a file at it with its first line: # yaml-language-server: "
+                     f"$schema=<path from the file to {write}>/{first}.schema.json\n")
 
 
 @app.command("new-rule")

@@ -6,6 +6,7 @@ Example::
     fail_on = "warning"
     ignore = ["storage-drain"]
     rule_paths = ["team_rules"]          # folders of team rule modules, relative to this file
+    library_roots = ["../team-parts"]    # folders outside the repository libraries may come from
 
     [tool.packwarden.severity]
     switch-temperature = "error"
@@ -35,7 +36,7 @@ else:  # pragma: no cover
     import tomli as tomllib
 
 KNOWN_KEYS = ("select", "ignore", "fail_on", "severity", "rules", "rule_paths", "policy",
-              "require_plugins")
+              "require_plugins", "library_roots")
 
 
 @record
@@ -48,6 +49,9 @@ class Config:
     severity: dict[str, Severity] = field(default_factory=dict)
     rule_options: dict[str, dict[str, Any]] = field(default_factory=dict)
     rule_paths: list[Path] = field(default_factory=list)
+    #: Folders outside the repository that part libraries may come from (a team's library kept
+    #: in its own repository), relative to the config; confined like the repository.
+    library_roots: tuple[Path, ...] = ()
     require_plugins: list[str] = field(default_factory=list)
     policy: Path | None = None
     text: str = ""
@@ -165,13 +169,14 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
             raise fail(key, f"unknown config key '{key}'" +
                        (f" (did you mean '{close[0]}'?)" if close else ""))
     cfg = Config(file=shown, folder=path.parent, text=text, prefix=prefix)
-    for key in ("select", "ignore", "rule_paths", "require_plugins"):
+    for key in ("select", "ignore", "rule_paths", "require_plugins", "library_roots"):
         if key in table and not (isinstance(table[key], list) and
                                  all(isinstance(v, str) for v in table[key])):
             raise fail(key, f"'{key}' must be a list of strings")
     cfg.select = table.get("select")
     cfg.ignore = table.get("ignore", [])
     cfg.rule_paths = [path.parent / p for p in table.get("rule_paths", [])]
+    cfg.library_roots = tuple(path.parent / p for p in table.get("library_roots", []))
     cfg.require_plugins = list(table.get("require_plugins", []))
     if "policy" in table:
         if not isinstance(table["policy"], str):

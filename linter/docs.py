@@ -298,6 +298,38 @@ text). Each kind's pins are listed with the kind below. The netlist rules report
 unconnected (unconnected-pin), a pin the part does not have (unknown-pin), a list where the pins
 have names (pin-form) and a net with a single connection (single-connection-net, a warning).
 
+## Components from a schematic
+
+A design may take its components from the netlist its schematic editor exports (KiCad's own
+S-expression format, `(export (version "E") ...)`, as KiCad 6 to 9 write it):
+
+```yaml
+schematic: {netlist: board/power.net, part_field: packwarden-part}   # relative to this file
+```
+
+Each symbol's `part_field` field (default `packwarden-part`) names its library part. Package pins
+become the part's pins by the part's `pinout` (package pin number -> pin name, several numbers may
+name one pin if they share a net), else by the symbol's pin names where they equal the part's
+(ignoring case; `+` and `-` for a cell's `pos` and `neg`, `A` and `K` for a diode's), else, for a
+two-terminal part, by pin order. A pin marked no-connect needs no match. Net names are the ones the
+schematic shows (a local label's leading `/` is dropped). An entry under `components:` with the same
+reference adds to or overrides the netlist's (its `pins` may be left out); an entry the netlist lacks
+adds a component. A symbol without a part id is listed for the reviewer (unreviewed-component), and
+package pins of one part pin on different nets are an error (split-pin). Findings about a component
+of the netlist point at its line in the netlist.
+
+## Cell stacks
+
+Many cells of one part are written once, as `series` x `parallel` with the nets between the levels:
+
+```yaml
+stacks:
+  - {part: RL-CELL-2500, series: 4, parallel: 2, taps: [B-, B1, B2, B3, B+]}
+```
+
+This is the same design as writing the cells out: `BT1` and `BT2` from `B-` to `B1`, `BT3` and `BT4`
+from `B1` to `B2`, and so on (`prefix` and `first` choose the reference designators).
+
 ## Pack terminals, cell side
 
 The nets **`P+`** and **`P-`** are the pack's terminals, where the charger and the load connect (the
@@ -521,7 +553,7 @@ def _type_text(tp: Any, shapes: _Shapes, metadata: Iterable[Any] = ()) -> str:
     if q is not None:
         what, unit = q
         return unit if what == "quantity" else f"[toleranced](#toleranced-values) {unit}"
-    if tp == Pins:
+    if tp in (Pins, Union[Pins, None]):
         return "mapping of pin names to nets, or a list of nets"
     origin = get_origin(tp)
     if origin is Annotated:

@@ -10,6 +10,7 @@ touches").
 
 from __future__ import annotations
 
+from dataclasses import field
 from typing import Any, Callable, Mapping
 
 from .model import copper
@@ -30,11 +31,14 @@ class Kind:
     ``"min"``/``"typ"``/``"max"`` of its spread.
     """
 
+
     name: str
     text: str
     pins: Mapping[str, str]
     required: int
     resistance: Callable[[Any, float, str], float] | None = None
+    #: Pin names a schematic symbol commonly gives (lower case), for the part pin they mean.
+    symbol_pins: Mapping[str, str] = field(default_factory=dict)
 
     @property
     def required_pins(self) -> tuple[str, ...]:
@@ -69,7 +73,9 @@ _ENDS = {"1": "first terminal", "2": "second terminal"}
 _COPPER_ENDS = {"1": "one end", "2": "the other end"}
 
 KINDS: dict[str, Kind] = {k.name: k for k in (
-    Kind("cell", "cell", {"pos": "positive terminal", "neg": "negative terminal"}, 2),
+    # A battery symbol's pins are "+" and "-" [practice].
+    Kind("cell", "cell", {"pos": "positive terminal", "neg": "negative terminal"}, 2,
+         symbol_pins={"+": "pos", "-": "neg"}),
     Kind("protector", "protector", {
         "supply": "supply input; a single-cell protector measures the cell here, through the "
                   "supply filter resistor",
@@ -93,7 +99,9 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
     Kind("capacitor", "capacitor", _ENDS, 2),
     Kind("trace", "trace", _COPPER_ENDS, 2, _trace),
     Kind("wire", "wire", _COPPER_ENDS, 2, _given_or_ideal),
-    Kind("diode", "diode", {"anode": "anode", "cathode": "cathode"}, 2),
+    # A diode symbol's pins are "A" and "K" [practice].
+    Kind("diode", "diode", {"anode": "anode", "cathode": "cathode"}, 2,
+         symbol_pins={"a": "anode", "k": "cathode"}),
 )}
 
 #: A multi-cell protector's numbered pins (``cellN``, ``balanceN``), described once for every N.

@@ -49,7 +49,7 @@ class LibraryCache:
         default_factory=dict)
     #: Libraries resolved without error, per (design folder, library entries, root): the designs
     #: of one folder name the same libraries, and walking the paths and parts is done once.
-    resolved: dict[tuple[Path, tuple[str, ...], Path], "ResolvedParts"] = field(default_factory=dict)
+    resolved: dict[tuple, "ResolvedParts"] = field(default_factory=dict)
 
     def load(self, path: Path) -> tuple[PartLibrary | None, Document | None, list[InputError]]:
         key = path.resolve()
@@ -72,10 +72,40 @@ class ResolvedParts:
     errors: list[InputError]
 
 
+def confine(entry: str, base: Path, roots: tuple[Path, ...], what: str) -> tuple[Path | None, str | None]:
+    """``base / entry`` resolved, or why it may not be used: it must lie inside one of ``roots``
+    (the repository first, then the roots the project's config allows) and exist as a file."""
+    try:
+        real = (base / entry).resolve()
+    except (OSError, RuntimeError):
+        return None, f"{what} '{entry}' cannot be resolved"
+    if Path(entry).is_absolute() or not any(_inside(real, r) for r in roots):
+        # Said apart because the fixes differ: a path written to climb out, or a link (inside
+        # the repository as written) that points outside it.
+        lexical = Path(os.path.normpath(base.resolve() / entry))
+        how = "links outside" if not Path(entry).is_absolute() and _inside(lexical, roots[0]) \
+            else "escapes"
+        allowed = "" if len(roots) == 1 else \
+            " or the library roots " + ", ".join(shown_path(r) for r in roots[1:])
+        return None, (f"{what} path '{entry}' {how} the repository ({shown_path(roots[0]) or '.'})"
+                      f"{allowed}; {'libraries' if what == 'library' else what + 's'} must live inside it" + (
+                          "; a team library kept elsewhere is allowed by naming its folder in "
+                          "the project's config: library_roots = [\"../team-parts\"] under "
+                          "[tool.packwarden]" if what == "library" else ""))
+    if not real.exists():
+        looked = shown_path(real)
+        return None, f"{what} '{entry}' not found" + (f" (looked for {looked})" if looked != entry else "")
+    if real.is_dir():
+        return None, f"{what} '{entry}' is a directory, not a {'YAML ' if what == 'library' else ''}file"
+    return real, None
+
+
 def resolve_libraries(design_doc: Document, libraries: list[str], design_path: Path,
-                      cache: LibraryCache, root: Path) -> ResolvedParts:
-    """Load the design's libraries and their includes; refuse paths outside ``root``."""
-    key = (design_path.parent, tuple(libraries), root)
+                      cache: LibraryCache, root: Path,
+                      library_roots: tuple[Path, ...] = ()) -> ResolvedParts:
+    """Load the design's libraries and their includes; refuse paths outside ``root`` and the
+    ``library_roots`` the project's config allows."""
+    key = (design_path.parent, tuple(libraries), root, library_roots)
     hit = cache.resolved.get(key)
     if hit is not None:
         return ResolvedParts(dict(hit.parts), dict(hit.sources), [])
@@ -83,32 +113,14 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
     sources: dict[str, PartSource] = {}
     errors: list[InputError] = []
     root = root.resolve()
+    roots = (root, *(r.resolve() for r in library_roots))
 
     def visit(entry: str, base: Path, owner: Document, where: tuple, stack: tuple[Path, ...]):
-        candidate = (base / entry)
-        try:
-            real = candidate.resolve()
-        except (OSError, RuntimeError):
-            errors.append(owner.error(where, f"library '{entry}' cannot be resolved"))
+        real, refusal = confine(entry, base, roots, "library")
+        if real is None:
+            errors.append(owner.error(where, refusal or ""))
             return
-        if Path(entry).is_absolute() or not _inside(real, root):
-            # Said apart because the fixes differ: a path written to climb out, or a link (inside
-            # the repository as written) that points outside it.
-            lexical = Path(os.path.normpath(base.resolve() / entry))
-            what = "links outside" if not Path(entry).is_absolute() and _inside(lexical, root) \
-                else "escapes"
-            errors.append(owner.error(where, f"library path '{entry}' {what} the repository "
-                                             f"({shown_path(root) or '.'}); libraries must live "
-                                             f"inside it"))
-            return
-        if not real.exists():
-            looked = shown_path(real)
-            errors.append(owner.error(where, f"library '{entry}' not found" +
-                                      (f" (looked for {looked})" if looked != entry else "")))
-            return
-        if real.is_dir():
-            errors.append(owner.error(where, f"library '{entry}' is a directory, not a YAML file"))
-            return
+        candidate = base / entry
         if real in stack:
             chain = " -> ".join(shown_path(p) for p in (*stack, real))
             errors.append(owner.error(where, f"libraries include each other in a cycle: {chain}"))

@@ -48,7 +48,7 @@ class PinRef:
 class Problem:
     """A netlist mistake found while resolving; the integrity rules turn these into findings."""
 
-    kind: str  # unknown-part | unknown-pin | unconnected-pin | pin-form
+    kind: str  # unknown-part | unknown-pin | unconnected-pin | pin-form | split-pin | unreviewed-component
     component: str
     path: tuple
     message: str
@@ -74,6 +74,9 @@ class Netlist:
     nets: dict[str, list[PinRef]]
     problems: list[Problem] = field(default_factory=list)
     terminals: tuple[str, str] = ("P+", "P-")
+    #: Components of the schematic left out of the review (no part id): listed for the reviewer
+    #: (unreviewed-component), never holding back the electrical rules as problems do.
+    outside: list[Problem] = field(default_factory=list)
 
     def of_kind(self, *kinds: str) -> list[Component]:
         return [c for c in self.components.values() if c.kind in kinds]

@@ -10,7 +10,7 @@ import os
 import time
 from dataclasses import field, replace
 from pathlib import Path
-from typing import Any, Iterable
+from typing import Any, Callable, Iterable
 
 from .api import Finding, RuleContext
 from .config import Config, check_against_rules, find_config, line_of, load_config
@@ -82,6 +82,8 @@ class Session:
     #: holds thousands of designs in a few folders; each walk up the tree is done once).
     config_paths: dict[Path, Path | None] = field(default_factory=dict)
     roots: dict[Path, Path] = field(default_factory=dict)
+    #: Schematic netlists read this run, by resolved path (or the error reading one gave).
+    netlists: dict[Path, Any] = field(default_factory=dict)
 
     def root_for(self, folder: Path) -> Path:
         root = self.roots.get(folder)
@@ -180,21 +182,47 @@ def lint_file(session: Session, path: Path, shown: str,
         return result
     result.name = design.design.name
     root = session.root_for(path.parent)
-    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root)
+    resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root,
+                                 cfg.library_roots)
     clock.lap("libraries")
     if resolved.errors:
         result.errors.extend(resolved.errors)
         return result
+    sources = None
+    if not _written_out(design, doc):
+        from .schematic import assemble  # only for designs with a schematic, stacks or a slip
+        sources = assemble(design, doc, path, root, resolved.parts, session.netlists)
+        if sources.errors:
+            result.errors.extend(sources.errors)
+            return result
+        design = sources.design
     netlist = build_netlist(design, resolved.parts)
+    if sources is not None:
+        netlist.problems[:0] = sources.problems
+        netlist.outside = sources.outside
     clock.lap("netlist")
     model = make_model(design, netlist, options)
     result.model = model
     result.figures = model_figures(model, result)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
-              design_id=design_identity(path, root))
+              design_id=design_identity(path, root),
+              elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere)
     clock.lap("rules")
     return result
+
+
+def _written_out(design: Design, doc: Document) -> bool:
+    """True when the design file itself gives every component with its pins: no schematic, no
+    stacks, nothing left out. Then there is nothing to put together (``schematic.assemble``)."""
+    return (design.schematic is None and not design.stacks and
+            isinstance(doc.data, dict) and "components" in doc.data and
+            all(c.pins is not None for c in design.components.values()))
+
+
+def _nowhere(path: tuple) -> Any:
+    """A design written out in full has no second source to point a finding at."""
+    return None
 
 
 class _StageClock:
@@ -252,6 +280,8 @@ class DesignRun:
     netlist: Netlist
     model: Any
     result: DesignResult
+    #: Where a finding's path lies in a second source (a schematic's netlist), or None.
+    elsewhere: Callable[[tuple], Any] = _nowhere
 
     def where(self, path: tuple) -> tuple[int, int]:
         pos = self.doc.where(path)
@@ -260,7 +290,7 @@ class DesignRun:
     def context(self, rule_id: str, severity: Any) -> RuleContext:
         return RuleContext(file=self.result.file, design=self.design, netlist=self.netlist,
                            model=self.model, rule_id=rule_id, severity=severity,
-                           _where=self.where)
+                           _where=self.where, _elsewhere=self.elsewhere)
 
 
 def rule_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
@@ -325,9 +355,10 @@ PHASES = (rule_phase, policy_phase, waiver_phase)
 
 def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
               netlist: Netlist, model: Any, result: DesignResult,
-              design_id: str | None = None) -> None:
+              design_id: str | None = None,
+              elsewhere: Callable[[tuple], Any] = _nowhere) -> None:
     """Every phase after the model (:data:`PHASES`), then each finding's fingerprint and order."""
-    run = DesignRun(session, cfg, options, doc, design, netlist, model, result)
+    run = DesignRun(session, cfg, options, doc, design, netlist, model, result, elsewhere)
     result.options = options
     findings: list[Finding] = []
     for phase in PHASES:

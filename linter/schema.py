@@ -388,8 +388,24 @@ Pins = Union[dict[str, NetName], list[NetName]]
 
 _PINS_TEXT = ("nets the component's pins connect to: a mapping pin -> net, e.g. {pos: B+, neg: "
               "B-}; two-terminal parts may give a list of nets in pin order, e.g. [B+, P+]. Nets "
-              "are joined by name; docs/format.md lists each kind's pins")
+              "are joined by name; docs/format.md lists each kind's pins. Left out for a component "
+              "of the schematic's netlist, which gives them; given, they override its pins of the "
+              "same names (a list replaces them all)")
 _NOTE_TEXT = "free text for reviewers, e.g. an assembly remark; not checked"
+
+PinNumber = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
+                      Field(min_length=1, max_length=20)]
+
+
+class Packaged(Strict):
+    """Base of every part kind: how the package's numbered pins map onto the part's pins."""
+
+    pinout: dict[PinNumber, Annotated[str, Field(min_length=1, max_length=40)]] | None = Field(
+        default=None, max_length=400, description=(
+            "package pin number -> the part's pin name, for designs read from a schematic's "
+            "netlist, e.g. {'1': s1, '2': s1, '3': g1}; several numbers may name one pin (they "
+            "must then share a net). Without it, pins are matched by the symbol's pin names, "
+            "and two-terminal parts by pin order"))
 
 
 # --- part kinds ---------------------------------------------------------------------------------
@@ -449,7 +465,7 @@ class OcvPoint(Strict):
         "open-circuit (rested) voltage per cell at that state of charge, in volts, at 25 °C"))
 
 
-class Cell(Strict):
+class Cell(Packaged):
     """A lithium-ion cell; cells in series and parallel form the stack from their pins."""
 
     kind: Literal["cell"] = Field(description="the part kind: 'cell'")
@@ -573,7 +589,7 @@ class SupplyCurrent(Strict):
         "current"))
 
 
-class Protector(Strict):
+class Protector(Packaged):
     """A battery protector: watches the cells and drives the charge and discharge switches."""
 
     kind: Literal["protector"] = Field(description="the part kind: 'protector'")
@@ -642,7 +658,7 @@ class HotRatio(Strict):
         "on-resistance curve, e.g. 1.44 (a plain number between 0.5 and 5)"))
 
 
-class FetCommon(Strict):
+class FetCommon(Packaged):
     """Parameters every switch MOSFET gives, per channel for a pair."""
 
     channel: Channel = Field(description=(
@@ -705,7 +721,7 @@ class FuseSpeed(str, Enum):
     time_lag = "time_lag"
 
 
-class Fuse(Strict):
+class Fuse(Packaged):
     """A fuse: the secondary protection in series with the power path."""
 
     kind: Literal["fuse"] = Field(description="the part kind: 'fuse'")
@@ -730,7 +746,7 @@ class Fuse(Strict):
         "absent)"))
 
 
-class Ptc(Strict):
+class Ptc(Packaged):
     """A resettable PTC fuse used as the secondary protection."""
 
     kind: Literal["ptc"] = Field(description="the part kind: 'ptc'")
@@ -749,7 +765,7 @@ class Ptc(Strict):
         "the power path's resistance at each corner"))
 
 
-class Resistor(Strict):
+class Resistor(Packaged):
     """A resistor: a shunt in the power path, or a signal part (supply filter, sense, divider)."""
 
     kind: Literal["resistor"] = Field(description="the part kind: 'resistor'")
@@ -763,7 +779,7 @@ class Resistor(Strict):
         "50 % by default (support-network); when absent, not checked"))
 
 
-class Capacitor(Strict):
+class Capacitor(Packaged):
     """A capacitor: the protector's supply filter, or a decoupling capacitor."""
 
     kind: Literal["capacitor"] = Field(description="the part kind: 'capacitor'")
@@ -780,7 +796,7 @@ class Layer(str, Enum):
     inner = "inner"
 
 
-class Trace(Strict):
+class Trace(Packaged):
     """A copper trace of the power path, rated by the IPC-2221 conductor formula."""
 
     kind: Literal["trace"] = Field(description="the part kind: 'trace'")
@@ -804,7 +820,7 @@ class Trace(Strict):
         return self
 
 
-class Wire(Strict):
+class Wire(Packaged):
     """A wire or cable of the power path."""
 
     kind: Literal["wire"] = Field(description="the part kind: 'wire'")
@@ -817,7 +833,7 @@ class Wire(Strict):
         "wire length, in metres; recorded, not yet used"))
 
 
-class Diode(Strict):
+class Diode(Packaged):
     """A diode or LED; an LED the cells can light drains a stored pack."""
 
     kind: Literal["diode"] = Field(description="the part kind: 'diode'")
@@ -850,14 +866,14 @@ class PartRef(Strict):
 
     part: str = Field(min_length=1, max_length=100, description=(
         "name of a part in one of the design's libraries, e.g. 'OR-FET-D20'"))
-    pins: Pins = Field(description=_PINS_TEXT)
+    pins: Pins | None = Field(default=None, description=_PINS_TEXT)
     note: str | None = Field(default=None, description=_NOTE_TEXT)
 
 
 def _inline(kind: str, model: type[Strict]) -> type[Strict]:
     return type(f"Inline{model.__name__}", (model,), {
-        "__annotations__": {"pins": Pins, "note": str | None},
-        "pins": Field(description=_PINS_TEXT),
+        "__annotations__": {"pins": Pins | None, "note": str | None},
+        "pins": Field(default=None, description=_PINS_TEXT),
         "note": Field(default=None, description=_NOTE_TEXT),
         "__doc__": f"A {kind} given inline, with its parameters.",
     })
@@ -887,6 +903,42 @@ Component = Annotated[
 RefDes = Annotated[str, Field(pattern=r"^[A-Za-z][A-Za-z0-9_.\-]{0,39}$")]
 
 
+class Schematic(Strict):
+    """Where the design's components come from: a netlist exported by the schematic editor."""
+
+    netlist: str = Field(min_length=1, max_length=500, description=(
+        "the netlist file (KiCad's own format, `(export (version \"E\") ...)`), relative to this "
+        "design and inside its repository, e.g. board/power.net"))
+    part_field: str = Field(default="packwarden-part", min_length=1, max_length=100, description=(
+        "the symbol field that holds the library part id; a component without one is listed "
+        "for the reviewer (unreviewed-component)"))
+
+
+class Stack(Strict):
+    """Cells of one part in series x parallel, written once and expanded into cell components."""
+
+    part: str = Field(min_length=1, max_length=100, description=(
+        "the library part of every cell, e.g. 'RL-CELL-2500'"))
+    series: int = Field(ge=1, le=32, description="cells in series (the stack's levels)")
+    parallel: int = Field(default=1, ge=1, le=64, description="cells in parallel at each level")
+    taps: list[NetName] = Field(min_length=2, max_length=33, description=(
+        "the nets from the stack's negative end to its positive end, series + 1 of them, e.g. "
+        "[B-, B1, B2, B3, B+] for four levels"))
+    prefix: Annotated[str, Field(pattern=r"^[A-Za-z][A-Za-z_]{0,9}$")] = Field(
+        default="BT", description=(
+            "reference designator prefix; cells are numbered level by level from the negative "
+            "end: BT1..BT<parallel> at the bottom level, and so on"))
+    first: int = Field(default=1, ge=0, le=100000, description=(
+        "number of the first cell's reference designator"))
+
+    @model_validator(mode="after")
+    def _levels(self) -> "Stack":
+        if len(self.taps) != self.series + 1:
+            raise ValueError(f"{self.series} cells in series need {self.series + 1} taps "
+                             f"(bottom to top), {len(self.taps)} given")
+        return self
+
+
 class Design(Strict):
     """A battery-protection design: the pack, its load and charger, and the netlist."""
 
@@ -904,7 +956,13 @@ class Design(Strict):
     storage: Storage | None = Field(default=None, description=(
         "how the product is stored or shipped: {soc, duration, temperature}; without it "
         "storage-drain is skipped"))
-    components: dict[RefDes, Component] = Field(max_length=20000, description=(
+    schematic: Schematic | None = Field(default=None, description=(
+        "the netlist the components come from: {netlist, part_field}; entries under "
+        "'components' add to or override the netlist's components of the same reference"))
+    stacks: list[Stack] = Field(default_factory=list, max_length=50, description=(
+        "cell stacks written as series x parallel of one part: {part, series, parallel, taps, "
+        "prefix, first}; each expands into cell components"))
+    components: dict[RefDes, Component] = Field(default_factory=dict, max_length=20000, description=(
         "the parts on the board, keyed by reference designator (a letter, then up to 39 letters, "
         "digits, '_', '.' or '-'): each uses a library part ({part, pins}) or gives its kind and "
         "parameters inline ({kind, ..., pins})"))

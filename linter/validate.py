@@ -205,7 +205,7 @@ def _key_list(model: type[BaseModel] | None) -> str:
     names = _fields(model)
     if not names:
         return ""
-    if len(names) > 10 and model is not None:
+    if len(names) > 11 and model is not None:  # a design's top level and a protector: all
         names = [n for n, f in model.model_fields.items() if f.is_required()] + ["…"]
     return ", ".join(names)
 

@@ -116,8 +116,9 @@ def test_a_part_library_cannot_name_a_module(repo: Path, key: str) -> None:
 
 def test_no_design_or_library_field_takes_code() -> None:
     # The formats hold data only: every top-level field of either is one the format documents.
+    # (`schematic` names a netlist file, read as data by packwarden's own reader.)
     assert set(Design.model_fields) == {"format", "design", "libraries", "pack", "load", "charger",
-                                        "storage", "components", "waivers"}
+                                        "storage", "schematic", "stacks", "components", "waivers"}
     assert set(PartLibrary.model_fields) == {"format", "include", "parts"}
 
 

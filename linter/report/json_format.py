@@ -13,7 +13,7 @@ from .common import RenderOptions
 
 
 def finding_dict(f) -> dict:
-    return {
+    out = {
         "rule": f.rule, "severity": f.severity.value, "message": f.message, "hint": f.hint,
         "element": f.element, "key": f.key,
         "location": {"file": f.location.file, "path": ".".join(str(p) for p in f.location.path),
@@ -21,6 +21,10 @@ def finding_dict(f) -> dict:
         "figures": [asdict(fig) for fig in f.figures],
         "waived": f.waived, "fingerprint": f.fingerprint,
     }
+    rel = f.location.related
+    if rel is not None:  # a component of the schematic's netlist: the design that reads it
+        out["location"]["design"] = {"file": rel.file, "line": rel.line, "column": rel.column}
+    return out
 
 
 def render(run: RunResult, opts: RenderOptions) -> str:

@@ -213,6 +213,11 @@ def _result(f: Finding, index: dict[str, int], root: Path, state: str | None) ->
                         for g in f.figures],
         },
     }
+    if f.location.related is not None:  # a netlist's component: the design that names it
+        rel = f.location.related
+        result["relatedLocations"] = [{
+            "id": 1, **_location(rel.file, rel.line, rel.column, root),
+            "message": {"text": "the design that reads this netlist"}}]
     if f.waived:
         result["suppressions"] = [{"kind": "inSource", "status": "accepted",
                                    "justification": f.waived}]

@@ -69,6 +69,9 @@ def render(run: RunResult, opts: RenderOptions) -> str:
             if opts.color:
                 sev = f"{_COLOURS[f.severity]}{sev}\033[0m"
             tag = f" [waived: {f.waived}]" if f.waived else ""
+            if f.location.related is not None:  # found in the schematic's netlist
+                rel = f.location.related
+                tag += f" (design {rel.file}:{rel.line}:{rel.column})"
             block.append(f"{f.location.file}:{f.location.line}:{f.location.column}: {sev} "
                          f"{f.rule}: {f.message}{tag}")
             if f.hint and not opts.quiet:

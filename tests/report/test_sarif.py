@@ -209,3 +209,19 @@ def test_baseline_states(validator, example_run) -> None:
     assert absent["partialFingerprints"] == {"packwarden/v1": "0" * 20}
     assert absent["locations"][0]["physicalLocation"]["region"]["startLine"] == 3
     assert log["runs"][0]["properties"]["comparedWith"] == "baseline.json"
+
+
+def test_a_finding_in_a_schematic_netlist_is_located_there(validator, monkeypatch) -> None:
+    # SARIF 2.1.0 §3.27.22 [memory]: relatedLocations hold places that help to understand a result; the
+    # design that names the netlist is one, the netlist's line of the component the location.
+    monkeypatch.chdir(REPO)
+    log = sarif(lint(["tests/data/kicad/protect1s.yaml"]))
+    assert errors_of(validator, log) == []
+    [result] = log["runs"][0]["results"]
+    assert result["ruleId"] == "unreviewed-component"
+    where = result["locations"][0]["physicalLocation"]
+    assert where["artifactLocation"]["uri"] == "tests/data/kicad-protect1s/protect1s.net"
+    assert where["region"] == {"startLine": 55, "startColumn": 5}
+    [related] = result["relatedLocations"]
+    assert related["physicalLocation"]["artifactLocation"]["uri"] == "tests/data/kicad/protect1s.yaml"
+    assert related["physicalLocation"]["region"]["startLine"] == 6
