@@ -7,6 +7,7 @@ from dataclasses import field
 from pathlib import Path
 from typing import Any
 
+from .files import Refused, regular
 from .loader import Document, InputError, load_file
 from .schema import PartLibrary
 from .validate import validate
@@ -88,7 +89,7 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
         candidate = (base / entry)
         try:
             real = candidate.resolve()
-        except (OSError, RuntimeError):
+        except (OSError, RuntimeError, ValueError):
             errors.append(owner.error(where, f"library '{entry}' cannot be resolved"))
             return
         if Path(entry).is_absolute() or not _inside(real, root):
@@ -108,6 +109,11 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
             return
         if real.is_dir():
             errors.append(owner.error(where, f"library '{entry}' is a directory, not a YAML file"))
+            return
+        try:
+            regular(real)  # a pipe or a device would hang the run or never end
+        except Refused as exc:
+            errors.append(owner.error(where, f"library '{entry}' {exc.message}"))
             return
         if real in stack:
             chain = " -> ".join(shown_path(p) for p in (*stack, real))

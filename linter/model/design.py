@@ -13,6 +13,7 @@ from functools import cached_property
 from typing import Any
 
 from ..netlist import Component, Netlist
+from ..guards import DesignMistake
 from ..schema import Design, Toleranced
 from . import copper, thermal
 from .cells import cell_window
@@ -741,6 +742,12 @@ class DesignModel:
         low = self.operating_point(cont, a.high, gd.low, "max", self_heating=True)
         high = self.operating_point(0.0, a.low, gd.high, "min", self_heating=False)
         typ = self.operating_point(0.0, 25.0, gd.typ, "typ", self_heating=False)
+        if not min(low.sense_resistance, high.sense_resistance, typ.sense_resistance) > 0.0:
+            p = self.protector
+            raise DesignMistake(p.path + ("pins", "sense"), (
+                f"{p.refdes}: the load current sets up no voltage between its sense and ground "
+                f"pins, so no current trips its detection; put the switches or a shunt between "
+                f"them, in the path of the load current"))
         return TripWindow(Span.of(detect), low, high, typ)
 
     @cached_property
