@@ -81,8 +81,9 @@ def find_config(start: Path) -> Path | None:
 
 
 def _has_packwarden_table(path: Path) -> bool:
-    """Whether the TOML file holds ``tool.packwarden``, however it is spelt (``[ tool.packwarden ]``,
-    ``[tool."packwarden"]``, dotted keys under ``[tool]``): parsed, then looked up. A file that does
+    """Whether the TOML file holds ``tool.packwarden``, however it is spelt
+    (``[ tool.packwarden ]``, ``[tool."packwarden"]``, dotted keys under ``[tool]``): parsed, then
+    looked up. A file that does
     not parse counts when it names packwarden at all, so its syntax error is reported rather than
     its settings silently dropped."""
     try:

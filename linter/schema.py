@@ -93,6 +93,8 @@ class Bounds:
     def text(self, unit: str) -> str:
         """``above 0 A and at most 100 kA``."""
         def q(v: float) -> str:
+            if unit == "s" and v >= 1000:  # a day reads better as 86400 s than as 86.4 ks
+                return f"{v:g} s"
             return format_quantity(v, UNITS[unit].symbol, digits=6)
         parts = [f"{word} {q(v)}" for word, v in (("above", self.gt), ("at least", self.ge),
                                                    ("below", self.lt), ("at most", self.le))
@@ -230,7 +232,7 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
     """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare
     value; every limit, also those worked out from ``tol``, within the bounds given."""
     Given = _given_model(unit, gt, ge, lt, le)
-    bounds = Bounds(gt, ge, lt, le)
+    bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
 
     def build(value: Any) -> Any:
         if isinstance(value, Toleranced):
@@ -241,7 +243,8 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
         return _resolve(given, unit, bounds)
 
     # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
-    return Annotated[Toleranced, BeforeValidator(build), TolJsonSchema(_given_model(unit), unit)]
+    return Annotated[Toleranced, BeforeValidator(build),
+                     TolJsonSchema(_given_model(unit), unit, bounds)]
 
 
 class TolJsonSchema:
@@ -249,8 +252,8 @@ class TolJsonSchema:
     it at import would build the ``Given`` model's validator too, on every start of the linter.
     It also marks the field as toleranced in ``unit`` (:func:`quantity_of`)."""
 
-    def __init__(self, given: type[Strict], unit: str) -> None:
-        self.given, self.unit = given, unit
+    def __init__(self, given: type[Strict], unit: str, bounds: "Bounds | None" = None) -> None:
+        self.given, self.unit, self.bounds = given, unit, bounds
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
         given_schema = _drop_titles(self.given.model_json_schema())
@@ -266,6 +269,14 @@ def quantity_of(metadata: Any) -> tuple[str, str] | None:
             return "quantity", meta.unit
         if isinstance(meta, TolJsonSchema):
             return "toleranced", meta.unit
+    return None
+
+
+def bounds_of(metadata: Any) -> "Bounds | None":
+    """The range a ``Q`` or ``Tol`` field declares (None: only its unit's), for the docs."""
+    for meta in metadata:
+        if isinstance(meta, (QuantitySchema, TolJsonSchema)):
+            return meta.bounds
     return None
 
 
@@ -676,8 +687,10 @@ class CurrentThreshold(Threshold):
 class OhmsRange(Strict):
     """A recommended resistance range."""
 
-    min: PathOhms | None = Field(default=None, description="lowest recommended resistance, in ohms")
-    max: PathOhms | None = Field(default=None, description="highest recommended resistance, in ohms")
+    min: PathOhms | None = Field(default=None, description=(
+        "lowest recommended resistance, in ohms"))
+    max: PathOhms | None = Field(default=None, description=(
+        "highest recommended resistance, in ohms"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "OhmsRange":

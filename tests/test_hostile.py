@@ -355,8 +355,8 @@ def test_special_files_named_as_designs_are_refused_unread(tmp_path, monkeypatch
     assert_good_linted(run, "good.yaml")
 
 
-def test_a_scanned_folder_with_a_pipe_and_device_links_still_lints_its_designs(tmp_path, monkeypatch,
-                                                                            registry):
+def test_a_scanned_folder_with_a_pipe_and_a_device_link_still_lints_its_designs(
+        tmp_path, monkeypatch, registry):
     repo = _repo_with_good(tmp_path)
     designs = repo / "designs"
     designs.mkdir()

@@ -68,7 +68,8 @@ components:
 {extra}"""
 
 DEFAULTS = dict(cell_r="30 mΩ", sc_release="[load_removal]", vds_max="20 V", rds="25 mΩ",
-                ratio="1.5", pulse="500 A", id_max="100 A", theta="83 K/W", fet_extra="", hot="40 °C",
+                ratio="1.5", pulse="500 A", id_max="100 A", theta="83 K/W", fet_extra="",
+                hot="40 °C",
                 pack_extra="", load="0.5 A", s2="P-", fuse_a="B+", extra="")
 
 
