@@ -147,7 +147,9 @@ MAX_VOLTS = 10e3
 MAX_AMPS = 100e3
 MAX_OHMS = 1e12
 MAX_SECONDS = 86400.0  # a day: no protector delay, retry or load peak lasts longer
-LOWEST_C, HIGHEST_C = -100.0, 200.0  # where Range draws the line too
+# Beyond this no lithium pack operates, charges or is stored; such a number is a typo (a unit or
+# sign slip), and the temperature models mean nothing there [practice].
+LOWEST_C, HIGHEST_C = -100.0, 200.0
 HOTTEST_JUNCTION_C = 300.0  # above any silicon or silicon-carbide switch's rating
 
 PositiveVolts = Q("V", gt=0, le=MAX_VOLTS)
@@ -359,19 +361,13 @@ def _rising(model: BaseModel, names: tuple[tuple[str, bool], ...], unit: str) ->
 class Range(Strict):
     """A temperature range, lowest to highest."""
 
-    min: Celsius = Field(description="lowest temperature of the range, in degrees Celsius")
-    max: Celsius = Field(description="highest temperature of the range, in degrees Celsius")
+    min: Temperature = Field(description="lowest temperature of the range, in degrees Celsius")
+    max: Temperature = Field(description="highest temperature of the range, in degrees Celsius")
 
     @model_validator(mode="after")
     def _ordered(self) -> "Range":
         if self.min > self.max:
             raise ValueError("min is above max")
-        # Beyond this no lithium pack operates, charges or is stored; such a number is a typo
-        # (a unit or sign slip), and the temperature models are meaningless there [practice].
-        for value in (self.min, self.max):
-            if not LOWEST_C <= value <= HIGHEST_C:
-                raise ValueError(f"{value:g} °C is outside {LOWEST_C:g} °C to {HIGHEST_C:g} °C, "
-                                 f"where no battery pack works; check the value and its sign")
         return self
 
 
