@@ -540,3 +540,21 @@ def test_terminals_that_bypass_the_sense_pins_are_a_located_error(tmp_path, monk
     assert bad.internal == []
     assert run.exit_code() == 2
     assert_good_linted(run, "good.yaml")
+
+
+def test_a_broken_pyproject_naming_packwarden_is_reported_not_skipped(tmp_path, monkeypatch):
+    # Unparsable TOML cannot say whether it holds the table; when it names packwarden at all, its
+    # syntax error is the run's (exit 2) rather than the team's gates silently dropped.
+    repo = tmp_path / "repo"
+    shutil.copytree(REPO / "example_designs", repo)
+    (repo / "pyproject.toml").write_text('[tool.packwarden\nselect = ["unknown-part"]\n',
+                                         encoding="utf-8")
+    monkeypatch.chdir(repo)
+    result = CliRunner().invoke(app, ["check", "orchard-probe.yaml"])
+    assert result.exit_code == 2
+    assert any(line.startswith("pyproject.toml:1:") and ": TOML syntax error: " in line
+               for line in result.output.splitlines()), result.output
+    # a broken pyproject.toml that is no business of ours is passed over, as before
+    (repo / "pyproject.toml").write_text("[tool.other\n", encoding="utf-8")
+    result = CliRunner().invoke(app, ["check", "orchard-probe.yaml"])
+    assert result.exit_code == 0, result.output
