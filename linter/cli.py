@@ -177,12 +177,12 @@ def _designs_only(paths: List[str]) -> List[str]:
     a device, a link out of its repository) stays in, so the lint says why."""
     from .engine import is_design_text
     from .files import head
-    from .library import repository_root
+    from .library import named_root
     kept = []
     for raw in paths:
         p = Path(raw)
         if not p.is_dir():
-            text = head(p, repository_root(p.parent)) if "\x00" not in raw else None
+            text = head(p, named_root(p.parent)) if "\x00" not in raw else None
             if text is not None and not is_design_text(text):
                 continue
         kept.append(raw)

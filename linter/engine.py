@@ -18,7 +18,7 @@ from .api import Finding, Rule, RuleContext, Severity
 from . import files
 from .config import Config, check_against_rules, find_config, load_config
 from .guards import DesignMistake, netlist_errors
-from .library import LibraryCache, repository_root, resolve_libraries, shown_path
+from .library import LibraryCache, named_root, repository_root, resolve_libraries, shown_path
 from .loader import Document, InputError, load_file, printable
 from .netlist import Netlist, build_netlist
 from .schema import Design
@@ -254,7 +254,7 @@ def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> li
         if p.is_dir():
             before = len(out)
             for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
-                root = roots.get(f.parent) or roots.setdefault(f.parent, repository_root(f.parent))
+                root = roots.get(f.parent) or roots.setdefault(f.parent, named_root(f.parent))
                 head = files.head(f, root)
                 if head is None:
                     # Not read (a pipe, a device, a link out of the repository): linted, so the
@@ -410,7 +410,7 @@ def _refused(session: Session, path: Path, shown: str) -> InputError | None:
         files.check_path(path)
     except files.Refused as exc:
         return InputError(shown, 1, 1, exc.message)
-    root = session.root_for(path.parent)
+    root = named_root(path.parent)
     if files.outside(path, root):
         return InputError(shown, 1, 1, f"the design links outside its repository "
                                        f"({shown_path(root) or '.'}); it is not read")

@@ -33,6 +33,18 @@ def shown_path(path: Path) -> str:
         return str(path)
 
 
+def named_root(start: Path) -> Path:
+    """The repository holding ``start`` as the path names it: its folders are walked upward as
+    written and a folder that is a link is not searched for markers, so a folder linking out of
+    the repository (``designs -> /``) does not bring a root of its own. Designs are confined to
+    it. (Relative paths start from the working folder, which the OS gives without links.)"""
+    start = Path(os.path.abspath(start))
+    for folder in (start, *start.parents):
+        if not folder.is_symlink() and any((folder / m).exists() for m in ROOT_MARKERS):
+            return folder
+    return start
+
+
 @record(frozen=True)
 class PartSource:
     """Where a part was defined, for messages."""

@@ -558,3 +558,20 @@ def test_a_broken_pyproject_naming_packwarden_is_reported_not_skipped(tmp_path, 
     (repo / "pyproject.toml").write_text("[tool.other\n", encoding="utf-8")
     result = CliRunner().invoke(app, ["check", "orchard-probe.yaml"])
     assert result.exit_code == 0, result.output
+
+
+def test_a_designs_folder_linking_to_another_repository_is_not_read(tmp_path, monkeypatch,
+                                                                    registry):
+    # `designs -> ../other`: the other checkout has its own markers, but the path names a folder
+    # of this repository; the files behind the link are refused, the named good design linted.
+    repo = _repo_with_good(tmp_path)
+    other = make_repo(tmp_path / "other")
+    (other / "stolen.yaml").write_text(GOOD.read_text(encoding="utf-8").replace(
+        "continuous: 1.2 A", "continuous: secret-token-7f3a"), encoding="utf-8")
+    _link(repo / "designs", other)
+    monkeypatch.chdir(repo)
+    run = lint(["designs", "good.yaml"], registry=registry)
+    assert [str(e) for d in run.designs for e in d.errors] == [
+        "designs/stolen.yaml:1:1: the design links outside its repository (.); it is not read"]
+    assert "secret-token" not in text_of(run)
+    assert_good_linted(run, "good.yaml")
