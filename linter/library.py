@@ -114,18 +114,18 @@ def resolve_libraries(design_doc: Document, libraries: list[str], design_path: P
                                              f"({shown_path(root) or '.'}); libraries must live "
                                              f"inside it"))
             return
-        if not real.exists():
-            looked = shown_path(real)
-            errors.append(owner.error(where, f"library '{entry}' not found" +
-                                      (f" (looked for {looked})" if looked != entry else "")))
-            return
-        if real.is_dir():
-            errors.append(owner.error(where, f"library '{entry}' is a directory, not a YAML file"))
-            return
         try:
             regular(real)  # a pipe or a device would hang the run or never end
         except Refused as exc:
-            errors.append(owner.error(where, f"library '{entry}' {exc.message}"))
+            if exc.message == "no such file":
+                looked = shown_path(real)
+                errors.append(owner.error(where, f"library '{entry}' not found" +
+                                          (f" (looked for {looked})" if looked != entry else "")))
+            elif exc.message == "is a directory":
+                errors.append(owner.error(where, f"library '{entry}' is a directory, not a YAML "
+                                                 f"file"))
+            else:
+                errors.append(owner.error(where, f"library '{entry}' {exc.message}"))
             return
         if real in stack:
             chain = " -> ".join(shown_path(p) for p in (*stack, real))
