@@ -23,6 +23,7 @@ accept a finding, and a baseline entry must not keep a finding quiet once its wa
 from __future__ import annotations
 
 import json
+import re
 import os
 import subprocess
 import tempfile
@@ -33,6 +34,7 @@ from typing import Any, Iterable
 
 from . import __version__
 from .api import Finding, Severity
+from .files import Refused, read_limited
 from .loader import InputError
 from .records import record
 
@@ -124,12 +126,18 @@ def read_baseline(path: Path, shown: str | None = None) -> list[Entry]:
     """The entries of a baseline file; any mistake is one :class:`InputError` with its position."""
     shown = shown or str(path)
     try:
-        text = path.read_text(encoding="utf-8")
-    except FileNotFoundError:
-        raise InputError(shown, 1, 1, "baseline file does not exist (write one with "
-                                      "--write-baseline)") from None
-    except (OSError, UnicodeDecodeError) as exc:
+        text = read_limited(path, MAX_BASELINE_BYTES).decode("utf-8")
+    except Refused as exc:
+        if exc.message == "no such file":
+            raise InputError(shown, 1, 1, "baseline file does not exist (write one with "
+                                          "--write-baseline)") from None
+        raise InputError(shown, 1, 1, f"baseline file cannot be read: {exc.message}") from None
+    except UnicodeDecodeError as exc:
         raise InputError(shown, 1, 1, f"baseline file cannot be read: {exc}") from None
+    deep = _too_deep(text)
+    if deep is not None:
+        raise InputError(shown, *deep, f"baseline nests deeper than {MAX_BASELINE_DEPTH} levels; "
+                                       f"a baseline is a list of flat findings")
     try:
         doc = json.loads(text)
     except json.JSONDecodeError as exc:
@@ -155,6 +163,29 @@ def read_baseline(path: Path, shown: str | None = None) -> list[Entry]:
             path=str(item.get("path") or ""), element=item.get("element") if isinstance(
                 item.get("element"), str) else None, message=str(item.get("message") or "")))
     return entries
+
+
+#: A baseline holds a list of flat findings (depth 3); json would recurse on every level of a
+#: deeper file until Python's recursion limit, and a baseline of 200 000 findings is ~80 MB.
+MAX_BASELINE_DEPTH = 16
+MAX_BASELINE_BYTES = 256 * 1024 * 1024
+_JSON_NESTING = re.compile(r'"(?:[^"\\]|\\.)*"|[\[\]{}]')
+
+
+def _too_deep(text: str) -> tuple[int, int] | None:
+    """Line and column where ``text`` opens its (MAX_BASELINE_DEPTH + 1)-th level, or None.
+    Strings are skipped whole, so a bracket inside one does not count."""
+    depth = 0
+    for m in _JSON_NESTING.finditer(text):
+        token = m.group()
+        if token in "[{":
+            depth += 1
+            if depth > MAX_BASELINE_DEPTH:
+                line = text.count("\n", 0, m.start()) + 1
+                return line, m.start() - (text.rfind("\n", 0, m.start()) + 1) + 1
+        elif token in "]}":
+            depth -= 1
+    return None
 
 
 def _int(value: Any) -> int:

@@ -175,19 +175,18 @@ def check(
 
 
 def _designs_only(paths: List[str]) -> List[str]:
-    """Folders, and files that declare ``format: packwarden/1``; a file that can't be read stays
-    in, so its error is still reported."""
+    """Folders, and files that declare ``format: packwarden/1``; a file that is not read (a pipe,
+    a device, a link out of its repository) stays in, so the lint says why."""
     from .engine import is_design_text
+    from .files import head
+    from .library import named_root
     kept = []
     for raw in paths:
         p = Path(raw)
-        if p.is_file():
-            try:
-                with open(p, encoding="utf-8", errors="replace") as fh:
-                    if not is_design_text(fh.read(4096)):
-                        continue
-            except OSError:
-                pass
+        if not p.is_dir():
+            text = head(p, named_root(p.parent)) if "\x00" not in raw else None
+            if text is not None and not is_design_text(text):
+                continue
         kept.append(raw)
     return kept
 

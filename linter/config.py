@@ -27,6 +27,7 @@ from typing import Any
 from pydantic import ValidationError
 
 from .api import Rule, RuleOptions, Severity
+from .files import Refused, check_path, read_limited
 from .loader import InputError
 from .records import record
 
@@ -34,6 +35,9 @@ if sys.version_info >= (3, 11):
     import tomllib
 else:  # pragma: no cover
     import tomli as tomllib
+
+#: No project config is anywhere near this; a larger file is refused unread.
+MAX_CONFIG_BYTES = 1024 * 1024
 
 KNOWN_KEYS = ("select", "ignore", "fail_on", "severity", "rules", "rule_paths", "policy",
               "require_plugins", "library_roots")
@@ -75,13 +79,26 @@ def find_config(start: Path) -> Path | None:
         if own.is_file():
             return own
         py = d / "pyproject.toml"
-        if py.is_file():
-            try:
-                if re.search(r"^\[tool\.packwarden(\]|\.)", py.read_text(encoding="utf-8"), re.M):
-                    return py
-            except (OSError, UnicodeDecodeError):
-                continue
+        if py.is_file() and _has_packwarden_table(py):
+            return py
     return None
+
+
+def _has_packwarden_table(path: Path) -> bool:
+    """Whether the TOML file holds ``tool.packwarden``, however it is spelt
+    (``[ tool.packwarden ]``, ``[tool."packwarden"]``, dotted keys under ``[tool]``): parsed, then
+    looked up. A file that does
+    not parse counts when it names packwarden at all, so its syntax error is reported rather than
+    its settings silently dropped."""
+    try:
+        text = read_limited(path, MAX_CONFIG_BYTES).decode("utf-8")
+    except (Refused, UnicodeDecodeError):
+        return False
+    try:
+        tool = tomllib.loads(text).get("tool")
+    except tomllib.TOMLDecodeError:
+        return "packwarden" in text
+    return isinstance(tool, dict) and "packwarden" in tool
 
 
 def line_of(text: str, key: str, tables: tuple[str, ...] = ("",), prefix: str = "") -> tuple[int, int]:
@@ -146,16 +163,22 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
         return Config()
     shown = shown or str(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        text = read_limited(path, MAX_CONFIG_BYTES).decode("utf-8")
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         line = getattr(exc, "lineno", None) or 1
         col = getattr(exc, "colno", None) or 1
         raise InputError(shown, line, col, f"TOML syntax error: {exc.args[0].split(' (at')[0]}") from None
-    except (OSError, UnicodeDecodeError) as exc:
+    except Refused as exc:
+        raise InputError(shown, 1, 1, f"cannot read config: {exc.message}") from None
+    except UnicodeDecodeError as exc:
         raise InputError(shown, 1, 1, f"cannot read config: {exc}") from None
     prefix = "tool.packwarden" if path.name == "pyproject.toml" else ""
-    table = data.get("tool", {}).get("packwarden", {}) if prefix else data
+    tool = data.get("tool", {}) if prefix else {}
+    if not isinstance(tool, dict):
+        line, col = line_of(text, "tool")
+        raise InputError(shown, line, col, "'tool' must be a table")
+    table = tool.get("packwarden", {}) if prefix else data
 
     def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
         line, col = line_of(text, key, tables, prefix)
@@ -175,12 +198,19 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
             raise fail(key, f"'{key}' must be a list of strings")
     cfg.select = table.get("select")
     cfg.ignore = table.get("ignore", [])
+    cfg.require_plugins = list(table.get("require_plugins", []))
+    if "policy" in table and not isinstance(table["policy"], str):
+        raise fail("policy", "'policy' must be a path (string)")
+    for key in ("rule_paths", "policy", "library_roots"):  # TOML strings may hold "\u0000"
+        given = table.get(key, [])
+        for value in given if isinstance(given, list) else [given]:
+            try:
+                check_path(Path(value))
+            except Refused as exc:
+                raise fail(key, f"'{key}': {exc.message}") from None
     cfg.rule_paths = [path.parent / p for p in table.get("rule_paths", [])]
     cfg.library_roots = tuple(path.parent / p for p in table.get("library_roots", []))
-    cfg.require_plugins = list(table.get("require_plugins", []))
     if "policy" in table:
-        if not isinstance(table["policy"], str):
-            raise fail("policy", "'policy' must be a path (string)")
         cfg.policy = path.parent / table["policy"]
     if "fail_on" in table:
         cfg.fail_on = _severity(table["fail_on"], lambda m: fail("fail_on", m))

@@ -26,6 +26,7 @@ from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origi
 
 from .api import Rule
 from .kinds import KINDS, NUMBERED_PINS
+from .schema import bounds_of
 from .schema import quantity_of as _quantity_of
 
 HEADER = ("<!-- Generated from the rule registry by `packwarden docs rules > docs/rules.md`; "
@@ -242,8 +243,14 @@ megavolts). The micro sign `\u00b5` (U+00B5) and the Greek letter `\u03bc` (U+03
 are the same prefix, and the ohm sign `\u2126` (U+2126) and the Greek capital omega
 `\u03a9` (U+03A9) the same unit: data sheets use either, and they look alike on screen.
 Percentages, temperatures (°C and K), K/W, months, %/month and copper ounces may also be written as
-a bare number; every other quantity needs its unit. The type column of the tables below gives each
-field's unit.
+a bare number; every other quantity needs its unit. Numbers take the ASCII digits 0-9 only (a
+Bengali or fullwidth digit looks like another). The type column of the tables below gives each
+field's unit and its physically possible range (a sign, zero refused where it would mean no part or
+a division by zero, a ceiling far above any battery pack); a value outside it is refused with the
+field's line. Fields that must agree with each other are checked together too (a peak load at least
+the continuous one, a charger's open-circuit voltage at least its regulation, a release on the safe
+side of its detection, one on-resistance row per gate voltage), and the message points at the
+field that breaks the order.
 
 Accepted, and the value the linter works with (SI units):
 
@@ -266,9 +273,10 @@ of three forms:
   (`tol: 25 mV`) or a percentage of typ (`tol: 0.5 %`);
 - **a bare value**: `4.20 V` means `{typ: 4.20 V}`.
 
-`min <= typ <= max` must hold; `tol` needs `typ` and excludes `min` and `max`. The worst cases take
-the lowest and the highest value given; where a limit is missing they fall back on what is there
-(with typ and max only, the low end is typ). One parameter is read otherwise, because that
+`min <= typ <= max` must hold; `tol` needs `typ` and excludes `min` and `max`; a percentage `tol`
+is below 100 %, and the limits it implies must lie in the field's range like the ones written.
+The worst cases take the lowest and the highest value given; where a limit is missing they fall
+back on what is there (with typ and max only, the low end is typ). One parameter is read otherwise, because that
 fallback would flatter the design: a cell's lowest internal resistance, which sets the prospective
 short-circuit current, is typ - (max - typ), but at least typ / 2, when the data sheet gives typ and
 max only [practice: the usual reading of a symmetric spread].
@@ -552,7 +560,9 @@ def _type_text(tp: Any, shapes: _Shapes, metadata: Iterable[Any] = ()) -> str:
     q = _quantity_of(metadata)
     if q is not None:
         what, unit = q
-        return unit if what == "quantity" else f"[toleranced](#toleranced-values) {unit}"
+        text = unit if what == "quantity" else f"[toleranced](#toleranced-values) {unit}"
+        bounds = bounds_of(metadata)
+        return f"{text}, {bounds.text(unit)}" if bounds is not None else text
     if tp in (Pins, Union[Pins, None]):
         return "mapping of pin names to nets, or a list of nets"
     origin = get_origin(tp)

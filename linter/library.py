@@ -7,6 +7,7 @@ from dataclasses import field
 from pathlib import Path
 from typing import Any
 
+from .files import Refused, regular
 from .loader import Document, InputError, load_file
 from .schema import PartLibrary
 from .validate import validate
@@ -30,6 +31,18 @@ def shown_path(path: Path) -> str:
         return os.path.relpath(path) if not os.path.relpath(path).startswith("..") else str(path)
     except ValueError:  # pragma: no cover - other drive on Windows
         return str(path)
+
+
+def named_root(start: Path) -> Path:
+    """The repository holding ``start`` as the path names it: its folders are walked upward as
+    written and a folder that is a link is not searched for markers, so a folder linking out of
+    the repository (``designs -> /``) does not bring a root of its own. Designs are confined to
+    it. (Relative paths start from the working folder, which the OS gives without links.)"""
+    start = Path(os.path.abspath(start))
+    for folder in (start, *start.parents):
+        if not folder.is_symlink() and any((folder / m).exists() for m in ROOT_MARKERS):
+            return folder
+    return start
 
 
 @record(frozen=True)
@@ -77,7 +90,7 @@ def confine(entry: str, base: Path, roots: tuple[Path, ...], what: str) -> tuple
     (the repository first, then the roots the project's config allows) and exist as a file."""
     try:
         real = (base / entry).resolve()
-    except (OSError, RuntimeError):
+    except (OSError, RuntimeError, ValueError):
         return None, f"{what} '{entry}' cannot be resolved"
     if Path(entry).is_absolute() or not any(_inside(real, r) for r in roots):
         # Said apart because the fixes differ: a path written to climb out, or a link (inside
@@ -92,11 +105,17 @@ def confine(entry: str, base: Path, roots: tuple[Path, ...], what: str) -> tuple
                           "; a team library kept elsewhere is allowed by naming its folder in "
                           "the project's config: library_roots = [\"../team-parts\"] under "
                           "[tool.packwarden]" if what == "library" else ""))
-    if not real.exists():
-        looked = shown_path(real)
-        return None, f"{what} '{entry}' not found" + (f" (looked for {looked})" if looked != entry else "")
-    if real.is_dir():
-        return None, f"{what} '{entry}' is a directory, not a {'YAML ' if what == 'library' else ''}file"
+    try:
+        regular(real)  # a pipe or a device would hang the run or never end
+    except Refused as exc:
+        if exc.message == "no such file":
+            looked = shown_path(real)
+            return None, f"{what} '{entry}' not found" + (
+                f" (looked for {looked})" if looked != entry else "")
+        if exc.message == "is a directory":
+            return None, (f"{what} '{entry}' is a directory, not a "
+                          f"{'YAML ' if what == 'library' else ''}file")
+        return None, f"{what} '{entry}' {exc.message}"
     return real, None
 
 

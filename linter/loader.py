@@ -23,6 +23,7 @@ from pathlib import Path
 
 import yaml
 
+from .files import Refused, read_limited
 from .records import record
 
 try:  # libyaml's composer is several times faster; pyyaml >= 6.0.4 ships it in wheels
@@ -60,15 +61,18 @@ class InputError(Exception):
 
     def __str__(self) -> str:
         # always one line: a newline or control character from the input is shown escaped
-        return _one_line(f"{self.file}:{self.line}:{self.column}: {self.message}")
+        return printable(f"{self.file}:{self.line}:{self.column}: {self.message}")
 
     def __reduce__(self):
         # Exceptions pickle their ``args`` (the message alone); batch workers send errors back.
         return (type(self), (self.file, self.line, self.column, self.message))
 
 
-def _one_line(text: str) -> str:
-    return "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
+def printable(text: str, keep: str = "") -> str:
+    """``text`` on one line and harmless on a terminal: line breaks, control characters
+    (terminal escape sequences) and invisible format characters shown escaped, as ``\\x1b``;
+    the characters in ``keep`` (a line break in free text) stay as they are."""
+    return "".join(c if c.isprintable() or c in keep else repr(c)[1:-1] for c in text)
 
 
 @record
@@ -97,18 +101,13 @@ class Document:
 
 
 def read_text(path: Path, shown: str) -> str:
-    """Read a file as UTF-8 with precise errors for what is not a readable text file."""
-    if not path.exists():
-        raise InputError(shown, 1, 1, "no such file")
-    if path.is_dir():
-        raise InputError(shown, 1, 1, "is a directory, not a YAML file")
+    """Read a file as UTF-8 with precise errors for what is not a readable text file: only a
+    regular file is read, and no more of it than the size limit (see files.py)."""
     try:
-        size = path.stat().st_size
-        if size > MAX_BYTES:
-            raise InputError(shown, 1, 1, f"file is {size} bytes; the limit is {MAX_BYTES} bytes")
-        raw = path.read_bytes()
-    except OSError as exc:
-        raise InputError(shown, 1, 1, f"cannot read file: {exc.strerror or exc}") from None
+        raw = read_limited(path, MAX_BYTES)
+    except Refused as exc:
+        message = exc.message + (", not a YAML file" if exc.message == "is a directory" else "")
+        raise InputError(shown, 1, 1, message) from None
     return decode(raw, shown)
 
 

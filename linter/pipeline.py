@@ -12,10 +12,13 @@ from dataclasses import field, replace
 from pathlib import Path
 from typing import Any, Callable, Iterable
 
+from . import files
 from .api import Finding, RuleContext
 from .config import Config, check_against_rules, find_config, line_of, load_config
-from .library import LibraryCache, repository_root, resolve_libraries, shown_path
-from .loader import Document, InputError, load_file
+from .guards import netlist_errors
+from .library import LibraryCache, named_root, repository_root, resolve_libraries, shown_path
+from .loader import Document, InputError, load_file, printable
+from .model.values import DesignMistake
 from .netlist import Netlist, build_netlist
 from .records import record
 from .registry import Registry
@@ -46,23 +49,26 @@ def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> li
     pass as "nothing to report".
     """
     out: list[tuple[Path, str]] = []
+    roots: dict[Path, Path] = {}
     for raw in paths:
         p = Path(raw)
         if p.is_dir():
             before = len(out)
             for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
-                try:
-                    with open(f, encoding="utf-8", errors="replace") as fh:
-                        head = fh.read(4096)
-                except OSError:
-                    continue
-                if is_design_text(head):
-                    out.append((f, shown_path(f)))
+                root = roots.get(f.parent) or roots.setdefault(f.parent, named_root(f.parent))
+                head = files.head(f, root)
+                if head is None:
+                    # Not read (a pipe, a device, a link out of the repository): linted, so the
+                    # run says why, unless it is only a folder with a YAML-like name.
+                    if not f.is_dir():
+                        out.append((f, printable(shown_path(f))))
+                elif is_design_text(head):
+                    out.append((f, printable(shown_path(f))))
             if len(out) == before and errors is not None:
                 errors.append(InputError(raw, 1, 1, "no design files (format: packwarden/1) in "
                                                     "this folder"))
         else:
-            out.append((p, raw))
+            out.append((p, printable(raw)))
     return out
 
 
@@ -164,6 +170,10 @@ def lint_file(session: Session, path: Path, shown: str,
     disk (the language server); its libraries and config are read from disk, as saved."""
     clock = _StageClock(timings)
     result = DesignResult(file=shown)
+    refused = _refused(path, shown) if document is None and text is None else None
+    if refused is not None:
+        result.errors.append(refused)
+        return result
     cfg, options, cfg_error = session.config_for(path)
     if cfg_error is not None:
         result.errors.append(cfg_error)
@@ -180,7 +190,7 @@ def lint_file(session: Session, path: Path, shown: str,
     if errors:
         result.errors.extend(errors)
         return result
-    result.name = design.design.name
+    result.name = printable(design.design.name)
     root = session.root_for(path.parent)
     resolved = resolve_libraries(doc, design.libraries, path, session.libraries, root,
                                  cfg.library_roots)
@@ -201,15 +211,34 @@ def lint_file(session: Session, path: Path, shown: str,
         netlist.problems[:0] = sources.problems
         netlist.outside = sources.outside
     clock.lap("netlist")
+    guarded = netlist_errors(doc, design, netlist)
+    if guarded:  # nonsense the model would meet as a division by zero: refused, located
+        result.errors.extend(guarded)
+        return result
     model = make_model(design, netlist, options)
     result.model = model
-    result.figures = model_figures(model, result)
+    result.figures = model_figures(model, result, doc)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root),
               elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere)
     clock.lap("rules")
     return result
+
+
+def _refused(path: Path, shown: str) -> InputError | None:
+    """Why a design path is not read, before anything is opened: a path no file system holds, or
+    a link out of the design's repository (whose target is then never read, so no message can
+    show a byte of it); None when it may be read."""
+    try:
+        files.check_path(path)
+    except files.Refused as exc:
+        return InputError(shown, 1, 1, exc.message)
+    root = named_root(path.parent)
+    if files.outside(path, root):
+        return InputError(shown, 1, 1, f"the design links outside its repository "
+                                       f"({shown_path(root) or '.'}); it is not read")
+    return None
 
 
 def _written_out(design: Design, doc: Document) -> bool:
@@ -260,9 +289,12 @@ def make_model(design: Design, netlist: Netlist, options: dict | None = None) ->
     return DesignModel(design, netlist, Limits.of(options or {}))
 
 
-def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
+def model_figures(model: Any, result: DesignResult, doc: Document | None = None) -> dict[str, Any]:
     try:
         return model.figures()
+    except DesignMistake as exc:  # nonsense the model met: the design's, on its line
+        result.errors.append(located(result, exc, doc))
+        return {}
     except Exception as exc:  # the model must not take the run down; say where it broke
         result.internal.append(InternalError("model", result.file, describe(exc)))
         return {}
@@ -315,6 +347,10 @@ def rule_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
                                     f"(use ctx.finding(...))")
                 # the project's severity override wins even where a rule chose one per finding
                 findings.append(replace(f, severity=override) if override else f)
+        except DesignMistake as exc:  # the model met nonsense: one input error, not the rule's
+            error = located(result, exc, run.doc)
+            if str(error) not in {str(e) for e in result.errors}:
+                result.errors.append(error)
         except (Exception, SystemExit) as exc:
             result.internal.append(InternalError(rid, result.file, describe(exc)))
     return findings
@@ -365,10 +401,27 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
         findings = phase(run, findings)
     # After the waivers, so their own findings (expired, unused) share the design's identity.
     design_id = design_id or Path(result.file).as_posix()
-    findings = [f.with_fingerprint(design_id) for f in findings]
+    findings = [printable_finding(f).with_fingerprint(design_id) for f in findings]
     findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
     result.findings = findings
     result.linted = True
+
+
+def printable_finding(f: Finding) -> Finding:
+    """The finding with its text safe for every report: net names, part names and waiver reasons
+    come from the files under review, and a terminal escape among them must reach no terminal,
+    HTML page or pull-request comment as anything but visible text."""
+    texts = {"message": f.message, "hint": f.hint, "element": f.element, "waived": f.waived}
+    if all(t is None or t.isprintable() for t in texts.values()):
+        return f
+    return replace(f, **{k: printable(t) if t is not None else None for k, t in texts.items()})
+
+
+def located(result: DesignResult, mistake: DesignMistake, doc: Document | None) -> InputError:
+    """A mistake the model met, as an input error at its path in the design file."""
+    pos = doc.where(mistake.path) if doc is not None else None
+    return InputError(result.file, pos.line if pos else 1, pos.column if pos else 1,
+                      mistake.message)
 
 
 def describe(exc: BaseException) -> str:
@@ -376,4 +429,4 @@ def describe(exc: BaseException) -> str:
     tb = traceback.extract_tb(exc.__traceback__)
     last = tb[-1] if tb else None
     where = f" (at {os.path.basename(last.filename)}:{last.lineno})" if last else ""
-    return f"{type(exc).__name__}: {exc}{where}"
+    return printable(f"{type(exc).__name__}: {exc}{where}")

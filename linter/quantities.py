@@ -78,12 +78,14 @@ _EXPONENT = {k: f"e{round(math.log10(v))}" for k, v in _PREFIX.items()}
 # A plain decimal number, optional exponent, optional space, then the rest (prefix + unit).
 # The number must end where a digit or point cannot follow, or ``4.2  V`` and ``0x10 V`` would be
 # read as the number ``4.`` or ``0`` followed by a strange unit.
-_SHAPE = re.compile(r"^(?P<num>[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)(?![\d.])"
-                    r"(?P<sp>\s?)(?P<rest>\S.*)?$")
-_RKM = re.compile(r"^(?P<a>\d+)(?P<letter>[RKMGkmunpμVAFΩ])(?P<b>\d+)\s*\S*$")
+# Digits are ASCII only ([0-9], not \d): Python's \d and float() also take the digits of other
+# scripts, and a Bengali four looks like an 8 (see _foreign_digit).
+_SHAPE = re.compile(r"^(?P<num>[+-]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?)"
+                    r"(?![0-9.])(?P<sp>\s?)(?P<rest>\S.*)?$")
+_RKM = re.compile(r"^(?P<a>[0-9]+)(?P<letter>[RKMGkmunpμVAFΩ])(?P<b>[0-9]+)\s*\S*$")
 _RKM_PREFIX = {"R": "", "V": "", "A": "", "F": "", "Ω": "", "K": "k", "u": "μ"}
 _WIDE_GAP = re.compile(r"^\S+\s{2,}\S")
-_DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d")
+_DECIMAL_COMMA = re.compile(r"^[+-]?[0-9]+,[0-9]")
 _NONFINITE = re.compile(r"(?i)^[+-]?(nan|inf|infinity|\.inf|\.nan)\b")
 
 
@@ -122,6 +124,10 @@ def parse_quantity(text: object, unit: str) -> float:
 
 
 def _parse_text(text: str, spec: Unit) -> float:
+    foreign = _foreign_digit(text)
+    if foreign is not None:
+        raise QuantityError(f"{_q(text)}: {_q(foreign)} is {unicodedata.name(foreign, 'a digit')}"
+                            f", not an ASCII digit; write numbers with the digits 0-9")
     raw = unicodedata.normalize("NFKC", text.strip())
     if not raw:
         raise QuantityError(f"empty value; expected {_expected(spec)}")
@@ -187,6 +193,18 @@ def _parse_text(text: str, spec: Unit) -> float:
         raise QuantityError(f"{_q(text)} is too large to be a finite number; expected "
                             f"{_expected(spec)}")
     return value
+
+
+def _foreign_digit(text: str) -> str | None:
+    """The first digit of another script (or a superscript, a fullwidth or a circled digit) in the
+    number, before the unit starts: such digits look like others (a Bengali four like an 8), and
+    NFKC or float() would read some of them silently. The unit may hold one (``A²s``)."""
+    for c in text:
+        if c.isalpha() or c in "°%℃Ω":
+            return None
+        if c.isnumeric() and not c.isascii():
+            return c
+    return None
 
 
 def _unit_of(rest: str) -> tuple[str, str] | None:

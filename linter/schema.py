@@ -14,13 +14,15 @@ import datetime
 import functools
 import re
 from enum import Enum
+from pathlib import Path
 from typing import Annotated, Any, Literal, Union
 
-from pydantic import (BaseModel, BeforeValidator, ConfigDict, Discriminator, Field, Tag,
-                      model_validator)
-from pydantic_core import core_schema
+from pydantic import (AfterValidator, BaseModel, BeforeValidator, ConfigDict, Discriminator,
+                      Field, Tag, model_validator)
+from pydantic_core import PydanticCustomError, core_schema
 
-from .quantities import UNITS, QuantityError, parse_quantity
+from .files import Refused, check_path
+from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
 
 DESIGN_FORMAT = "packwarden/1"
 PARTS_FORMAT = "packwarden-parts/1"
@@ -56,19 +58,56 @@ def _unit_pattern(unit: str) -> str:
     return rf"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)? ?({prefix}({alt})){optional}$"
 
 
-def _parser(unit: str):
+def _parser(unit: str, bounds: "Bounds | None" = None):
     def parse(value: Any) -> float:
         try:
-            return parse_quantity(value, unit)
+            number = parse_quantity(value, unit)
         except QuantityError as exc:
             raise ValueError(str(exc)) from None
+        if bounds is not None:
+            bounds.check(number, unit)
+        return number
     return parse
 
 
+class Bounds:
+    """The physically possible range of one field, beyond its unit's own (ohms are never
+    negative): the sign, zero where the model divides by the value, and a ceiling far above any
+    battery pack that keeps the arithmetic finite. Checked where the value is read, so the message
+    names the file, line and field."""
+
+    __slots__ = ("gt", "ge", "lt", "le")
+
+    def __init__(self, gt: float | None = None, ge: float | None = None,
+                 lt: float | None = None, le: float | None = None) -> None:
+        self.gt, self.ge, self.lt, self.le = gt, ge, lt, le
+
+    def check(self, value: float, unit: str, what: str = "") -> None:
+        if ((self.gt is not None and not value > self.gt) or
+                (self.ge is not None and not value >= self.ge) or
+                (self.lt is not None and not value < self.lt) or
+                (self.le is not None and not value <= self.le)):
+            shown = format_quantity(value, UNITS[unit].symbol, digits=6)
+            raise ValueError(f"{what}{shown} is out of range: it must be {self.text(unit)}")
+
+    def text(self, unit: str) -> str:
+        """``above 0 A and at most 100 kA``."""
+        def q(v: float) -> str:
+            if unit == "s" and v >= 1000:  # a day reads better as 86400 s than as 86.4 ks
+                return f"{v:g} s"
+            return format_quantity(v, UNITS[unit].symbol, digits=6)
+        parts = [f"{word} {q(v)}" for word, v in (("above", self.gt), ("at least", self.ge),
+                                                   ("below", self.lt), ("at most", self.le))
+                 if v is not None]
+        return " and ".join(parts)
+
+
 @functools.cache
-def Q(unit: str) -> Any:  # noqa: N802 - reads like a type in field declarations
-    """A float field given as text in ``unit``."""
-    return Annotated[float, QuantitySchema(unit)]
+def Q(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa: N802 - reads
+      lt: float | None = None, le: float | None = None) -> Any:  # like a type in declarations
+    """A float field given as text in ``unit``, within the bounds given (see :class:`Bounds`)."""
+    bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
+    return Annotated[float, QuantitySchema(unit, bounds)]
 
 
 class QuantitySchema:
@@ -76,9 +115,9 @@ class QuantitySchema:
     Schema (a string with the unit's pattern). Given to pydantic whole, so a model with many such
     fields is built without working each one out from general annotations again."""
 
-    def __init__(self, unit: str) -> None:
-        self.unit = unit
-        self.core = core_schema.no_info_before_validator_function(_parser(unit),
+    def __init__(self, unit: str, bounds: Bounds | None = None) -> None:
+        self.unit, self.bounds = unit, bounds
+        self.core = core_schema.no_info_before_validator_function(_parser(unit, bounds),
                                                                   core_schema.float_schema())
 
     def __get_pydantic_core_schema__(self, source: Any, handler: Any) -> Any:
@@ -99,6 +138,29 @@ Volts, Amps, Ohms = Q("V"), Q("A"), Q("Ω")
 Farads, Henries, Watts, Seconds = Q("F"), Q("H"), Q("W"), Q("s")
 AmpHours, Percent, Celsius, Kelvin = Q("Ah"), Q("%"), Q("°C"), Q("K")
 KelvinPerWatt, AmpSquaredSeconds, Metres = Q("K/W"), Q("A²s"), Q("m")
+
+# The physically possible range of the fields (Bounds): a sign, zero refused where the model
+# divides by the value or where zero means the part is absent, and ceilings orders of magnitude
+# above any battery pack - the largest traction packs stay below 1 kV and a few kA - which keep
+# every product and square the model forms finite [practice].
+MAX_VOLTS = 10e3
+MAX_AMPS = 100e3
+MAX_OHMS = 1e12
+MAX_SECONDS = 86400.0  # a day: no protector delay, retry or load peak lasts longer
+# Beyond this no lithium pack operates, charges or is stored; such a number is a typo (a unit or
+# sign slip), and the temperature models mean nothing there [practice].
+LOWEST_C, HIGHEST_C = -100.0, 200.0
+HOTTEST_JUNCTION_C = 300.0  # above any silicon or silicon-carbide switch's rating
+
+PositiveVolts = Q("V", gt=0, le=MAX_VOLTS)
+PositiveAmps = Q("A", gt=0, le=MAX_AMPS)
+LeakageAmps = Q("A", ge=0, le=1.0)  # leakage and quiescent currents: nA to mA
+PositiveOhms = Q("Ω", gt=0, le=MAX_OHMS)
+PathOhms = Q("Ω", ge=0, le=MAX_OHMS)  # zero is a jumper or a part taken as ideal
+PositiveSeconds = Q("s", gt=0, le=MAX_SECONDS)
+Temperature = Q("°C", ge=LOWEST_C, le=HIGHEST_C)
+Share = Q("%", ge=0, le=100)  # a state of charge, a share of capacity
+Tolerance = Q("%", ge=0, lt=100)  # at 100 % the low limit is zero or of the other sign
 
 
 def drop_titles(node: Any) -> Any:
@@ -146,10 +208,11 @@ class Toleranced(Strict):
 
 
 @functools.cache
-def Tol(unit: str) -> Any:  # noqa: N802
-    """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare value."""
+def _given_model(unit: str, gt: float | None = None, ge: float | None = None,
+                 lt: float | None = None, le: float | None = None) -> type[Strict]:
+    """The mapping a toleranced field is written as, each value within the field's bounds."""
     spec = UNITS[unit]
-    q = Q(unit)
+    q = Q(unit, gt=gt, ge=ge, lt=lt, le=le)
 
     class Given(Strict):
         typ: q | None = Field(default=None, description=(
@@ -162,6 +225,16 @@ def Tol(unit: str) -> Any:  # noqa: N802
             f"tolerance around typ: absolute in {spec.symbol} or a percentage ('1 %')"))] = None
 
     Given.__name__ = Given.__qualname__ = f"Toleranced_{_safe(spec.name)}"
+    return Given
+
+
+@functools.cache
+def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa: N802
+        lt: float | None = None, le: float | None = None) -> Any:
+    """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare
+    value; every limit, also those worked out from ``tol``, within the bounds given."""
+    Given = _given_model(unit, gt, ge, lt, le)
+    bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
 
     def build(value: Any) -> Any:
         if isinstance(value, Toleranced):
@@ -169,9 +242,11 @@ def Tol(unit: str) -> Any:  # noqa: N802
         if not isinstance(value, dict):
             value = {"typ": value}
         given = Given.model_validate(value)
-        return _resolve(given, unit)
+        return _resolve(given, unit, bounds)
 
-    return Annotated[Toleranced, BeforeValidator(build), TolJsonSchema(Given, unit)]
+    # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
+    return Annotated[Toleranced, BeforeValidator(build),
+                     TolJsonSchema(_given_model(unit), unit, bounds)]
 
 
 class TolJsonSchema:
@@ -179,8 +254,8 @@ class TolJsonSchema:
     it at import would build the ``Given`` model's validator too, on every start of the linter.
     It also marks the field as toleranced in ``unit`` (:func:`quantity_of`)."""
 
-    def __init__(self, given: type[Strict], unit: str) -> None:
-        self.given, self.unit = given, unit
+    def __init__(self, given: type[Strict], unit: str, bounds: "Bounds | None" = None) -> None:
+        self.given, self.unit, self.bounds = given, unit, bounds
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
         given_schema = drop_titles(self.given.model_json_schema())
@@ -199,6 +274,14 @@ def quantity_of(metadata: Any) -> tuple[str, str] | None:
     return None
 
 
+def bounds_of(metadata: Any) -> "Bounds | None":
+    """The range a ``Q`` or ``Tol`` field declares (None: only its unit's), for the docs."""
+    for meta in metadata:
+        if isinstance(meta, (QuantitySchema, TolJsonSchema)):
+            return meta.bounds
+    return None
+
+
 def q_schema(unit: str) -> dict:
     spec = UNITS[unit]
     return {"type": "string", "pattern": _unit_pattern(unit),
@@ -209,7 +292,7 @@ def _safe(name: str) -> str:
     return re.sub(r"[^A-Za-z0-9]+", "_", name).strip("_")
 
 
-def _resolve(given: Any, unit: str) -> Toleranced:
+def _resolve(given: Any, unit: str, bounds: Bounds | None = None) -> Toleranced:
     typ, low, high, tol = given.typ, given.min, given.max, given.tol
     if tol is not None:
         if typ is None:
@@ -217,7 +300,14 @@ def _resolve(given: Any, unit: str) -> Toleranced:
         if low is not None or high is not None:
             raise ValueError("give either 'tol' or 'min'/'max', not both")
         if isinstance(tol, str) and tol.strip().endswith("%"):
-            pct = parse_quantity(tol, "%")
+            try:
+                pct = parse_quantity(tol, "%")
+            except QuantityError as exc:
+                raise ValueError(f"tol: {exc}") from None
+            if pct >= 100.0:
+                # typ - tol would be zero or of the other sign: no part is made that loosely
+                raise ValueError(f"'tol' of {pct:g} % leaves no value on its low side; a "
+                                 f"tolerance is below 100 %")
             delta = abs(typ) * pct / 100.0
         else:
             try:
@@ -227,6 +317,9 @@ def _resolve(given: Any, unit: str) -> Toleranced:
         if delta < 0:
             raise ValueError("'tol' must not be negative")
         low, high = typ - delta, typ + delta
+        if bounds is not None:
+            bounds.check(low, unit, "min (typ - tol) ")
+            bounds.check(high, unit, "max (typ + tol) ")
     if typ is None and low is None and high is None:
         raise ValueError("give at least one of 'typ', 'min', 'max'")
     ordered = [v for v in (low, typ, high) if v is not None]
@@ -235,24 +328,56 @@ def _resolve(given: Any, unit: str) -> Toleranced:
     return Toleranced(typ=typ, min=low, max=high)
 
 
+def inconsistent(at: str, message: str) -> PydanticCustomError:
+    """A cross-field mistake, raised by a model's check and located at its field ``at`` (dotted,
+    below the model; list items by number): ``validate`` points at that field's line."""
+    path = tuple(int(p) if p.isdigit() else p for p in at.split("."))
+    return PydanticCustomError("inconsistent", "{message}", {"message": message, "at": path})
+
+
+def _q(value: float, unit: str) -> str:
+    return format_quantity(value, unit, digits=4)
+
+
+def _rising(model: BaseModel, names: tuple[tuple[str, bool], ...], unit: str) -> None:
+    """Values given among ``names`` must rise in that order: each at least the one given before
+    it, or above it where its flag is True. The mistake is reported at the later field."""
+    chain = " ".join((("< " if strict else "≤ ") if i else "") + name
+                     for i, (name, strict) in enumerate(names))
+    before: tuple[str, float] | None = None
+    for name, strict in names:
+        value = getattr(model, name)
+        if value is None:
+            continue
+        if before is not None and (value < before[1] or (strict and value == before[1])):
+            raise inconsistent(name, f"{_q(value, unit)} is {'not above' if strict else 'below'} "
+                                     f"{before[0]} {_q(before[1], unit)}; these rise as "
+                                     f"{chain}")
+        before = (name, value)
+
+
 # --- design-level sections ----------------------------------------------------------------------
 
 class Range(Strict):
     """A temperature range, lowest to highest."""
 
-    min: Celsius = Field(description="lowest temperature of the range, in degrees Celsius")
-    max: Celsius = Field(description="highest temperature of the range, in degrees Celsius")
+    min: Temperature = Field(description="lowest temperature of the range, in degrees Celsius")
+    max: Temperature = Field(description="highest temperature of the range, in degrees Celsius")
 
     @model_validator(mode="after")
     def _ordered(self) -> "Range":
         if self.min > self.max:
             raise ValueError("min is above max")
-        # Beyond this no lithium pack operates, charges or is stored; such a number is a typo
-        # (a unit or sign slip), and the temperature models are meaningless there [practice].
-        for value in (self.min, self.max):
-            if not -100.0 <= value <= 200.0:
-                raise ValueError(f"{value:g} °C is outside -100 °C to 200 °C, where no battery "
-                                 f"pack works; check the value and its sign")
+        return self
+
+
+class Window(Range):
+    """A temperature window something happens within (charging): its ends differ."""
+
+    @model_validator(mode="after")
+    def _open(self) -> "Window":
+        if self.min == self.max:
+            raise inconsistent("max", f"{self.max:g} °C equals min: a window needs min below max")
         return self
 
 
@@ -279,6 +404,13 @@ class Terminals(Strict):
         "load, the charger and the hard short across the terminals, and exempts them from "
         "single-connection-net"))
 
+    @model_validator(mode="after")
+    def _two_nets(self) -> "Terminals":
+        if self.pos == self.neg:
+            raise inconsistent("neg", f"'{self.neg}' is also the positive terminal's net: the "
+                                      f"terminals would be shorted; give each its own net")
+        return self
+
 
 class Pack(Strict):
     """The pack as a whole: where it works and where its terminals are."""
@@ -289,7 +421,7 @@ class Pack(Strict):
         "the trip maximum, the prospective short circuit and the cell's rebound"))
     terminals: Terminals = Field(default_factory=Terminals, description=(
         "nets of the pack terminals, {pos, neg}; P+ and P- unless named otherwise"))
-    wiring_inductance: Henries | None = Field(default=None, description=(
+    wiring_inductance: Q("H", ge=0, le=1e-3) | None = Field(default=None, description=(
         "loop inductance of the wiring from the cells through the board to the load, in henries "
         "(e.g. '200 nH'); when given, the L·di/dt spike "
         "of turning off a short circuit is added to the voltage the discharge switch must block "
@@ -299,11 +431,11 @@ class Pack(Strict):
 class Peak(Strict):
     """A load peak above the continuous load."""
 
-    current: Amps = Field(description=(
+    current: PositiveAmps = Field(description=(
         "peak load current drawn from the pack terminals, in amperes; a steady-state heat case of "
         "switch-temperature, and the over-current trip minimum must clear it when it lasts longer "
         "than the shortest over-current delay"))
-    duration: Seconds = Field(description=(
+    duration: PositiveSeconds = Field(description=(
         "how long the peak lasts, in seconds, e.g. '40 ms'; compared with the protector's "
         "over-current and over-discharge delays"))
 
@@ -311,12 +443,20 @@ class Peak(Strict):
 class Load(Strict):
     """What the product draws from the pack."""
 
-    continuous: Amps = Field(description=(
+    continuous: PositiveAmps = Field(description=(
         "continuous load current drawn from the pack terminals, in amperes: the over-current trip "
         "minimum must clear it (trip-current-window) and the switches must carry it cool at the "
         "highest ambient (switch-temperature)"))
     peak: Peak | None = Field(default=None, description=(
         "a peak load above the continuous one, {current, duration}"))
+
+    @model_validator(mode="after")
+    def _peak_above(self) -> "Load":
+        if self.peak is not None and self.peak.current < self.continuous:
+            raise inconsistent("peak.current", f"{_q(self.peak.current, 'A')} is below the "
+                                               f"continuous load {_q(self.continuous, 'A')}; a "
+                                               f"peak is at least the continuous load")
+        return self
 
 
 class ReversePolarity(str, Enum):
@@ -327,15 +467,15 @@ class ReversePolarity(str, Enum):
 class Charger(Strict):
     """The charger the pack is charged with, as seen at the pack terminals."""
 
-    voltage: Tol("V") = Field(description=(
+    voltage: Tol("V", gt=0, le=MAX_VOLTS) = Field(description=(
         "regulated charge voltage of the whole pack with its tolerance (toleranced volts, e.g. "
         "{typ: 4.20 V, tol: 0.5 %}); divided by the series cell count, its maximum must stay "
         "within the cell's upper_limit and below the overcharge detection (threshold-ladder)"))
-    current: Amps = Field(description=(
+    current: PositiveAmps = Field(description=(
         "charge current, in amperes, shared by the cells in parallel: it must not exceed their "
         "max_current.charge (charge-conditions), and it sets the cell's rebound when an overcharge "
         "cut-off stops it (release-hysteresis)"))
-    open_circuit_max: Volts = Field(description=(
+    open_circuit_max: PositiveVolts = Field(description=(
         "highest voltage the charger puts on the pack terminals with no cell connected, worst case "
         "over its faults, in volts: the charge switch must block it against a depleted stack, and "
         "reversed it adds to the stack across the discharge switch, the sense-pin resistor and the "
@@ -344,22 +484,32 @@ class Charger(Strict):
         "'possible' when the charger can be connected the wrong way round (no keyed connector), "
         "'prevented' when the mechanics rule it out; with 'possible' the reversed-charger cases "
         "are checked (switch-voltage-margin, support-network)"))
-    temperature_window: Range | None = Field(default=None, description=(
+    temperature_window: Window | None = Field(default=None, description=(
         "temperatures outside which the charger stops charging (its NTC input or own sensing), "
         "{min, max} in °C; must lie inside the cell's charge_temperature (charge-conditions); "
         "without it, an ambient range beyond the cell's window is a warning"))
+
+    @model_validator(mode="after")
+    def _open_circuit_above(self) -> "Charger":
+        # with no cell to load it, the output sits at least at its regulation [practice]
+        if self.open_circuit_max < self.voltage.high:
+            raise inconsistent("open_circuit_max", (
+                f"{_q(self.open_circuit_max, 'V')} is below the highest regulated charge "
+                f"voltage {_q(self.voltage.high, 'V')}; with no cell connected a charger's "
+                f"output is at least its regulation voltage"))
+        return self
 
 
 class Storage(Strict):
     """How the product is stored or shipped before use."""
 
-    soc: Percent = Field(description=(
+    soc: Share = Field(description=(
         "state of charge the pack ships or is stored at, in percent of full, e.g. '40 %'; "
         "storage-drain counts the charge above the over-discharge cut-off from it"))
-    duration: Q("months") = Field(description=(
+    duration: Q("months", gt=0, le=1200) = Field(description=(
         "longest time on the shelf, in months (of 730 hours), e.g. '12 months'; the pack must "
         "last it above the cut-off (warning) and above the cell's lower limit (error)"))
-    temperature: Celsius = Field(default=25.0, description=(
+    temperature: Temperature = Field(default=25.0, description=(
         "storage temperature, in °C; the cell's 25 °C self-discharge is scaled by doubling per "
         "10 °C [practice]"))
 
@@ -419,40 +569,49 @@ class Chemistry(str, Enum):
     lto = "lto"
 
 
+CellVolts = Q("V", gt=0, le=10.0)  # per cell: every lithium chemistry stays below 5 V
+
+
 class CellVoltages(Strict):
     """The cell's voltage limits, per cell, as its data sheet gives them."""
 
-    charge: Volts = Field(description=(
+    charge: CellVolts = Field(description=(
         "standard charge voltage (the constant-voltage set point of the data sheet's charge "
         "method), per cell, in volts; upper_limit defaults to it plus 50 mV"))
-    upper_limit: Volts | None = Field(default=None, description=(
+    upper_limit: CellVolts | None = Field(default=None, description=(
         "highest charge voltage the cell maker allows (IEC 62133-2's upper limit charging "
         "voltage), per cell, in volts; the charger's maximum per cell must not exceed it "
         "(threshold-ladder); when absent, charge + 50 mV [practice]"))
-    overcharge_limit: Volts | None = Field(default=None, description=(
+    overcharge_limit: CellVolts | None = Field(default=None, description=(
         "voltage the cell must never reach, even when the charger fails (the data sheet's "
         "'never exceed'), per cell, in volts; the overcharge detection maximum must stay below it "
         "(threshold-ladder); when absent, the chemistry's default"))
-    nominal: Volts = Field(description=(
+    nominal: CellVolts = Field(description=(
         "nominal (rated mean) voltage per cell, in volts; the cells' source voltage in the "
         "linter's solves of the power path"))
-    cutoff: Volts = Field(description=(
+    cutoff: CellVolts = Field(description=(
         "discharge cut-off voltage the rated capacity is measured to, per cell, in volts; quoted "
         "beside the over-discharge detection in findings"))
-    lower_limit: Volts | None = Field(default=None, description=(
+    lower_limit: CellVolts | None = Field(default=None, description=(
         "voltage the cell must never be discharged below (the data sheet's 'never discharge "
         "below'), per cell, in volts; the over-discharge detection minimum must stay above it "
         "(threshold-ladder) and a stored pack must not sink to it (storage-drain); when absent, "
         "the chemistry's default"))
 
+    @model_validator(mode="after")
+    def _ordered(self) -> "CellVoltages":
+        _rising(self, (("lower_limit", False), ("cutoff", False), ("nominal", True),
+                       ("charge", True), ("upper_limit", False), ("overcharge_limit", False)), "V")
+        return self
+
 
 class CellCurrents(Strict):
     """The cell's current ratings, per cell."""
 
-    discharge: Amps = Field(description=(
+    discharge: PositiveAmps = Field(description=(
         "maximum continuous discharge current per cell, in amperes; times the cells in parallel, "
         "the over-current trip maximum must not exceed it (trip-current-window)"))
-    charge: Amps = Field(description=(
+    charge: PositiveAmps = Field(description=(
         "maximum charge current per cell, in amperes; times the cells in parallel, the charger "
         "current must not exceed it (charge-conditions)"))
 
@@ -460,8 +619,8 @@ class CellCurrents(Strict):
 class OcvPoint(Strict):
     """One row of an open-circuit voltage table."""
 
-    soc: Percent = Field(description="state of charge, in percent of full, e.g. '40 %'")
-    voltage: Volts = Field(description=(
+    soc: Share = Field(description="state of charge, in percent of full, e.g. '40 %'")
+    voltage: CellVolts = Field(description=(
         "open-circuit (rested) voltage per cell at that state of charge, in volts, at 25 °C"))
 
 
@@ -472,21 +631,21 @@ class Cell(Packaged):
     chemistry: Chemistry = Field(description=(
         "cell chemistry: lco, nmc, nca, lfp, lmo or lto; picks the default voltage limits and "
         "OCV table where the data sheet is silent, and must be one the protector is made for"))
-    capacity: AmpHours = Field(description=(
+    capacity: Q("Ah", gt=0, le=10e3) = Field(description=(
         "rated capacity, in ampere-hours, e.g. '3400 mAh'; the charge storage-drain budgets"))
     voltage: CellVoltages = Field(description=(
         "voltage limits per cell: {charge, upper_limit, overcharge_limit, nominal, cutoff, "
         "lower_limit}"))
-    internal_resistance: Tol("Ω") = Field(description=(
+    internal_resistance: Tol("Ω", gt=0, le=100.0) = Field(description=(
         "DC internal resistance per cell (toleranced ohms, the data sheet's typ and max; an AC "
         "1 kHz figure reads low): its lowest value sets the prospective short-circuit current, its "
         "highest the voltage rebound after a cut-off, raised further at cold"))
     max_current: CellCurrents = Field(description=(
         "current ratings per cell: {discharge, charge}"))
-    charge_temperature: Range | None = Field(default=None, description=(
+    charge_temperature: Window | None = Field(default=None, description=(
         "temperatures the cell may be charged at, {min, max} in °C; when absent, 0-45 °C "
         "[practice] (charge-conditions)"))
-    self_discharge: Q("%/month") | None = Field(default=None, description=(
+    self_discharge: Q("%/month", ge=0, le=100) | None = Field(default=None, description=(
         "self-discharge at 25 °C, in percent of capacity per month, e.g. '2 %/month'; when "
         "absent, 2 %/month [practice] (storage-drain)"))
     ocv: list[OcvPoint] | None = Field(default=None, description=(
@@ -504,15 +663,15 @@ class ReleaseOn(str, Enum):
 class Threshold(Strict):
     """One detection of the protector: where it trips, after how long, and what releases it."""
 
-    detect: Tol("V") = Field(description=(
+    detect: Tol("V", gt=0, le=MAX_VOLTS) = Field(description=(
         "detection voltage with its accuracy (toleranced volts): per cell for overcharge and "
         "over-discharge; between the sense and ground pins for over-current and short circuit, "
         "where divided by the sense resistance it gives the trip current"))
-    release: Tol("V") | None = Field(default=None, description=(
+    release: Tol("V", gt=0, le=MAX_VOLTS) | None = Field(default=None, description=(
         "release (recovery) voltage per cell, for a release by voltage (toleranced volts); it must "
         "lie on the safe side of the detection (threshold-ladder) by more than the cell's rebound "
         "(release-hysteresis)"))
-    delay: Tol("s") = Field(description=(
+    delay: Tol("s", ge=0, le=MAX_SECONDS) = Field(description=(
         "detection delay time (toleranced seconds): a load peak longer than its shortest must not "
         "trip (trip-current-window); its longest is how long an overload or short flows "
         "(short-circuit-stress, secondary-protection)"))
@@ -525,7 +684,7 @@ class Threshold(Strict):
 class CurrentThreshold(Threshold):
     """An over-current or short-circuit detection; it may release by retrying on its own."""
 
-    retry_period: Seconds | None = Field(default=None, description=(
+    retry_period: PositiveSeconds | None = Field(default=None, description=(
         "time between automatic retries, in seconds (with release_on: [auto_retry]); each retry "
         "repeats the fault current into the switches (release-hysteresis); when absent, 0.1 s "
         "[memory]"))
@@ -540,8 +699,10 @@ class CurrentThreshold(Threshold):
 class OhmsRange(Strict):
     """A recommended resistance range."""
 
-    min: Ohms | None = Field(default=None, description="lowest recommended resistance, in ohms")
-    max: Ohms | None = Field(default=None, description="highest recommended resistance, in ohms")
+    min: PathOhms | None = Field(default=None, description=(
+        "lowest recommended resistance, in ohms"))
+    max: PathOhms | None = Field(default=None, description=(
+        "highest recommended resistance, in ohms"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "OhmsRange":
@@ -550,12 +711,15 @@ class OhmsRange(Strict):
         return self
 
 
+Capacitance = Q("F", gt=0, le=100.0)  # up to the largest supercapacitors
+
+
 class FaradsRange(Strict):
     """A recommended capacitance range."""
 
-    min: Farads | None = Field(default=None, description=(
+    min: Capacitance | None = Field(default=None, description=(
         "lowest recommended capacitance, in farads"))
-    max: Farads | None = Field(default=None, description=(
+    max: Capacitance | None = Field(default=None, description=(
         "highest recommended capacitance, in farads"))
 
     @model_validator(mode="after")
@@ -579,11 +743,11 @@ class SupplyFilter(Strict):
 class SupplyCurrent(Strict):
     """The protector's own current consumption."""
 
-    operating: Tol("A") = Field(description=(
+    operating: Tol("A", ge=0, le=1.0) = Field(description=(
         "supply current in normal operation (toleranced amperes, the data sheet's current "
         "consumption); its maximum times the supply filter resistance shifts a single-cell "
         "protector's thresholds (support-network), and it drains a stored pack (storage-drain)"))
-    power_down: Tol("A") | None = Field(default=None, description=(
+    power_down: Tol("A", ge=0, le=1.0) | None = Field(default=None, description=(
         "supply current after an over-discharge cut-off (power-down or standby, toleranced "
         "amperes); it drains the cells on towards their lower limit; when absent, the operating "
         "current"))
@@ -612,13 +776,37 @@ class Protector(Packaged):
         "release_on, retry_period}"))
     supply_current: SupplyCurrent = Field(description=(
         "the protector's own current: {operating, power_down}"))
-    gate_drive: Literal["cell"] | Volts = Field(default="cell", description=(
+    gate_drive: Literal["cell"] | PositiveVolts = Field(default="cell", description=(
         "'cell' when the gate outputs swing between ground and supply, so the drive is the cell "
         "voltage (the stack voltage for a multi-cell protector); or a fixed drive in volts, e.g. "
         "'12 V' from a charge pump; it sets the switches' on-resistance and is checked against "
         "their vgs_max and vgs_th"))
     supply_filter: SupplyFilter | None = Field(default=None, description=(
         "the maker's recommended supply filter: {r: {min, max}, c: {min, max}}"))
+
+    @model_validator(mode="after")
+    def _ordered(self) -> "Protector":
+        # A release on the unsafe side of its detection would trip and release in a loop; the
+        # margins with tolerances are threshold-ladder's, the order itself is the data's.
+        oc, od = self.overcharge, self.overdischarge
+        if oc.release is not None and oc.release.nominal >= oc.detect.nominal:
+            raise inconsistent("overcharge.release", (
+                f"{_q(oc.release.nominal, 'V')} is not below the overcharge detection "
+                f"{_q(oc.detect.nominal, 'V')}; the cell releases by falling from it"))
+        if od.release is not None and od.release.nominal <= od.detect.nominal:
+            raise inconsistent("overdischarge.release", (
+                f"{_q(od.release.nominal, 'V')} is not above the over-discharge detection "
+                f"{_q(od.detect.nominal, 'V')}; the cell releases by recovering from it"))
+        if od.detect.nominal >= oc.detect.nominal:
+            raise inconsistent("overdischarge.detect", (
+                f"{_q(od.detect.nominal, 'V')} is not below the overcharge detection "
+                f"{_q(oc.detect.nominal, 'V')}"))
+        sc = self.short_circuit
+        if sc is not None and sc.detect.nominal <= self.overcurrent.detect.nominal:
+            raise inconsistent("short_circuit.detect", (
+                f"{_q(sc.detect.nominal, 'V')} is not above the over-current detection "
+                f"{_q(self.overcurrent.detect.nominal, 'V')}; a short circuit draws more"))
+        return self
 
 
 class Channel(str, Enum):
@@ -629,12 +817,12 @@ class Channel(str, Enum):
 class RdsOnPoint(Strict):
     """One row of a data sheet's on-resistance table, at 25 °C."""
 
-    vgs: Volts = Field(description=(
+    vgs: Q("V", ge=-1000.0, le=1000.0) = Field(description=(
         "gate-source voltage of the row, in volts (p-channel data sheets print it negative; read "
         "as a magnitude)"))
-    typ: Ohms | None = Field(default=None, description=(
+    typ: PositiveOhms | None = Field(default=None, description=(
         "typical R_DS(on) at that gate voltage and 25 °C, in ohms, e.g. '25 mΩ'"))
-    max: Ohms | None = Field(default=None, description=(
+    max: PositiveOhms | None = Field(default=None, description=(
         "maximum R_DS(on) at that gate voltage and 25 °C, in ohms"))
 
     @model_validator(mode="after")
@@ -643,15 +831,16 @@ class RdsOnPoint(Strict):
             raise ValueError("give 'typ' or 'max'")
         if self.typ is not None and self.max is not None and self.typ > self.max:
             raise ValueError("typ is above max")
-        if (self.typ is not None and self.typ <= 0) or (self.max is not None and self.max <= 0):
-            raise ValueError("on-resistance must be above zero")
+        if self.vgs == 0:
+            raise inconsistent("vgs", "0 V: a row of the table holds the gate voltage it was "
+                                      "measured at; at 0 V the switch is off")
         return self
 
 
 class HotRatio(Strict):
     """How much the on-resistance rises when the junction is hot."""
 
-    at: Celsius = Field(default=125.0, description=(
+    at: Q("°C", gt=25.0, le=HOTTEST_JUNCTION_C) = Field(default=125.0, description=(
         "junction temperature the ratio is read at, in °C"))
     ratio: float = Field(gt=0.5, lt=5.0, description=(
         "R_DS(on) at that temperature over R_DS(on) at 25 °C, from the data sheet's normalised "
@@ -664,14 +853,14 @@ class FetCommon(Packaged):
     channel: Channel = Field(description=(
         "channel type, 'n' or 'p'; decides which rail the switch can sit on with gate_drive: "
         "cell and the direction of its body diode"))
-    vds_max: Volts = Field(description=(
+    vds_max: PositiveVolts = Field(description=(
         "drain-source voltage rating V_DS (absolute maximum), in volts: the worst voltage the off "
         "switch blocks must stay within a derated share of it, 80 % by default "
         "(switch-voltage-margin), a turn-off spike within it (short-circuit-stress)"))
-    vgs_max: Volts = Field(description=(
+    vgs_max: PositiveVolts = Field(description=(
         "gate-source voltage rating V_GS (absolute maximum), in volts; the highest gate drive "
         "must stay within a derated share of it, 70 % by default (switch-voltage-margin)"))
-    vgs_th: Tol("V") = Field(description=(
+    vgs_th: Tol("V", ge=-1000.0, le=1000.0) = Field(description=(
         "gate threshold voltage V_GS(th) (toleranced volts, e.g. {min: 0.5 V, max: 1.0 V}); its "
         "max must sit below the lowest gate drive, the over-discharge detection with gate_drive: "
         "cell, or the FET is not fully on near the end of discharge (switch-voltage-margin)"))
@@ -682,25 +871,42 @@ class FetCommon(Packaged):
     rds_on_hot_ratio: HotRatio | None = Field(default=None, description=(
         "rise of R_DS(on) with junction temperature, {at, ratio}; when absent, 1.5 at 125 °C "
         "[practice]"))
-    id_max: Amps = Field(description=(
+    id_max: PositiveAmps = Field(description=(
         "continuous drain current rating I_D per channel, in amperes; each channel's share of "
         "the over-current trip maximum must not exceed it (trip-current-window)"))
-    id_pulse_max: Amps | None = Field(default=None, description=(
+    id_pulse_max: PositiveAmps | None = Field(default=None, description=(
         "pulsed drain current rating I_DM per channel, in amperes; a hard short's channel current "
         "must stay within it until the protection turns it off (short-circuit-stress)"))
-    turn_off_time: Seconds | None = Field(default=None, description=(
+    turn_off_time: Q("s", gt=0, le=1.0) | None = Field(default=None, description=(
         "drain current fall time when the gate is pulled off, in seconds; with "
         "pack.wiring_inductance it sets the turn-off spike (1 µs assumed when not given)"))
-    theta_ja: KelvinPerWatt = Field(description=(
+    theta_ja: Q("K/W", gt=0, le=10e3) = Field(description=(
         "junction-to-ambient thermal resistance R_θJA on the board as built, in K/W, for the "
         "whole package; the junction sits at ambient + dissipation × theta_ja "
         "(switch-temperature)"))
-    tj_max: Celsius = Field(default=150.0, description=(
+    tj_max: Q("°C", gt=25.0, le=HOTTEST_JUNCTION_C) = Field(default=150.0, description=(
         "maximum junction temperature T_J, in °C; the junctions must stay below it "
         "(switch-temperature), and no thermal balance below it is thermal runaway"))
-    idss: Amps | None = Field(default=None, description=(
+    idss: LeakageAmps | None = Field(default=None, description=(
         "zero-gate-voltage drain leakage I_DSS at vds_max, in amperes; the discharge switches' "
         "leakage counts as a drain on a stored pack (storage-drain)"))
+
+    @model_validator(mode="after")
+    def _consistent(self) -> "FetCommon":
+        rows: dict[float, int] = {}
+        for i, row in enumerate(self.rds_on):
+            first = rows.setdefault(abs(row.vgs), i)
+            if first != i:
+                # interpolating between two rows at one gate voltage divides by zero, and which
+                # row wins would move the trip window silently
+                raise inconsistent(f"rds_on.{i}.vgs", (
+                    f"{_q(abs(row.vgs), 'V')} is also the gate voltage of rds_on[{first}]; give "
+                    f"one row per gate voltage"))
+        if self.id_pulse_max is not None and self.id_pulse_max < self.id_max:
+            raise inconsistent("id_pulse_max", (
+                f"{_q(self.id_pulse_max, 'A')} is below the continuous rating id_max "
+                f"{_q(self.id_max, 'A')}; a pulse rating is at least the continuous one"))
+        return self
 
 
 class Fet(FetCommon):
@@ -725,56 +931,70 @@ class Fuse(Packaged):
     """A fuse: the secondary protection in series with the power path."""
 
     kind: Literal["fuse"] = Field(description="the part kind: 'fuse'")
-    rated_current: Amps = Field(description=(
+    rated_current: PositiveAmps = Field(description=(
         "rated current I_n, in amperes; derated (to 75 % by default) it must carry the "
         "over-current trip maximum (secondary-protection)"))
-    rated_voltage: Volts = Field(description=(
+    rated_voltage: PositiveVolts = Field(description=(
         "rated voltage, in volts; at least the highest pack or charger voltage "
         "(secondary-protection)"))
-    breaking_capacity: Amps = Field(description=(
+    breaking_capacity: PositiveAmps = Field(description=(
         "breaking capacity (rated interrupting current), in amperes; at least the prospective "
         "short-circuit current (secondary-protection)"))
-    melting_i2t: AmpSquaredSeconds | None = Field(default=None, description=(
+    melting_i2t: Q("A²s", gt=0, le=1e9) | None = Field(default=None, description=(
         "melting (pre-arcing) I²t, in A²s, e.g. '95 A2s'; the I²t let through during the "
         "longest over-current and short-circuit delays must stay below a share of it, 48 % by "
         "default (secondary-protection); when absent, an info finding"))
     speed: FuseSpeed = Field(default=FuseSpeed.time_lag, description=(
         "'quick_acting' or 'time_lag', as IEC 60127 names them; recorded for reviewers, not yet "
         "used by a rule"))
-    resistance: Ohms | None = Field(default=None, description=(
+    resistance: PathOhms | None = Field(default=None, description=(
         "cold resistance, in ohms; part of the power path's resistance (taken as near zero when "
         "absent)"))
+
+    @model_validator(mode="after")
+    def _breaks_its_rating(self) -> "Fuse":
+        if self.breaking_capacity < self.rated_current:
+            raise inconsistent("breaking_capacity", (
+                f"{_q(self.breaking_capacity, 'A')} is below the rated current "
+                f"{_q(self.rated_current, 'A')}; a fuse breaks more than it carries"))
+        return self
 
 
 class Ptc(Packaged):
     """A resettable PTC fuse used as the secondary protection."""
 
     kind: Literal["ptc"] = Field(description="the part kind: 'ptc'")
-    hold_current: Amps = Field(description=(
+    hold_current: PositiveAmps = Field(description=(
         "hold current I_hold, in amperes, the highest it carries without tripping; at least the "
         "continuous load (secondary-protection)"))
-    trip_current: Amps = Field(description=(
+    trip_current: PositiveAmps = Field(description=(
         "trip current I_trip, in amperes; recorded, not yet used by a rule"))
-    rated_voltage: Volts = Field(description=(
+    rated_voltage: PositiveVolts = Field(description=(
         "rated voltage V_max, in volts; at least the highest pack or charger voltage "
         "(secondary-protection)"))
-    max_current: Amps = Field(description=(
+    max_current: PositiveAmps = Field(description=(
         "highest fault current it withstands, I_max, in amperes; recorded, not yet used by a rule"))
-    resistance: Tol("Ω") = Field(description=(
+    resistance: Tol("Ω", gt=0, le=MAX_OHMS) = Field(description=(
         "resistance before tripping (toleranced ohms, the data sheet's R_min and R_max); part of "
         "the power path's resistance at each corner"))
+
+    @model_validator(mode="after")
+    def _ordered(self) -> "Ptc":
+        _rising(self, (("hold_current", False), ("trip_current", True), ("max_current", False)),
+                "A")
+        return self
 
 
 class Resistor(Packaged):
     """A resistor: a shunt in the power path, or a signal part (supply filter, sense, divider)."""
 
     kind: Literal["resistor"] = Field(description="the part kind: 'resistor'")
-    value: Ohms = Field(description=(
+    value: PathOhms = Field(description=(
         "resistance, in ohms, e.g. '470 Ω'; a resistor of 1 Ω or less is taken to carry the "
         "pack's current (a shunt), a larger one a signal"))
-    tol: Percent = Field(default=1.0, description=(
+    tol: Tolerance = Field(default=1.0, description=(
         "resistance tolerance, in percent; the worst cases and the --yield run use value ± tol"))
-    power: Watts | None = Field(default=None, description=(
+    power: Q("W", gt=0, le=100e3) | None = Field(default=None, description=(
         "power rating, in watts; its worst dissipation must stay within a derated share of it, "
         "50 % by default (support-network); when absent, not checked"))
 
@@ -783,10 +1003,10 @@ class Capacitor(Packaged):
     """A capacitor: the protector's supply filter, or a decoupling capacitor."""
 
     kind: Literal["capacitor"] = Field(description="the part kind: 'capacitor'")
-    value: Farads = Field(description=(
+    value: Capacitance = Field(description=(
         "capacitance, in farads, e.g. '100 nF'; the supply filter's capacitor is compared with "
         "the recommended range (support-network)"))
-    voltage: Volts | None = Field(default=None, description=(
+    voltage: PositiveVolts | None = Field(default=None, description=(
         "voltage rating, in volts; the highest voltage across it must stay within a derated "
         "share of it, 80 % by default (support-network); when absent, not checked"))
 
@@ -800,15 +1020,15 @@ class Trace(Packaged):
     """A copper trace of the power path, rated by the IPC-2221 conductor formula."""
 
     kind: Literal["trace"] = Field(description="the part kind: 'trace'")
-    width: Metres = Field(description=(
+    width: Q("m", gt=0, le=1.0) = Field(description=(
         "trace width, in metres, e.g. '2 mm'; with the copper thickness it gives the "
         "cross-section IPC-2221 rates (conductor-capacity)"))
-    length: Metres = Field(description=(
+    length: Q("m", gt=0, le=100.0) = Field(description=(
         "trace length, in metres, e.g. '20 mm'; with width and thickness it gives the copper "
         "resistance in the power path (IEC 60028 resistivity)"))
-    thickness: Metres | None = Field(default=None, description=(
+    thickness: Q("m", gt=0, le=0.01) | None = Field(default=None, description=(
         "finished copper thickness, in metres, e.g. '35 um'; give it or copper_weight"))
-    copper_weight: Q("oz") | None = Field(default=None, description=(
+    copper_weight: Q("oz", gt=0, le=20.0) | None = Field(default=None, description=(
         "copper weight in ounces per square foot, e.g. '1 oz' (35 µm); give it or thickness"))
     layer: Layer = Field(default=Layer.outer, description=(
         "'outer' or 'inner' layer; IPC-2221 rates inner traces at half the current"))
@@ -824,12 +1044,12 @@ class Wire(Packaged):
     """A wire or cable of the power path."""
 
     kind: Literal["wire"] = Field(description="the part kind: 'wire'")
-    rated_current: Amps = Field(description=(
+    rated_current: PositiveAmps = Field(description=(
         "current rating of the wire as installed, in amperes; at least the highest current the "
         "protection permits through it (conductor-capacity)"))
-    resistance: Ohms | None = Field(default=None, description=(
+    resistance: PathOhms | None = Field(default=None, description=(
         "resistance of the whole wire, in ohms; part of the power path (near zero when absent)"))
-    length: Metres | None = Field(default=None, description=(
+    length: Q("m", gt=0, le=10e3) | None = Field(default=None, description=(
         "wire length, in metres; recorded, not yet used"))
 
 
@@ -837,11 +1057,11 @@ class Diode(Packaged):
     """A diode or LED; an LED the cells can light drains a stored pack."""
 
     kind: Literal["diode"] = Field(description="the part kind: 'diode'")
-    forward_voltage: Volts = Field(default=0.7, description=(
+    forward_voltage: Q("V", gt=0, le=1000.0) = Field(default=0.7, description=(
         "forward voltage V_F, in volts; the diode conducts above it in the linter's solves"))
     led: bool = Field(default=False, description=(
         "true for an LED: lit from the cells it counts as a storage drain (storage-drain)"))
-    current: Amps | None = Field(default=None, description=(
+    current: Q("A", gt=0, le=100.0) | None = Field(default=None, description=(
         "current when lit, in amperes, for LEDs; counted as the drain instead of the solved "
         "current"))
 
@@ -903,10 +1123,22 @@ Component = Annotated[
 RefDes = Annotated[str, Field(pattern=r"^[A-Za-z][A-Za-z0-9_.\-]{0,39}$")]
 
 
+def _path_text(value: str) -> str:
+    try:
+        check_path(Path(value))
+    except Refused as exc:
+        raise ValueError(exc.message) from None
+    return value
+
+
+#: A file named in a design or library: text a file system can hold (no NUL, no control bytes).
+FilePath = Annotated[str, Field(min_length=1, max_length=1000), AfterValidator(_path_text)]
+
+
 class Schematic(Strict):
     """Where the design's components come from: a netlist exported by the schematic editor."""
 
-    netlist: str = Field(min_length=1, max_length=500, description=(
+    netlist: FilePath = Field(description=(
         "the netlist file (KiCad's own format, `(export (version \"E\") ...)`), relative to this "
         "design and inside its repository, e.g. board/power.net"))
     part_field: str = Field(default="packwarden-part", min_length=1, max_length=100, description=(
@@ -945,7 +1177,7 @@ class Design(Strict):
     format: Literal["packwarden/1"] = Field(alias="format", description=(
         "the format and its version: 'packwarden/1'"))
     design: DesignInfo = Field(description="what the design is: {name, revision, description}")
-    libraries: list[str] = Field(default_factory=list, max_length=50, description=(
+    libraries: list[FilePath] = Field(default_factory=list, max_length=50, description=(
         "part library files, relative to this design and inside its repository, e.g. "
         "[parts/orchard-parts.yaml]; up to 50"))
     pack: Pack = Field(description="the pack: {ambient, terminals, wiring_inductance}")
@@ -975,7 +1207,7 @@ class PartLibrary(Strict):
 
     format: Literal["packwarden-parts/1"] = Field(description=(
         "the format and its version: 'packwarden-parts/1'"))
-    include: list[str] = Field(default_factory=list, max_length=50, description=(
+    include: list[FilePath] = Field(default_factory=list, max_length=50, description=(
         "further library files whose parts this one brings in, relative to this file and inside "
         "the repository; up to 50"))
     parts: dict[Annotated[str, Field(min_length=1, max_length=100)], Part] = Field(

@@ -282,6 +282,9 @@ def _locate(doc: Document, model: type[BaseModel], err: dict, loc: tuple,
         return _Problem(doc.error(loc[:-1], f"missing required key '{loc[-1]}' in {parent}",
                                   key=True), kind, loc)
 
+    if kind == "inconsistent":  # a cross-field check of schema.py names the field it is about
+        loc = loc + tuple(ctx["at"])
+        return _Problem(doc.error(loc, f"{_where(loc)}: {ctx['message']}"), kind, loc)
     if kind == "unknown_kind":
         return _part_kind(doc, loc, value, ctx, component=False)
     if kind == "component_form":

@@ -78,11 +78,12 @@ def repo(project: Path) -> Path:
 
 
 def add_flaw(design: Path) -> None:
-    """The no-fuse flaw's sibling: a 2.5 A continuous load on the clean example (a new finding)."""
+    """The no-fuse flaw's sibling: a 2.5 A continuous load on the clean example (a new finding),
+    with its peak raised to stay above it."""
     text = design.read_text(encoding="utf-8")
-    assert "  continuous: 1.2 A\n" in text
-    design.write_text(text.replace("  continuous: 1.2 A\n", "  continuous: 2.5 A\n"),
-                      encoding="utf-8")
+    assert "  continuous: 1.2 A\n  peak: {current: 1.6 A" in text
+    design.write_text(text.replace("  continuous: 1.2 A\n  peak: {current: 1.6 A",
+                                   "  continuous: 2.5 A\n  peak: {current: 3 A"), encoding="utf-8")
 
 
 # --- files and comparison -----------------------------------------------------------------------
@@ -201,7 +202,8 @@ def test_since_a_revision_reports_new_and_fixed(repo: Path) -> None:
     add_flaw(repo / "designs" / "orchard-probe.yaml")
     # fix the fuse-less design: the fuse comes back from the clean example
     (repo / "designs" / "no-fuse.yaml").write_text(
-        (repo / "designs" / "orchard-probe.yaml").read_text().replace("2.5 A", "1.2 A"))
+        (repo / "designs" / "orchard-probe.yaml").read_text().replace("2.5 A", "1.2 A")
+        .replace("{current: 3 A", "{current: 1.6 A"))
     proc = cli("check", "--since", "HEAD", "--format", "sarif", "designs", cwd=repo)
     results = json.loads(proc.stdout)["runs"][0]["results"]
     by_state: dict[str, list] = {}

@@ -215,17 +215,22 @@ def test_every_key_and_pin_has_its_row(format_md: str) -> None:
 
 def test_units_and_defaults_come_from_the_annotations(format_md: str) -> None:
     fet = _section(format_md, "part-fet")
-    assert "| `vds_max` | V | required |" in fet
-    assert "| `vgs_th` | [toleranced](#toleranced-values) V | required |" in fet
-    assert "| `theta_ja` | K/W | required |" in fet
-    assert "| `tj_max` | °C | `150 °C` |" in fet
+    # each unit with the range the field declares (schema.Q / schema.Tol bounds)
+    assert "| `vds_max` | V, above 0 V and at most 10 kV | required |" in fet
+    assert ("| `vgs_th` | [toleranced](#toleranced-values) V, at least -1 kV and at most 1 kV | "
+            "required |") in fet
+    assert "| `theta_ja` | K/W, above 0 K/W and at most 10000 K/W | required |" in fet
+    assert "| `tj_max` | °C, above 25 °C and at most 300 °C | `150 °C` |" in fet
     # the kind leads the table, as in a library, though FetCommon declares the rest first
     assert fet.split("|---|---|---|---|\n", 1)[1].startswith("| `kind` | `fet` | required |")
-    assert "| `tol` | % | `1 %` |" in _section(format_md, "part-resistor")
+    assert "| `tol` | %, at least 0 % and below 100 % | `1 %` |" in \
+        _section(format_md, "part-resistor")
     assert "| `terminals` | [mapping](#pack.terminals) | `{pos: P+, neg: P-}` |" in \
         _section(format_md, "pack")
-    assert "| `temperature` | °C | `25 °C` |" in _section(format_md, "storage")
-    assert "| `gate_drive` | `cell` or V | `cell` |" in _section(format_md, "part-protector")
+    assert "| `temperature` | °C, at least -100 °C and at most 200 °C | `25 °C` |" in \
+        _section(format_md, "storage")
+    assert "| `gate_drive` | `cell` or V, above 0 V and at most 10 kV | `cell` |" in \
+        _section(format_md, "part-protector")
 
 
 def test_the_refused_quantities_show_the_parsers_own_message(format_md: str) -> None:

@@ -11,7 +11,9 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import shutil
+import socket
 import subprocess
 import sys
 from pathlib import Path
@@ -303,3 +305,277 @@ def test_any_value_anywhere_validates_or_gives_located_errors(path, value):
     for e in errors:
         assert isinstance(e, InputError) and e.line >= 1 and e.column >= 1
         assert "\n" not in str(e)
+
+
+# --- round two: what cannot live in the corpus folder ---------------------------------------------
+# FIFOs, sockets, links out of the repository, configs and baselines are arranged at test time;
+# each case keeps a good design in the same run, which must still be linted.
+
+def _repo_with_good(tmp_path: Path) -> Path:
+    """A repository holding the clean example (which lints without findings) and its library."""
+    repo = make_repo(tmp_path / "repo")
+    shutil.copy(GOOD, repo / "good.yaml")
+    shutil.copytree(GOOD.parent / "parts", repo / "parts")
+    return repo
+
+
+def _special(make) -> None:
+    try:
+        make()
+    except (OSError, AttributeError, NotImplementedError) as exc:  # no FIFOs or links here
+        pytest.skip(f"this file system cannot make it: {exc}")
+
+
+def _fifo(path: Path) -> None:
+    _special(lambda: os.mkfifo(path))
+
+
+def _link(path: Path, target: Path | str) -> None:
+    _special(lambda: os.symlink(target, path))
+
+
+def test_special_files_named_as_designs_are_refused_unread(tmp_path, monkeypatch, registry):
+    repo = _repo_with_good(tmp_path)
+    _fifo(repo / "pipe.yaml")
+    _link(repo / "zeros.yaml", "/dev/zero")
+    _link(repo / "null.yml", os.devnull)
+    sock = socket.socket(socket.AF_UNIX)
+    try:
+        _special(lambda: sock.bind(str(repo / "sock.yaml")))
+        monkeypatch.chdir(repo)
+        run = lint(["pipe.yaml", "zeros.yaml", "null.yml", "sock.yaml", "good.yaml"],
+                   registry=registry)
+    finally:
+        sock.close()
+    errors = {d.file: [str(e) for e in d.errors] for d in run.designs}
+    assert errors["pipe.yaml"] == ["pipe.yaml:1:1: is a FIFO (named pipe), not a regular file; "
+                                   "only regular files are read"]
+    assert errors["sock.yaml"] == ["sock.yaml:1:1: is a socket, not a regular file; only regular "
+                                   "files are read"]
+    for name in ("zeros.yaml", "null.yml"):  # devices live outside any repository
+        assert errors[name] == [f"{name}:1:1: the design links outside its repository (.); it "
+                                f"is not read"]
+    assert run.exit_code() == 2
+    assert_good_linted(run, "good.yaml")
+
+
+def test_a_scanned_folder_with_a_pipe_and_a_device_link_still_lints_its_designs(
+        tmp_path, monkeypatch, registry):
+    repo = _repo_with_good(tmp_path)
+    designs = repo / "designs"
+    designs.mkdir()
+    text = GOOD.read_text(encoding="utf-8").replace("libraries: [parts/", "libraries: [../parts/")
+    (designs / "a-good.yaml").write_text(text, encoding="utf-8")
+    _fifo(designs / "b-pipe.yaml")
+    _link(designs / "c-zeros.yaml", "/dev/zero")
+    (designs / "d-folder.yaml").mkdir()  # a folder with a YAML name is no file to lint
+    (designs / "e-good.yml").write_text(text, encoding="utf-8")
+    monkeypatch.chdir(repo)
+    run = lint(["designs"], registry=registry)
+    by_file = {d.file: d for d in run.designs}
+    assert list(by_file) == ["designs/a-good.yaml", "designs/b-pipe.yaml", "designs/c-zeros.yaml",
+                             "designs/e-good.yml"]
+    for good in ("designs/a-good.yaml", "designs/e-good.yml"):
+        assert by_file[good].linted and by_file[good].errors == []
+    assert "FIFO" in str(by_file["designs/b-pipe.yaml"].errors[0])
+    assert "links outside its repository" in str(by_file["designs/c-zeros.yaml"].errors[0])
+    assert run.exit_code() == 2
+
+
+SECRET = "format: packwarden/1\nsecret-token-7f3a: do not print me\n"
+
+
+def test_a_design_linking_out_of_the_repository_echoes_nothing_of_its_target(tmp_path, monkeypatch):
+    repo = _repo_with_good(tmp_path)
+    outside = tmp_path / "elsewhere" / "credentials.yaml"
+    outside.parent.mkdir()
+    outside.write_text(SECRET, encoding="utf-8")
+    _link(repo / "innocent.yaml", outside)
+    (repo / "nested").mkdir()
+    _link(repo / "nested" / "also.yaml", outside)  # found by a folder scan too
+    monkeypatch.chdir(repo)
+    for fmt in ("text", "json", "sarif", "junit", "markdown", "html"):
+        result = CliRunner().invoke(app, ["check", "--format", fmt, "innocent.yaml", "nested",
+                                          "good.yaml"])
+        assert result.exit_code == 2, fmt
+        assert "secret-token" not in result.output and "credentials" not in result.output, fmt
+        assert "Traceback" not in result.output
+    result = CliRunner().invoke(app, ["check", "innocent.yaml", "good.yaml"])
+    assert "innocent.yaml:1:1: the design links outside its repository (.); it is not read" \
+        in result.output.splitlines()
+    assert "1 design(s) linted, 1 could not be read" in result.output
+
+
+def test_the_hook_mode_does_not_read_a_link_to_an_endless_device(tmp_path, monkeypatch):
+    # pre-commit passes every changed YAML file; --designs-only peeks into each to skip libraries
+    repo = _repo_with_good(tmp_path)
+    _link(repo / "endless.yaml", "/dev/zero")
+    _fifo(repo / "pipe.yaml")
+    monkeypatch.chdir(repo)
+    proc = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", "--designs-only",
+                           "endless.yaml", "pipe.yaml", "parts/orchard-parts.yaml", "good.yaml"],
+                          capture_output=True, text=True, encoding="utf-8", timeout=120)
+    assert proc.returncode == 2
+    assert "endless.yaml:1:1: the design links outside its repository (.); it is not read" \
+        in proc.stdout.splitlines()
+    assert "pipe.yaml:1:1: is a FIFO (named pipe), not a regular file; only regular files are " \
+           "read" in proc.stdout.splitlines()
+    assert "1 design(s) linted, 2 could not be read" in proc.stdout
+
+
+def test_a_library_that_is_a_pipe_is_refused_at_the_design_line(tmp_path, monkeypatch, registry):
+    repo = _repo_with_good(tmp_path)
+    _fifo(repo / "parts" / "pipe.yaml")
+    design = example_with_libraries("[parts/pipe.yaml]")
+    (repo / "design.yaml").write_text(design, encoding="utf-8")
+    monkeypatch.chdir(repo)
+    run = lint(["design.yaml", "good.yaml"], registry=registry)
+    line, col = line_col(design, "[parts/pipe.yaml]")
+    assert [str(e) for e in run.designs[0].errors] == [
+        f"design.yaml:{line}:{col + 1}: library 'parts/pipe.yaml' is a FIFO (named pipe), not a "
+        f"regular file; only regular files are read"]
+    assert_good_linted(run, "good.yaml")
+
+
+@pytest.mark.parametrize("pyproject", [
+    '[ tool.packwarden ]\nselect = ["unknown-part"]\n',
+    '[tool."packwarden"]\nselect = ["unknown-part"]\n',
+    "[tool . 'packwarden']\nselect = ['unknown-part']\n",
+    '[tool]\npackwarden.select = ["unknown-part"]\n',
+    '[tool]\npackwarden = { select = ["unknown-part"] }\n',
+    '[project]\nname = "x"\n\n[tool.black]\nline-length = 99\n\n[tool . packwarden]\n'
+    'select = ["unknown-part"]\n',
+], ids=["spaces", "quoted", "single-quoted", "dotted-key", "inline-table", "after-other-tools"])
+def test_the_config_table_is_found_however_toml_spells_it(tmp_path, pyproject, registry):
+    # [published: TOML 1.0, "Table" and "Keys": whitespace around dots and quoted keys name the
+    # same table, and dotted keys define tables too]
+    repo = tmp_path / "repo"
+    shutil.copytree(REPO / "example_designs", repo)
+    (repo / "pyproject.toml").write_text(pyproject, encoding="utf-8")
+    run = lint([str(repo / "flawed" / "no-fuse.yaml")], registry=registry)
+    (design,) = run.designs
+    assert design.errors == []
+    assert design.checked == ["unknown-part"]  # the table's select is applied
+    assert run.exit_code() == 0
+
+
+def test_a_config_policy_path_with_a_nul_is_a_located_error(tmp_path, monkeypatch):
+    repo = _repo_with_good(tmp_path)
+    (repo / "packwarden.toml").write_text('fail_on = "warning"\npolicy = "team\\u0000.yaml"\n',
+                                          encoding="utf-8")
+    monkeypatch.chdir(repo)
+    result = CliRunner().invoke(app, ["check", "good.yaml"])
+    assert result.exit_code == 2
+    assert ("packwarden.toml:2:1: 'policy': the path holds the control character U+0000; name the "
+            "file with printable characters") in result.output.splitlines()
+    assert "internal error in" not in result.output and "Traceback" not in result.output
+
+
+def test_a_deeply_nested_baseline_is_bad_input_not_a_crash(tmp_path, monkeypatch):
+    repo = _repo_with_good(tmp_path)
+    deep = '{"format": "packwarden-baseline/1", "findings": [' + "[" * 50_000 + "]" * 50_000 + "]}"
+    (repo / "deep.json").write_text(deep, encoding="utf-8")
+    # brackets inside strings are text, not nesting
+    (repo / "brackets.json").write_text(json.dumps(
+        {"format": "packwarden-baseline/1", "findings": [], "note": "[" * 100}), encoding="utf-8")
+    _fifo(repo / "pipe.json")
+    monkeypatch.chdir(repo)
+    for name, line in (("deep.json", "deep.json:1:64: baseline nests deeper than 16 levels; a "
+                                     "baseline is a list of flat findings"),
+                       ("pipe.json", "pipe.json:1:1: baseline file cannot be read: is a FIFO "
+                                     "(named pipe), not a regular file; only regular files are "
+                                     "read")):
+        proc = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", "--baseline",
+                               name, "good.yaml"], capture_output=True, text=True,
+                              encoding="utf-8", timeout=120)
+        assert proc.returncode == 2, name
+        assert line in proc.stdout.splitlines()
+        assert "Traceback" not in proc.stdout + proc.stderr
+    proc = subprocess.run([sys.executable, "-m", "packwarden.cli", "check", "--baseline",
+                           "brackets.json", "good.yaml"], capture_output=True, text=True,
+                          encoding="utf-8", timeout=120)
+    assert proc.returncode == 0, proc.stdout
+
+
+def test_control_characters_from_a_design_reach_no_report_raw(tmp_path, monkeypatch):
+    # A net, a design name, a revision and a waiver reason carrying terminal escapes (ESC, BEL,
+    # the C1 CSI 0x9b) and a right-to-left override: findings quote nets, reports the rest.
+    repo = _repo_with_good(tmp_path)
+    text = GOOD.read_text(encoding="utf-8")
+    text = text.replace("design: {name: Orchard soil probe, revision: C}",
+                        'design: {name: "Orchard \\e]0;owned\\a probe", revision: "C\\x9b2J", '
+                        'description: "rev \\u202e C"}')
+    text = text.replace("  F1: {part: OR-FUSE-12A, pins: [B+, P+]}",
+                        '  F1: {part: OR-FUSE-12A, pins: [B+, P+]}\n'
+                        '  R9: {kind: resistor, value: 1 kΩ, pins: [B+, "\\e[31mLOOSE\\e[0m"]}')
+    text += ('waivers:\n  - {rule: single-connection-net, element: R9, reason: "bench \\e[8m '
+             'hidden", expires: 2999-01-01}\n')
+    (repo / "escapes.yaml").write_text(text, encoding="utf-8")
+    monkeypatch.chdir(repo)
+    raw = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\u202a-\u202e\u2066-\u2069]")
+    for fmt in ("text", "json", "sarif", "junit", "markdown", "html"):
+        result = CliRunner().invoke(app, ["check", "--format", fmt, "escapes.yaml"])
+        assert result.exit_code == 0, (fmt, result.output)
+        assert raw.findall(result.output) == [], fmt
+    result = CliRunner().invoke(app, ["check", "--format", "json", "escapes.yaml"])
+    (design,) = json.loads(result.output)["designs"]
+    assert design["name"] == "Orchard \\x1b]0;owned\\x07 probe"
+    (finding,) = [f for f in design["findings"] if f["rule"] == "single-connection-net"]
+    assert finding["message"] == "net '\\x1b[31mLOOSE\\x1b[0m' connects only R9.2"
+    assert finding["waived"] == "bench \\x1b[8m hidden"
+
+
+def test_terminals_that_bypass_the_sense_pins_are_a_located_error(tmp_path, monkeypatch, registry):
+    # Pack terminals named at the cell: the load current never crosses the switches, so the
+    # protector's sense and ground pins see 0 V and no current trips it; the model says where.
+    repo = _repo_with_good(tmp_path)
+    text = GOOD.read_text(encoding="utf-8").replace(
+        "  ambient: {min: -20 °C, max: 55 °C}",
+        "  ambient: {min: -20 °C, max: 55 °C}\n  terminals: {pos: B+, neg: B-}")
+    (repo / "bypass.yaml").write_text(text, encoding="utf-8")
+    monkeypatch.chdir(repo)
+    run = lint(["bypass.yaml", "good.yaml"], registry=registry)
+    bad = run.designs[0]
+    line, col = line_col(text, "VM, discharge_gate")  # the value of pins.sense
+    assert [str(e) for e in bad.errors] == [
+        f"bypass.yaml:{line}:{col}: U1: the load current sets up no voltage between its sense "
+        f"and ground pins, so no current trips its detection; put the switches or a shunt "
+        f"between them, in the path of the load current"]
+    assert bad.internal == []
+    assert run.exit_code() == 2
+    assert_good_linted(run, "good.yaml")
+
+
+def test_a_broken_pyproject_naming_packwarden_is_reported_not_skipped(tmp_path, monkeypatch):
+    # Unparsable TOML cannot say whether it holds the table; when it names packwarden at all, its
+    # syntax error is the run's (exit 2) rather than the team's gates silently dropped.
+    repo = tmp_path / "repo"
+    shutil.copytree(REPO / "example_designs", repo)
+    (repo / "pyproject.toml").write_text('[tool.packwarden\nselect = ["unknown-part"]\n',
+                                         encoding="utf-8")
+    monkeypatch.chdir(repo)
+    result = CliRunner().invoke(app, ["check", "orchard-probe.yaml"])
+    assert result.exit_code == 2
+    assert any(line.startswith("pyproject.toml:1:") and ": TOML syntax error: " in line
+               for line in result.output.splitlines()), result.output
+    # a broken pyproject.toml that is no business of ours is passed over, as before
+    (repo / "pyproject.toml").write_text("[tool.other\n", encoding="utf-8")
+    result = CliRunner().invoke(app, ["check", "orchard-probe.yaml"])
+    assert result.exit_code == 0, result.output
+
+
+def test_a_designs_folder_linking_to_another_repository_is_not_read(tmp_path, monkeypatch,
+                                                                    registry):
+    # `designs -> ../other`: the other checkout has its own markers, but the path names a folder
+    # of this repository; the files behind the link are refused, the named good design linted.
+    repo = _repo_with_good(tmp_path)
+    other = make_repo(tmp_path / "other")
+    (other / "stolen.yaml").write_text(GOOD.read_text(encoding="utf-8").replace(
+        "continuous: 1.2 A", "continuous: secret-token-7f3a"), encoding="utf-8")
+    _link(repo / "designs", other)
+    monkeypatch.chdir(repo)
+    run = lint(["designs", "good.yaml"], registry=registry)
+    assert [str(e) for d in run.designs for e in d.errors] == [
+        "designs/stolen.yaml:1:1: the design links outside its repository (.); it is not read"]
+    assert "secret-token" not in text_of(run)
+    assert_good_linted(run, "good.yaml")

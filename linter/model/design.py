@@ -21,7 +21,7 @@ from .limits import Limits
 from .network import Network, NetworkError
 from .path import OperatingPoint, PowerPath
 from .topology import CellLimits, CellStack, SwitchChannel, Topology
-from .values import IDEAL, ModelProblem, Span, corner_value, spread_low
+from .values import IDEAL, DesignMistake, ModelProblem, Span, corner_value, spread_low
 
 __all__ = ["DesignModel", "TripWindow", "Span", "ModelProblem", "OperatingPoint", "CellLimits",
            "CellStack", "SwitchChannel", "spread_low"]
@@ -247,6 +247,13 @@ class DesignModel:
         at_min = self.operating_point(cont, a.max, gd.min, "max", self_heating=True)
         at_max = self.operating_point(0.0, a.min, gd.max, "min", self_heating=False)
         at_typ = self.operating_point(0.0, 25.0, gd.typ, "typ", self_heating=False)
+        if not min(at_min.sense_resistance, at_max.sense_resistance,
+                   at_typ.sense_resistance) > 0.0:
+            p = self.protector
+            raise DesignMistake(p.path + ("pins", "sense"), (
+                f"{p.refdes}: the load current sets up no voltage between its sense and ground "
+                f"pins, so no current trips its detection; put the switches or a shunt between "
+                f"them, in the path of the load current"))
         return TripWindow(Span.of(detect), at_min, at_max, at_typ)
 
     @cached_property

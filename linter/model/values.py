@@ -16,7 +16,7 @@ from typing import Any, Literal
 
 from ..records import record
 
-__all__ = ["Span", "Corner", "CORNERS", "ModelProblem", "IDEAL", "SIGNAL_OHMS", "PROBE_LOAD",
+__all__ = ["Span", "Corner", "CORNERS", "ModelProblem", "DesignMistake", "IDEAL", "SIGNAL_OHMS", "PROBE_LOAD",
            "UPPER_LIMIT_MARGIN", "spread_low", "memo_key", "corner_value"]
 
 #: A corner of a part's spread: its minimum, typical or maximum value.
@@ -60,6 +60,15 @@ class Span:
 
     def at(self, corner: Corner) -> float:
         return {"min": self.min, "typ": self.typ, "max": self.max}[corner]
+
+
+class DesignMistake(ValueError):
+    """Nonsense the model meets in a design, at ``path`` (a YAML path of the design file): the
+    engine reports it as an input error on that line, never as an internal error."""
+
+    def __init__(self, path: tuple, message: str) -> None:
+        super().__init__(message)
+        self.path, self.message = tuple(path), message
 
 
 @record

@@ -14,11 +14,12 @@ from typing import Any, Callable
 
 from ..records import record
 # Shared by every format; they import it from .common, never from this package (no cycle).
-from .common import RenderOptions, figure_text, relative_path, report_root, source_root
+from .common import (RenderOptions, absolute, figure_text, relative_path, report_root,
+                     source_root)
 
 __all__ = ["FORMAT_GROUP", "DEFAULT_FORMAT", "FormatUnavailable", "FormatRegistry", "load_formats",
-           "formatter", "RenderOptions", "figure_text", "relative_path", "report_root",
-           "source_root"]
+           "formatter", "RenderOptions", "absolute", "figure_text", "relative_path",
+           "report_root", "source_root"]
 
 FORMAT_GROUP = "packwarden.formats"
 DEFAULT_FORMAT = "text"

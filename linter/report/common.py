@@ -7,7 +7,8 @@ from typing import Any
 
 from ..records import record
 
-__all__ = ["RenderOptions", "figure_text", "source_root", "report_root", "relative_path"]
+__all__ = ["RenderOptions", "figure_text", "source_root", "report_root", "relative_path",
+           "absolute"]
 
 
 @record(frozen=True)
@@ -51,12 +52,19 @@ def report_root(run: Any, opts: RenderOptions) -> Path:
     if opts.repo_root:
         return Path(opts.repo_root).resolve()
     files = [d.file for d in run.designs] + [e.file for e in run.input_errors()]
-    return source_root(Path(files[0]).resolve().parent if files else Path.cwd())
+    return source_root(absolute(files[0]).parent if files else Path.cwd())
+
+
+def absolute(file: str) -> Path:
+    """``file`` as an absolute path, its folders resolved but not the file's own link: a design
+    refused for linking out of its repository has its target named nowhere."""
+    path = Path(file)
+    return path.parent.resolve() / path.name
 
 
 def relative_path(file: str, root: Path) -> str | None:
     """``file`` relative to ``root`` in POSIX form, or None when it lies outside."""
     try:
-        return Path(file).resolve().relative_to(root).as_posix()
+        return absolute(file).relative_to(root).as_posix()
     except ValueError:
         return None

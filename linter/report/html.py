@@ -17,6 +17,7 @@ from jinja2 import Environment, PackageLoader, StrictUndefined
 from .. import __version__
 from ..api import Severity
 from ..figures import ENDS, rows
+from ..loader import printable
 from ..quantities import format_quantity
 from ..results import DesignResult, RunResult
 from .common import RenderOptions, figure_text
@@ -132,7 +133,9 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
     info = design.design if design is not None else None
     view = DesignView(
         anchor=f"design-{k}", file=d.file, name=d.name or d.file,
-        revision=info.revision if info else None, description=info.description if info else None,
+        # free text of the design: shown, never acted on (a terminal escape stays visible text)
+        revision=printable(info.revision) if info and info.revision else None,
+        description=printable(info.description, keep="\n") if info and info.description else None,
         counts=counts, waived=waived, findings=findings,
         errors=[str(e) for e in d.errors],
         internal=[f"internal error in '{i.rule}': {i.message}" for i in d.internal],

@@ -37,7 +37,7 @@ from typing import Any
 from .. import __version__
 from ..api import Finding, Rule, Severity
 from ..results import RunResult
-from .common import RenderOptions, relative_path, report_root
+from .common import RenderOptions, absolute, relative_path, report_root
 from .text import CAUTION
 
 SCHEMA_URI = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json"
@@ -184,7 +184,7 @@ def _rule_descriptors(run: RunResult, comparison: Any) -> tuple[list[dict], dict
 def _artifact(file: str, root: Path) -> dict[str, Any]:
     rel = relative_path(file, root)
     if rel is None:  # outside the checkout: an absolute URI, no base
-        return {"uri": Path(file).resolve().as_uri()}
+        return {"uri": absolute(file).as_uri()}
     return {"uri": rel or ".", "uriBaseId": SRCROOT}
 
 

@@ -49,7 +49,7 @@ parts:
       - {{vgs: 2.0 V, typ: {rds}, max: {rds}}}
       - {{vgs: 4.5 V, typ: {rds}, max: {rds}}}
     rds_on_hot_ratio: {{at: 125 °C, ratio: {ratio}}}
-    id_max: 100 A
+    id_max: {id_max}
     id_pulse_max: {pulse}
     theta_ja: {theta}
 {fet_extra}"""
@@ -68,7 +68,8 @@ components:
 {extra}"""
 
 DEFAULTS = dict(cell_r="30 mΩ", sc_release="[load_removal]", vds_max="20 V", rds="25 mΩ",
-                ratio="1.5", pulse="500 A", theta="83 K/W", fet_extra="", hot="40 °C",
+                ratio="1.5", pulse="500 A", id_max="100 A", theta="83 K/W", fet_extra="",
+                hot="40 °C",
                 pack_extra="", load="0.5 A", s2="P-", fuse_a="B+", extra="")
 
 
@@ -193,7 +194,7 @@ def test_i2t_vector_through_the_rule(tmp_path):
     # definition]; 40 A for 540 µs -> 0.86 A²s. 4.2 V over 75 mΩ + 2 × 15 mΩ = 40 A, ended by the
     # short-circuit detection (trip max 0.6 V / 30 mΩ = 20 A) after its longest delay, 540 µs.
     findings = _findings(tmp_path, "short-circuit-stress", cell_r="75 mΩ", rds="15 mΩ",
-                         pulse="30 A")
+                         pulse="30 A", id_max="30 A")  # a pulse rating is at least I_D
     assert len(findings) == 2  # both channels carry the whole short
     for f in findings:
         assert _figure(f, "channel current") == pytest.approx(40.0, rel=1e-4)
