@@ -87,6 +87,23 @@ def accelerated_step(t: np.ndarray, target: np.ndarray, previous: tuple | None,
     return np.where(good, secant, plain)
 
 
+def _minimum_degree(nodes: set[int], adj: Mapping[int, set[int]], ground: int) -> list[int]:
+    """An elimination order of ``nodes``: each time the node with the fewest neighbours left (the
+    ground and nodes already eliminated do not count; eliminating a node joins its neighbours),
+    ties by index so the order is fixed."""
+    graph = {i: {j for j in adj.get(i, ()) if j != i and j != ground} for i in adj}
+    left, order = set(nodes), []
+    while left:
+        k = min(left, key=lambda i: (len(graph.get(i, ())), i))
+        order.append(k)
+        left.discard(k)
+        near = graph.pop(k, set())
+        for i in near:
+            graph[i].discard(k)
+            graph[i] |= near - {i}
+    return order
+
+
 class LinearPath:
     """A network compiled for batch solves: the nodes joined to ``ground`` by its linear branches
     (resistors, sources, on switches), each branch a conductance and an EMF that a batch may
@@ -119,8 +136,10 @@ class LinearPath:
                     todo.append(j)
         kept = set(seen) if keep is None else {index[k] for k in keep if k in index} & seen
         # Eliminated nodes first, kept nodes last: elimination of the first block leaves the
-        # Schur complement in the last.
-        order = sorted(i for i in seen if i != ig and i not in kept) + sorted(
+        # Schur complement in the last. The first block goes in minimum-degree order, worked out
+        # once on the graph, which keeps fill small on the ladder-like graph of a big pack (as
+        # the scalar solver orders its own elimination).
+        order = _minimum_degree({i for i in seen if i != ig and i not in kept}, adj, ig) + sorted(
             i for i in seen if i != ig and i in kept)
         self.nets = dict(index)
         self.position = {i: k for k, i in enumerate(order)}
