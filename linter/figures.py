@@ -88,6 +88,10 @@ class UndeclaredFigure(KeyError):
 class KeyFigure:
     """One figure of one design: its declaration and its value, unrounded."""
 
+    # A batch keeps every design's figures: slots keep each one small, and a worker sends the
+    # figure's name, not its declaration, back to the parent process.
+    __slots__ = ("declared", "value")
+
     declared: Declared
     #: an int for a count, else a float in the declared SI unit; None, or not finite, when the
     #: design gives no way to compute it (an open sense path, a switch that runs away)
@@ -101,10 +105,18 @@ class KeyFigure:
     def unit(self) -> str:
         return self.declared.unit
 
+    def __reduce__(self):
+        return _key_figure, (self.declared.name, self.value)
+
     @property
     def known(self) -> bool:
         v = self.value
         return v is not None and not isinstance(v, bool) and math.isfinite(v)
+
+
+def _key_figure(name: str, value: Any) -> KeyFigure:
+    """A pickled key figure, back with the one declaration of its name."""
+    return KeyFigure(DECLARED[name], value)
 
 
 def typed(values: Iterable[tuple[str, Any]]) -> dict[str, KeyFigure]:
