@@ -54,7 +54,7 @@ def check(ctx, options):
             f"{fq(b.cutoff_voltage, 'V')}: the pack is cut off from the day it ships{assumed}",
             path=("storage", "soc"), element=element, key="below-cutoff", figures=figures,
             hint=f"store at a state of charge well above {first.end_soc * 100:.2g} % "
-                 f"(REFERENCES.md: about 40 % is the usual shelf charge)")
+                 f"(docs/references.md: about 40 % is the usual shelf charge)")
         return
     if b.duration <= first.months:
         return

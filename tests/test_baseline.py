@@ -3,7 +3,7 @@ git; only new findings are reported and counted.
 
 The designs are the example designs; their findings are the ones the rule cases and the examples'
 FLAW comments describe (e.g. trip-below-load: a 2.5 A continuous load above the 1.58 A minimum
-trip) [derived: the worked trip-current example of REFERENCES.md, detection voltage over twice the
+trip) [derived: the worked trip-current example of docs/references.md, detection voltage over twice the
 per-FET on-resistance, at the hot, low-gate-drive corner]. Git is used only through its ordinary
 command line, in temporary repositories.
 """

@@ -73,7 +73,7 @@ def test_the_generated_cases_pass_against_the_generated_rule(tmp_path: Path) -> 
     [double] = fired["two FET pairs in parallel trip too high"]
     [single] = fired["a lower max_trip fails the passing design"]
     # Two identical pairs in parallel halve the sense resistance and double the trip current
-    # [practice: protector application notes, REFERENCES.md "Worked example"].
+    # [practice: protector application notes, docs/references.md "Worked example"].
     trip_one, trip_two = single.figures[0].value, double.figures[0].value
     assert trip_two == pytest.approx(2 * trip_one, rel=0.02)
     assert 5.0 < trip_one < 10.0 < trip_two

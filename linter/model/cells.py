@@ -7,7 +7,7 @@ carries a tag saying how far it can be trusted, so a finding built on one can sa
 * ``[memory]`` recalled, not checked against a document;
 * ``[published]`` a standard, handbook or open dataset.
 
-The ranges these values were picked from are in REFERENCES.md, "Cell voltage windows". Where the
+The ranges these values were picked from are in docs/references.md, "Cell voltage windows". Where the
 table gives a range, the value picked and the reason are beside it. Voltages are per cell, in volts.
 """
 
@@ -66,12 +66,12 @@ class CellWindow:
         raise KeyError(f"no voltage field {field!r}; fields are {', '.join(_VOLTAGE_FIELDS)}")
 
 
-# The LiCoO2 / NMC / NCA row of REFERENCES.md shares one charge voltage and the same "typical cell
+# The LiCoO2 / NMC / NCA row of docs/references.md shares one charge voltage and the same "typical cell
 # data sheet" limits: 4.5 V a charger must never exceed and 2.0 V never to discharge below.
-_CHARGE_42 = ("charge", "[practice] 4.20 V, REFERENCES.md cell-window table")
+_CHARGE_42 = ("charge", "[practice] 4.20 V, docs/references.md cell-window table")
 _OVER_45 = ("overcharge_limit",
             "[practice] 4.5 V: a typical cell data sheet says a charger must never exceed 4.5 V "
-            "per cell even when faulty (REFERENCES.md). Not the 4.25 V upper-limit charging "
+            "per cell even when faulty (docs/references.md). Not the 4.25 V upper-limit charging "
             "voltage of IEC 62133-2 summaries, which protector overcharge detection (4.25-4.35 V) "
             "sits above")
 _LOWER_20 = ("lower_limit",
@@ -107,9 +107,9 @@ _WINDOWS = (
             ("charge", "[practice] table gives 3.60-3.65 V; the upper end, since a default that "
                        "is too low would flag a correct 3.65 V charger"),
             ("nominal", "[practice] table gives 3.2-3.3 V; 3.2 V is the common rating"),
-            ("cutoff", "[practice] 2.5 V, REFERENCES.md cell-window table"),
+            ("cutoff", "[practice] 2.5 V, docs/references.md cell-window table"),
             ("overcharge_limit", "[memory] 3.9 V: LiFePO4 protectors detect overcharge at about "
-                                 "3.75-3.9 V; no REFERENCES.md value, get the cell data sheet"),
+                                 "3.75-3.9 V; no docs/references.md value, get the cell data sheet"),
             ("lower_limit", "[practice] 2.0 V, the table's cold-discharge cut-off")),
     ),
     CellWindow(
@@ -117,7 +117,7 @@ _WINDOWS = (
         sources=(
             _CHARGE_42,
             ("nominal", "[memory] table gives 3.7-3.8 V"),
-            ("cutoff", "[practice] 3.0 V, REFERENCES.md cell-window table"),
+            ("cutoff", "[practice] 3.0 V, docs/references.md cell-window table"),
             ("overcharge_limit", _OVER_45[1] + "; assumed to apply to 4.2 V LiMn2O4 cells too"),
             ("lower_limit", _LOWER_20[1] + "; assumed to apply to 4.2 V LiMn2O4 cells too")),
     ),
@@ -128,7 +128,7 @@ _WINDOWS = (
             ("nominal", "[memory] table gives 2.3-2.4 V"),
             ("cutoff", "[practice] table gives 1.5-1.8 V; the upper end, keeping the lower end "
                        "as the never-below limit"),
-            ("overcharge_limit", "[memory] 3.0 V; no REFERENCES.md value, get the cell data "
+            ("overcharge_limit", "[memory] 3.0 V; no docs/references.md value, get the cell data "
                                  "sheet"),
             ("lower_limit", "[practice] 1.5 V, the low end of the table's cut-off range")),
     ),

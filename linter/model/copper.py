@@ -24,7 +24,7 @@ RESISTIVITY_20C = 1.0 / 58.0 * 1e-6
 #: Temperature coefficient of resistance at 20 °C, per kelvin (IEC 60028 [published]).
 ALPHA_20C = 0.00393
 #: 1 oz/ft² copper foil is about 35 µm thick [practice]. Mass over density gives about 34 µm
-#: [derived]; the trade rounds to 35 µm (1.378 mil) and the IPC-2221 vectors in REFERENCES.md use
+#: [derived]; the trade rounds to 35 µm (1.378 mil) and the IPC-2221 vectors in docs/references.md use
 #: that.
 OZ_THICKNESS = 35e-6
 #: One mil, a thousandth of an inch, in metres (exact by the definition of the inch [published]).
@@ -38,7 +38,7 @@ _IPC_K = {"outer": 0.048, "inner": 0.024}
 _IPC_B = 0.44
 _IPC_C = 0.725
 
-# Usually quoted validity of the IPC-2221 curves [memory]; REFERENCES.md, "Conductor current
+# Usually quoted validity of the IPC-2221 curves [memory]; docs/references.md, "Conductor current
 # capacity". Outside them the formula still returns a number, hence flags rather than exceptions.
 _IPC_MAX_CURRENT = {"outer": 35.0, "inner": 17.5}
 _IPC_DT_RANGE = (10.0, 100.0)

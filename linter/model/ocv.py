@@ -3,7 +3,7 @@
 State of charge (SoC) is a fraction 0..1 everywhere in this module, never a percentage; passing
 44 for 44 % is refused rather than read as 4400 %. Capacity is in ampere-hours (Ah), currents in
 amperes, voltages in volts per cell, time in months of 730 hours (8760 h / 12, the month the
-REFERENCES.md shelf-life vector uses). Tables are at 25 °C, at rest: a cell under load or freshly
+docs/references.md shelf-life vector uses). Tables are at 25 °C, at rest: a cell under load or freshly
 unloaded reads lower, and OCV depends on temperature and history (LiFePO4 shows hysteresis).
 """
 
@@ -22,7 +22,7 @@ __all__ = [
     "ShelfLife", "shelf_life", "self_discharge_at",
 ]
 
-#: Hours in an average month, 8760 h / 12 [derived]; the REFERENCES.md vector (3 µA -> 2.19 mAh
+#: Hours in an average month, 8760 h / 12 [derived]; the docs/references.md vector (3 µA -> 2.19 mAh
 #: per month) reproduces only with this value.
 HOURS_PER_MONTH = 730.0
 
@@ -62,8 +62,8 @@ class OcvTable:
         _check_points(self.points, self.name)
 
 
-# NMC cylindrical cell, 25 °C [published: open dataset, REFERENCES.md "Storage and self-discharge",
-# file LUT.h; SoC given there in percent]. The eleven REFERENCES.md points, plus six more read from
+# NMC cylindrical cell, 25 °C [published: open dataset, docs/references.md "Storage and self-discharge",
+# file LUT.h; SoC given there in percent]. The eleven docs/references.md points, plus six more read from
 # the same file where the curve bends (below 10 %, near 84 % and 98 %), since linear interpolation
 # across those bends would be tens of millivolts off.
 _NMC = tuple((pct / 100.0, v) for pct, v in (
@@ -72,8 +72,8 @@ _NMC = tuple((pct / 100.0, v) for pct, v in (
     (80.0, 4.037), (84.0, 4.069), (90.2, 4.091), (98.0, 4.138), (100.0, 4.175)))
 
 # LiFePO4 cylindrical cell, pseudo-OCV at C/32, room temperature [published: open dataset,
-# REFERENCES.md "Storage and self-discharge", README table]. All ten breakpoints of the dataset's
-# table at its four-decimal precision; REFERENCES.md quotes six of them rounded.
+# docs/references.md "Storage and self-discharge", README table]. All ten breakpoints of the dataset's
+# table at its four-decimal precision; docs/references.md quotes six of them rounded.
 _LFP = (
     (0.0, 2.0102), (0.0033, 2.4177), (0.0117, 2.7405), (0.0267, 2.9299), (0.0534, 3.0872),
     (0.0885, 3.1942), (0.2972, 3.2772), (0.9833, 3.3511), (0.9950, 3.4180), (1.0, 3.5981))
@@ -84,14 +84,14 @@ def _window_curve(chem: str) -> tuple[tuple[float, float], ...]:
     return ((0.0, w.cutoff), (0.5, w.nominal), (1.0, w.charge))
 
 
-_NMC_SRC = "[published] open NMC cylindrical-cell dataset (REFERENCES.md)"
+_NMC_SRC = "[published] open NMC cylindrical-cell dataset (docs/references.md)"
 _TABLES = (
     OcvTable("nmc", _NMC, _NMC_SRC),
     # No open LiCoO2 or NCA table was gathered; their curves are close to NMC over 3.4-4.2 V
     # [practice] but differ near empty, so a cell's own table should be preferred.
     OcvTable("lco", _NMC, "[practice] NMC dataset used as an approximation for LiCoO2"),
     OcvTable("nca", _NMC, "[practice] NMC dataset used as an approximation for NCA"),
-    OcvTable("lfp", _LFP, "[published] open LiFePO4 cylindrical-cell dataset (REFERENCES.md)"),
+    OcvTable("lfp", _LFP, "[published] open LiFePO4 cylindrical-cell dataset (docs/references.md)"),
     # Three-point stand-ins: cut-off at empty, nominal at half, charge voltage at full, from the
     # cell-window defaults in cells.py. Good for a rough SoC, not for a cut-off decision.
     OcvTable("lmo", _window_curve("lmo"),
@@ -177,7 +177,7 @@ def shelf_life(capacity_ah: float, start_soc: float, self_discharge_pct_per_mont
 
     Losses: self-discharge at ``self_discharge_pct_per_month`` plus constant drain currents
     (protector supply, leakage), in amperes. With ``basis='capacity'`` (the default, which is how
-    the REFERENCES.md vector is worked) self-discharge is that percentage of the rated capacity
+    the docs/references.md vector is worked) self-discharge is that percentage of the rated capacity
     every month, a constant rate. With ``basis='remaining'`` it is that percentage of the charge
     left, which falls as the cell empties and so gives a longer life.
 
@@ -225,7 +225,7 @@ def shelf_life(capacity_ah: float, start_soc: float, self_discharge_pct_per_mont
 def self_discharge_at(rate_pct_per_month: float, temp: float, reference: float = 25.0) -> float:
     """Self-discharge rate at ``temp`` °C from one at ``reference`` °C, doubling every 10 K.
 
-    The doubling is a rule of thumb [practice; REFERENCES.md notes sources disagree widely].
+    The doubling is a rule of thumb [practice; docs/references.md notes sources disagree widely].
     """
     if rate_pct_per_month < 0.0 or not math.isfinite(rate_pct_per_month):
         raise ValueError("rate_pct_per_month must be finite and >= 0")

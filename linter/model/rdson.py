@@ -24,7 +24,7 @@ Point = tuple[float, Optional[float], Optional[float]]
 #: Data-sheet R_DS(on) tables are specified at this junction temperature [practice].
 TABLE_TEMP = 25.0
 #: R_DS(on) at 125 °C over its 25 °C value where a part gives no ratio, and that temperature
-#: [practice: 1.4-1.6 for 20 V parts, REFERENCES.md "MOSFETs"].
+#: [practice: 1.4-1.6 for 20 V parts, docs/references.md "MOSFETs"].
 DEFAULT_HOT_RATIO = (1.5, 125.0)
 
 
@@ -65,7 +65,7 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
 
     ``points`` are ``(vgs, typ, max)`` rows at 25 °C with ``typ`` or ``max`` possibly None.
     ``hot_ratio`` is R_DS(on) at ``hot_at`` °C over R_DS(on) at 25 °C, read off the data sheet's
-    normalised curve (REFERENCES.md gives 1.4-1.6 from 25 to 125 °C for 20 V parts [practice]).
+    normalised curve (docs/references.md gives 1.4-1.6 from 25 to 125 °C for 20 V parts [practice]).
 
     Gate voltage: linear between rows. Above the highest row the highest row's value is kept: more
     gate drive never raises R_DS(on) of an enhancement MOSFET [practice], so holding the last value

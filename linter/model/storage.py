@@ -5,7 +5,7 @@ supply current, the leakage of the switch FETs, every resistive path the netlist
 cell (dividers, pull-ups, bleeders, LEDs that the cells can light) and their own self-discharge.
 After the cut-off the protector sits at its power-down current, the discharge switches are off,
 and whatever paths do not run through them keep draining, on towards the cell's ``lower_limit``,
-below which the cell maker no longer vouches for it (copper dissolves, REFERENCES.md
+below which the cell maker no longer vouches for it (copper dissolves, docs/references.md
 "Storage and self-discharge").
 
 The resistive paths come from the same nodal solver as the power path: the cells as sources at
@@ -35,7 +35,7 @@ if TYPE_CHECKING:  # pragma: no cover
 __all__ = ["DEFAULT_SELF_DISCHARGE", "Drain", "StoragePhase", "StorageBudget", "storage_budget",
            "level_drains"]
 
-#: Self-discharge when the cell data sheet gives none, %/month at 25 °C [practice: REFERENCES.md
+#: Self-discharge when the cell data sheet gives none, %/month at 25 °C [practice: docs/references.md
 #: gives about 1-2 %/month after the first day, sources ranging 0.35-8 %; the upper end of the
 #: usual range, so a shelf life built on it errs short].
 DEFAULT_SELF_DISCHARGE = 2.0
@@ -157,7 +157,7 @@ def storage_budget(m: "DesignModel") -> StorageBudget | None:
         after = _phase(m, table, soc_cut, soc_low, v_cut, limits.lower_limit, rate, power_down,
                        off=frozenset({"discharge"}))
     # Self-discharge is a constant share of rated capacity per month (shelf_life's "capacity"
-    # basis), as the REFERENCES.md shelf-life vector is worked; said in the rule's rationale.
+    # basis), as the docs/references.md shelf-life vector is worked; said in the rule's rationale.
     return StorageBudget(start, st.duration, st.temperature, table, rate, before, after, v_cut,
                          limits.lower_limit, tuple(dict.fromkeys(notes)))
 

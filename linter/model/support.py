@@ -6,7 +6,7 @@ whether it survives a fault:
 * the supply filter (a resistor from the cell's positive terminal to the ``supply`` pin and a
   capacitor from ``supply`` to ground) carries the protector's supply current, and on a single-cell
   protector, which measures the cell at its supply pin, that current times the resistance moves
-  every voltage threshold [practice: REFERENCES.md "Single-cell protector"];
+  every voltage threshold [practice: docs/references.md "Single-cell protector"];
 * the sense-pin resistor (``sense`` to a pack terminal) is what limits the current into the sense
   pin when a charger is connected the wrong way round, with the charger's open-circuit voltage plus
   the stack across it;
@@ -34,11 +34,11 @@ __all__ = ["DEFAULT_SUPPLY_R", "DEFAULT_SUPPLY_C", "DEFAULT_SENSE_R", "SupplyFil
            "SenseResistor", "Stress", "supply_filter", "sense_resistor", "capacitor_stress",
            "resistor_stress", "scenarios"]
 
-#: Supply filter ranges when the protector's data gives none [practice: REFERENCES.md
+#: Supply filter ranges when the protector's data gives none [practice: docs/references.md
 #: "Single-cell protector": R 300 Ω-1 kΩ (470 Ω typical), C 0.022-1 µF (0.1 µF typical)].
 DEFAULT_SUPPLY_R = (300.0, 1000.0)
 DEFAULT_SUPPLY_C = (22e-9, 1e-6)
-#: Sense-pin resistor range [practice: REFERENCES.md "Single-cell protector", 300 Ω-4 kΩ, 2 kΩ
+#: Sense-pin resistor range [practice: docs/references.md "Single-cell protector", 300 Ω-4 kΩ, 2 kΩ
 #: typical]: below it a reversed charger overloads the pin, above it the charger- and
 #: load-detection currents of the pin shift its thresholds.
 DEFAULT_SENSE_R = (300.0, 4000.0)
@@ -135,7 +135,7 @@ def sense_resistor(m: "DesignModel") -> SenseResistor | None:
     ch, sv = m.design.charger, m.stack_voltage
     voltage = current = power = None
     if ch is not None and ch.reverse_polarity.value == "possible" and sv is not None:
-        # Reversed, the charger's open-circuit voltage adds to the stack's [practice: REFERENCES.md];
+        # Reversed, the charger's open-circuit voltage adds to the stack's [practice: docs/references.md];
         # the pin itself is clamped near the protector's rails, so nearly all of it lies across
         # the resistor.
         voltage = ch.open_circuit_max + sv.max

@@ -1,4 +1,4 @@
-"""Default cell windows against REFERENCES.md "Cell voltage windows" and protector practice."""
+"""Default cell windows against docs/references.md "Cell voltage windows" and protector practice."""
 
 import dataclasses
 import re
@@ -7,7 +7,7 @@ import pytest
 
 from packwarden.model.cells import CHEMISTRIES, DEFAULT_WINDOWS, CellWindow, cell_window
 
-# REFERENCES.md cell-window table [practice / memory]: (charge, nominal, cut-off) ranges in volts.
+# docs/references.md cell-window table [practice / memory]: (charge, nominal, cut-off) ranges in volts.
 RANGES = {
     "lco": ((4.20, 4.20), (3.6, 3.7), (2.5, 3.0)),
     "nmc": ((4.20, 4.20), (3.6, 3.7), (2.5, 3.0)),

@@ -1,4 +1,4 @@
-"""Copper resistance (IEC 60028) and conductor capacity (IPC-2221) against REFERENCES.md values."""
+"""Copper resistance (IEC 60028) and conductor capacity (IPC-2221) against docs/references.md values."""
 
 import math
 
@@ -39,14 +39,14 @@ def test_trace_resistance_scales_with_geometry():
 
 
 def test_one_ounce_is_35_um_and_1_378_mil():
-    # REFERENCES.md IPC-2221 section [practice]: 1 oz/ft² ≈ 35 µm ≈ 1.378 mil.
+    # docs/references.md IPC-2221 section [practice]: 1 oz/ft² ≈ 35 µm ≈ 1.378 mil.
     t = copper.oz_to_thickness(1.0)
     assert t == pytest.approx(35 * UM)
     assert t / MIL == pytest.approx(1.378, abs=0.001)
     assert copper.thickness_to_oz(70 * UM) == pytest.approx(2.0)
 
 
-# IPC-2221 [published], vectors [derived] from REFERENCES.md.
+# IPC-2221 [published], vectors [derived] from docs/references.md.
 def test_ipc_1a_outer_1oz_dt10():
     r = copper.ipc2221_min_width(1.0, 35 * UM, 10.0, "outer")
     assert r.area_mil2 == pytest.approx(16.30, abs=0.01)

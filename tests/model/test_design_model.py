@@ -64,7 +64,7 @@ def _figures(tmp_path: Path, extra: str = "") -> dict:
 
 
 def test_worked_example_single_pair_trips_at_3_amperes(tmp_path):
-    # [practice] worked example (REFERENCES.md, "Single-cell protector"): trip current =
+    # [practice] worked example (docs/references.md, "Single-cell protector"): trip current =
     # detection voltage / (2 × R_DS(on) per FET) = 150 mV / (2 × 25 mΩ) = 3 A. Typical corner:
     # 25 °C, typical values; computed through the nodal solve of the netlist.
     fig = _figures(tmp_path)

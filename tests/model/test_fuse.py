@@ -1,4 +1,4 @@
-"""Fuse I²t, pre-arcing gates and derating against REFERENCES.md "Fuses"."""
+"""Fuse I²t, pre-arcing gates and derating against docs/references.md "Fuses"."""
 
 import math
 
@@ -17,7 +17,7 @@ def test_rectangular_pulse_i2t_vector():
     assert fuse.pulse_i2t(40.0, 540e-6) == pytest.approx(0.86, abs=0.005)
 
 
-# Gates written out here from REFERENCES.md, independently of the module's data, so a typo in
+# Gates written out here from docs/references.md, independently of the module's data, so a typo in
 # either shows up. (multiple, min pre-arcing time, max pre-arcing time); None = not given.
 SHEET3 = [  # IEC 60127-2 sheet 3 [published, as reproduced in fuse data sheets]
     (1.5, 60 * MIN, None), (2.1, None, 2 * MIN), (2.75, 0.6, 10.0), (4.0, 0.15, 3.0),

@@ -51,7 +51,7 @@ def test_shunt_sensing_is_the_shunts_transresistance(tmp_path):
 
 
 def test_fet_sensing_sees_the_switches(tmp_path):
-    # The single-cell probe senses across its FET pair: the worked example of REFERENCES.md
+    # The single-cell probe senses across its FET pair: the worked example of docs/references.md
     # [practice], trip = detection / (2 × R_DS(on) per FET).
     m = _model(tmp_path, *ORCHARD)
     assert m.sense_elements == ("Q1",) and not m.sense_by_shunt

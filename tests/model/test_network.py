@@ -84,7 +84,7 @@ def kcl_residuals(net: Network, currents) -> dict[str, tuple[float, float]]:
 
 
 def test_ocp_trip_current_from_sense_resistance_practice():
-    # [practice] Worked example in REFERENCES.md, "Single-cell protector": a protector sensing the
+    # [practice] Worked example in docs/references.md, "Single-cell protector": a protector sensing the
     # drop across its own FET pair trips at V_threshold / R_sense, so 150 mV across two 25 mΩ
     # channels in series (50 mΩ) is 3 A, and two such pairs in parallel (25 mΩ) make 6 A.
     threshold = 0.150

@@ -1,4 +1,4 @@
-"""OCV-SoC tables and shelf-life arithmetic against REFERENCES.md "Storage and self-discharge"."""
+"""OCV-SoC tables and shelf-life arithmetic against docs/references.md "Storage and self-discharge"."""
 
 import math
 
@@ -8,11 +8,11 @@ from hypothesis import given, strategies as st
 from packwarden.model import ocv
 from packwarden.model.cells import DEFAULT_WINDOWS
 
-# Open NMC cylindrical-cell dataset, 25 °C [published], as quoted in REFERENCES.md (SoC %, V).
+# Open NMC cylindrical-cell dataset, 25 °C [published], as quoted in docs/references.md (SoC %, V).
 NMC_POINTS = [(0.2, 2.535), (10, 3.268), (20.2, 3.416), (30.3, 3.562), (40.1, 3.662),
               (50.3, 3.756), (60.1, 3.840), (70.3, 3.926), (80, 4.037), (90.2, 4.091),
               (100, 4.175)]
-# Open LiFePO4 cylindrical-cell dataset [published], as quoted (rounded) in REFERENCES.md.
+# Open LiFePO4 cylindrical-cell dataset [published], as quoted (rounded) in docs/references.md.
 LFP_POINTS = [(0, 2.010), (5.34, 3.087), (8.85, 3.194), (29.72, 3.277), (98.33, 3.351),
               (100, 3.598)]
 
@@ -25,7 +25,7 @@ def test_nmc_dataset_points_round_trip(pct, volts):
 
 @pytest.mark.parametrize("pct, volts", LFP_POINTS)
 def test_lfp_dataset_points_round_trip(pct, volts):
-    # REFERENCES.md rounds the dataset to 1 mV and 0.01 %; the module keeps its 0.1 mV.
+    # docs/references.md rounds the dataset to 1 mV and 0.01 %; the module keeps its 0.1 mV.
     v = ocv.voltage_at_soc("lfp", pct / 100)
     assert v == pytest.approx(volts, abs=0.0006)
     assert ocv.soc_at_voltage("lfp", v) == pytest.approx(pct / 100, abs=1e-9)
@@ -99,7 +99,7 @@ def test_round_trip_and_monotone(chem, soc):
 
 
 def test_shelf_life_vector():
-    # REFERENCES.md vector [derived]: 1000 mAh at ~44 % losing 2 %/month plus 3 µA
+    # docs/references.md vector [derived]: 1000 mAh at ~44 % losing 2 %/month plus 3 µA
     # (2.19 mAh/month) → 22.2 mAh/month → empty in about 19.8 months. Reproduces with
     # 730 h/month and self-discharge as a share of rated capacity.
     r = ocv.shelf_life(1.000, 0.44, 2.0, [3e-6])

@@ -7,7 +7,7 @@ from packwarden.model.rdson import rds_on, temperature_factor
 
 MOHM = 1e-3
 # An invented small protection FET: R_DS(on) rises 1.32 × from 4.5 V to 2.5 V gate drive, inside
-# the 1.3-1.4 × REFERENCES.md gives for small protection FETs [practice].
+# the 1.3-1.4 × docs/references.md gives for small protection FETs [practice].
 TABLE = [(4.5, 22 * MOHM, 28 * MOHM), (2.5, 29 * MOHM, 37 * MOHM), (3.7, 24 * MOHM, 31 * MOHM)]
 
 
@@ -57,7 +57,7 @@ def test_wrong_way_slope_is_not_continued_downward():
 
 @pytest.mark.parametrize("tj, factor", [
     # Linear model through 1.0 at 25 °C and hot_ratio 1.5 at 125 °C; 1.5 is inside the 1.4-1.6 ×
-    # REFERENCES.md gives for 20 V parts [practice]; the factors are [derived].
+    # docs/references.md gives for 20 V parts [practice]; the factors are [derived].
     (25.0, 1.0), (75.0, 1.25), (125.0, 1.5), (150.0, 1.625), (-25.0, 0.75),
 ])
 def test_temperature_factor(tj, factor):

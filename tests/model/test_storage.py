@@ -84,7 +84,7 @@ def model(tmp_path, *, extra="", sd="2 %/month", soc="44 %", temp="25 °C", idss
 
 
 def test_shelf_life_worked_vector_through_the_design(tmp_path):
-    # REFERENCES.md "Storage and self-discharge" vector [derived]: a 1000 mAh cell at about 44 %
+    # docs/references.md "Storage and self-discharge" vector [derived]: a 1000 mAh cell at about 44 %
     # losing 2 %/month plus a 3 µA drain (2.19 mAh/month) loses 22.2 mAh/month and reaches empty
     # in about 19.8 months. Here the 3 µA is the protector's maximum supply current, the cell's
     # table puts 44 % at 3.70 V and empty (0 %) at the 2.50 V over-discharge detection maximum,
@@ -105,7 +105,7 @@ def test_shelf_life_vector_drain_alone(tmp_path):
 
 
 def test_self_discharge_doubles_per_10_degrees(tmp_path):
-    # [practice] REFERENCES.md: self-discharge roughly doubles per 10 °C; 2 %/month at 25 °C is
+    # [practice] docs/references.md: self-discharge roughly doubles per 10 °C; 2 %/month at 25 °C is
     # 4 %/month at 35 °C, so with 3 µA on top the cell empties in 440 / (40 + 2.19) months.
     b = model(tmp_path, temp="35 °C").storage_budget
     assert b.self_discharge_pct == pytest.approx(4.0)
@@ -113,7 +113,7 @@ def test_self_discharge_doubles_per_10_degrees(tmp_path):
 
 
 def test_default_self_discharge_is_named_as_an_assumption(tmp_path):
-    # Without a data-sheet figure the default, 2 %/month (the upper end of REFERENCES.md's
+    # Without a data-sheet figure the default, 2 %/month (the upper end of docs/references.md's
     # 1-2 %/month [practice]), is used and said; the vector's 19.8 months follow again.
     b = model(tmp_path, sd="").storage_budget
     assert DEFAULT_SELF_DISCHARGE == 2.0
@@ -186,7 +186,7 @@ def _example_copy(tmp_path, name: str, library: str, extra: str = "", storage: s
 
 
 def test_the_nmc_dataset_sets_the_cut_off_charge(tmp_path):
-    # [published: open NMC dataset, REFERENCES.md] 0.2 % at 2.535 V and 1.0 % at 2.760 V; the
+    # [published: open NMC dataset, docs/references.md] 0.2 % at 2.535 V and 1.0 % at 2.760 V; the
     # orchard probe's 2.55 V over-discharge detection maximum sits at
     # 0.2 + 0.8 × (2.55 − 2.535) / (2.760 − 2.535) = 0.2533 % [derived: linear interpolation].
     m = _example_copy(tmp_path, "orchard-probe.yaml", "orchard-parts.yaml")  # ships at 40 %

@@ -3,7 +3,7 @@
 Each test builds a small design whose parts make a reference vector appear exactly (flat on-
 resistance tables, a 25 °C cold end so no temperature factor applies, fuses without resistance),
 lints it through the whole engine, and reads the figure from the model or from a rule's finding.
-The vectors are from ../shared/REFERENCES.md; the tag beside each says how far to trust it.
+The vectors are from docs/references.md; the tag beside each says how far to trust it.
 """
 
 from __future__ import annotations
@@ -108,7 +108,7 @@ def _heat(model, case: str):
 # --- junction temperature ---------------------------------------------------------------------
 
 def test_junction_temperature_vector_through_the_model(tmp_path):
-    # [derived] REFERENCES.md, "MOSFETs": 2 A through two 22 mΩ channels -> 0.176 W; at 120 K/W
+    # [derived] docs/references.md, "MOSFETs": 2 A through two 22 mΩ channels -> 0.176 W; at 120 K/W
     # and 60 °C ambient T_J = 60 + 0.176 × 120 = 81.1 °C (T_J = T_A + P·R_θJA [published: data
     # sheet definition]). A hot ratio of 1.0 keeps R_DS(on) flat, as the vector assumes.
     model = _model(tmp_path, rds="22 mΩ", ratio="1.0", theta="120 K/W", hot="60 °C", load="2 A")
@@ -170,7 +170,7 @@ def test_permitted_current_is_the_closed_form_fixed_point(tmp_path):
 # --- short circuit ----------------------------------------------------------------------------
 
 def test_prospective_short_circuit_vector_cell_only(tmp_path):
-    # [derived] REFERENCES.md, "Internal resistance and short circuit": 4.2 V / 18 mΩ -> 233 A
+    # [derived] docs/references.md, "Internal resistance and short circuit": 4.2 V / 18 mΩ -> 233 A
     # with the cell alone; the switches are 1 µΩ and the fuse gives no resistance. Through the
     # nodal solve of the netlist.
     model = _model(tmp_path, cell_r="18 mΩ", rds="1 uΩ")
@@ -190,7 +190,7 @@ def test_short_circuit_solution_agrees_with_prospective_short_circuit():
 
 
 def test_i2t_vector_through_the_rule(tmp_path):
-    # [derived] REFERENCES.md, "Fuses": I²t of a rectangular pulse = I²·t [published:
+    # [derived] docs/references.md, "Fuses": I²t of a rectangular pulse = I²·t [published:
     # definition]; 40 A for 540 µs -> 0.86 A²s. 4.2 V over 75 mΩ + 2 × 15 mΩ = 40 A, ended by the
     # short-circuit detection (trip max 0.6 V / 30 mΩ = 20 A) after its longest delay, 540 µs.
     findings = _findings(tmp_path, "short-circuit-stress", cell_r="75 mΩ", rds="15 mΩ",
@@ -245,7 +245,7 @@ def _trace_design(layer: str, width: str, weight: str) -> dict:
 
 
 @pytest.mark.parametrize("layer, width, weight, delta_t, amperes", [
-    # [derived] REFERENCES.md, "Conductor current capacity — IPC-2221": I = k·ΔT^0.44·A^0.725
+    # [derived] docs/references.md, "Conductor current capacity — IPC-2221": I = k·ΔT^0.44·A^0.725
     ("outer", "100 mil", "1 oz", "10 K", 4.70),   # 100 mil outer 1 oz ΔT 10 -> 4.70 A
     ("inner", "100 mil", "1 oz", "10 K", 2.35),   # ... inner -> 2.35 A
     ("outer", "11.83 mil", "1 oz", "10 K", 1.00),  # 1 A outer 1 oz ΔT 10 -> 11.83 mil
@@ -271,7 +271,7 @@ def test_ipc2221_inner_layer_carries_exactly_half(tmp_path):
 
 
 def test_trace_share_of_the_sense_resistance(tmp_path):
-    # [published] IEC 60028: 1/58 Ω·mm²/m at 20 °C, +0.393 %/K; [derived] REFERENCES.md vector
+    # [published] IEC 60028: 1/58 Ω·mm²/m at 20 °C, +0.393 %/K; [derived] docs/references.md vector
     # 35 µm × 2 mm × 50 mm at 20 °C -> 12.3 mΩ, so 12.3 × (1 + 0.00393 × 5) = 12.55 mΩ at 25 °C.
     # Between the pair (2 × 25 mΩ) and the sense point it is 12.55 / 62.55 = 20.1 % of the sense
     # resistance, and well within its IPC-2221 capacity (about 4 A against a 2.6 A trip max).
@@ -298,7 +298,7 @@ def test_cold_factor_is_geometric_between_25_c_and_its_reference():
 
 
 def test_rebound_is_current_times_cold_resistance(tmp_path):
-    # [practice] REFERENCES.md: after a load is removed the cell rebounds by about I × R_internal.
+    # [practice] docs/references.md: after a load is removed the cell rebounds by about I × R_internal.
     # 30 mΩ cell, 0.5 A, ambient down to 25 °C (no cold factor): 15 mV; release 2.9 V min against
     # detect 2.55 V max: 350 mV of hysteresis.
     model = _model(tmp_path)

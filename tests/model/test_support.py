@@ -31,7 +31,7 @@ RIDGE = ("ridgeline-tool-4s2p.yaml", "ridgeline-parts.yaml")
 
 
 def test_documented_default_ranges():
-    # [practice] REFERENCES.md "Single-cell protector": supply filter R 300 Ω–1 kΩ, C 0.022–1 µF;
+    # [practice] docs/references.md "Single-cell protector": supply filter R 300 Ω–1 kΩ, C 0.022–1 µF;
     # sense-pin resistor 300 Ω–4 kΩ.
     assert DEFAULT_SUPPLY_R == (300.0, 1000.0)
     assert DEFAULT_SUPPLY_C == pytest.approx((22e-9, 1e-6))
@@ -41,7 +41,7 @@ def test_documented_default_ranges():
 def test_supply_filter_shift_is_current_times_resistance(tmp_path):
     # Ohm's law [published: definition]: the orchard probe's 6 µA maximum supply current through
     # its 470 Ω ±1 % filter resistor at the top of its tolerance drops 6 µA × 474.7 Ω = 2.848 mV
-    # (REFERENCES.md [practice]: "supply current × R shifts the detection point").
+    # (docs/references.md [practice]: "supply current × R shifts the detection point").
     f = _model(tmp_path, *ORCHARD).supply_filter
     assert (f.resistor.refdes, f.capacitor.refdes) == ("R1", "C1")
     assert f.resistance == pytest.approx(474.7)
@@ -56,7 +56,7 @@ def test_a_multi_cell_protector_measures_at_its_cell_pins_so_no_shift(tmp_path):
 
 
 def test_sense_resistor_with_a_reversed_charger(tmp_path):
-    # REFERENCES.md [practice]: reversed, the charger's open-circuit voltage adds to the stack;
+    # docs/references.md [practice]: reversed, the charger's open-circuit voltage adds to the stack;
     # 5.5 V + 4.325 V (overcharge detection max) = 9.825 V across 2 kΩ −1 % = 1980 Ω gives
     # 4.96 mA and 48.8 mW [derived: Ohm's law, P = V²/R].
     s = _model(tmp_path, *ORCHARD).sense_resistor
@@ -87,7 +87,7 @@ def test_capacitor_voltages_in_the_named_cases(tmp_path):
 def test_a_reversed_charger_puts_charger_plus_stack_across_the_discharge_side(tmp_path):
     # A capacitor across the discharge pair's drain-source (BF to MID) with a charger reversed,
     # the discharge switches off and the charge switches on holds the charger's 18.5 V plus the
-    # stack's 4 × 4.30 V (REFERENCES.md [practice]: reversed, the two add) [derived].
+    # stack's 4 × 4.30 V (docs/references.md [practice]: reversed, the two add) [derived].
     m = _model(tmp_path, *RIDGE,
                replace=(("reverse_polarity: prevented", "reverse_polarity: possible"),),
                extra="  C9: {kind: capacitor, value: 10 nF, voltage: 50 V, pins: [BF, MID]}\n")

@@ -1,4 +1,4 @@
-"""Junction temperature and power budget against REFERENCES.md MOSFET vectors."""
+"""Junction temperature and power budget against docs/references.md MOSFET vectors."""
 
 import pytest
 from hypothesis import given, strategies as st
@@ -27,7 +27,7 @@ def test_max_power_can_go_negative():
 
 
 def test_two_channel_conduction_vector():
-    # REFERENCES.md MOSFETs, vector [derived]: 2 A through two 22 mΩ channels → 0.176 W;
+    # docs/references.md MOSFETs, vector [derived]: 2 A through two 22 mΩ channels → 0.176 W;
     # at 120 K/W and 60 °C ambient T_J = 81.1 °C.
     p = conduction_power(2.0, 22 * MOHM, 22 * MOHM)
     assert p == pytest.approx(0.176, abs=1e-6)
@@ -43,7 +43,7 @@ def test_fixed_point_with_constant_power_matches_the_vector():
 
 
 def test_hot_rdson_raises_the_steady_state_above_the_cold_estimate():
-    # The vector's 22 mΩ is a 25 °C value; with a 1.5 × rise to 125 °C [practice: REFERENCES.md
+    # The vector's 22 mΩ is a 25 °C value; with a 1.5 × rise to 125 °C [practice: docs/references.md
     # 1.4-1.6 ×] the self-consistent T_J must exceed 81.1 °C and satisfy T = T_A + P(T)·θ.
     table = [(4.5, 22 * MOHM, None)]
 

@@ -1,7 +1,7 @@
 """The HTML review report: structure, the charts' numbers and geometry, escaping, determinism.
 
 The charts are checked two ways: their labels carry the numbers a reviewer would work out by hand
-from the part data (worked examples from REFERENCES.md, each tagged with its source), and their
+from the part data (worked examples from docs/references.md, each tagged with its source), and their
 geometry puts those numbers where an axis says they are. A chart that printed the right label at
 the wrong place, or drew nothing, fails here.
 """
