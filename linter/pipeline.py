@@ -190,6 +190,7 @@ def lint_file(session: Session, path: Path, shown: str,
     model = make_model(design, netlist, options)
     result.model = model
     result.figures = model_figures(model, result)
+    result.events = model_events(model, result)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root))
@@ -238,6 +239,14 @@ def model_figures(model: Any, result: DesignResult) -> dict[str, Any]:
     except Exception as exc:  # the model must not take the run down; say where it broke
         result.internal.append(InternalError("model", result.file, describe(exc)))
         return {}
+
+
+def model_events(model: Any, result: DesignResult) -> list[dict[str, Any]]:
+    try:
+        return [e.as_dict() for e in model.events]
+    except Exception as exc:  # as model_figures
+        result.internal.append(InternalError("model", result.file, describe(exc)))
+        return []
 
 
 @record
