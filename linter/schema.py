@@ -708,10 +708,16 @@ class FuseSpeed(str, Enum):
 class PreArcingPoint(Strict):
     """One point of a fuse's time-current (pre-arcing) curve."""
 
-    current: Amps = Field(gt=0, description="current through the fuse, in amperes")
-    time: Seconds = Field(gt=0, description=(
-        "pre-arcing (melting) time at that current, in seconds; read the curve's lower edge "
-        "where the data sheet draws a band"))
+    current: Amps = Field(description="current through the fuse, in amperes, above 0")
+    time: Seconds = Field(description=(
+        "pre-arcing (melting) time at that current, in seconds, above 0; read the curve's lower "
+        "edge where the data sheet draws a band"))
+
+    @model_validator(mode="after")
+    def _positive(self) -> "PreArcingPoint":
+        if not (self.current > 0 and self.time > 0):
+            raise ValueError("a pre-arcing point needs a current and a time above 0")
+        return self
 
 
 class Fuse(Strict):

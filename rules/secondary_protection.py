@@ -103,6 +103,8 @@ def _coordination(ctx, options, m, f, path):
         if event is None:
             continue
         current, i2t = event.current_through(f.refdes), event.i2t_through(f.refdes)
+        if not current > 0:
+            continue
         limit = melt_limit(current, event.duration, part.rated_current, part.speed.value,
                            part.melting_i2t, points)
         if limit.i2t is None or i2t <= options.i2t_margin * limit.i2t:

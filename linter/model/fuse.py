@@ -55,7 +55,7 @@ class GateSet:
 
 
 # IEC 60127-2 standard sheet 3: time-lag, low breaking capacity, 125 mA-6.3 A [published, as
-# reproduced in fuse data sheets; REFERENCES.md "Fuses"].
+# reproduced in fuse data sheets; docs/references.md "Fuses"].
 IEC60127_2_SHEET3 = GateSet(
     "IEC 60127-2 sheet 3 (time-lag, low breaking capacity)",
     (Gate(1.5, t_min=60 * _MIN), Gate(2.1, t_max=2 * _MIN), Gate(2.75, 0.6, 10.0),
@@ -69,7 +69,7 @@ IEC60127_2_SHEET5 = GateSet(
      Gate(4.0, 0.15, 5.0), Gate(10.0, 0.02, 0.15)),
     4.0, 6.3, "[published] IEC 60127-2 sheet 5, as reproduced in fuse data sheets")
 
-# IEC 60127-2 sheets 1/2, quick-acting [memory]: REFERENCES.md gives the 2.1-10 In gates; the
+# IEC 60127-2 sheets 1/2, quick-acting [memory]: docs/references.md gives the 2.1-10 In gates; the
 # 1.5 In ≥ 60 min gate is recalled as common to the sheets and is [memory] as well. No rating span
 # is recorded, so no rating is flagged. Check the sheet before trusting a verdict from this set.
 IEC60127_2_QUICK = GateSet(
@@ -176,7 +176,7 @@ def _loglog_bounds(k: float, gates: tuple[Gate, ...]) -> tuple[Optional[float], 
     return interp(a.t_min, b.t_min), interp(a.t_max, b.t_max)
 
 
-# Repetitive-pulse practice [practice; REFERENCES.md "Fuses"]: keep each pulse's I²t below about
+# Repetitive-pulse practice [practice; docs/references.md "Fuses"]: keep each pulse's I²t below about
 # 48 % of the melting I²t for 100 pulses and 22 % for 100 000 pulses.
 _PULSE_POINTS = ((100.0, 0.48), (100_000.0, 0.22))
 
@@ -206,7 +206,7 @@ def pulse_i2t_ok(pulse_i2t_value: float, melting_i2t: float, pulses: float) -> b
     return pulse_i2t_value <= pulse_i2t_fraction(pulses) * melting_i2t
 
 
-#: Continuous current at 25 °C as a fraction of the rating [practice; REFERENCES.md "Fuses"].
+#: Continuous current at 25 °C as a fraction of the rating [practice; docs/references.md "Fuses"].
 CONTINUOUS_DERATING = 0.75
 
 
@@ -320,7 +320,8 @@ def melt_limit(current: float, duration: float, rating: float, speed: str,
             t, source, notes = v.t_min, f"the {gates.name} gates", v.notes
     curve = current * current * t
     if melting_i2t is not None and melting_i2t >= curve:
-        return MeltLimit(melting_i2t, f"melting I²t: {source} give no more at {k:.3g} × I_n"
+        verb = "give" if source.endswith("gates") else "gives"
+        return MeltLimit(melting_i2t, f"melting I²t: {source} {verb} no more at {k:.3g} × I_n"
                          if t > 0.0 or source.startswith("the ") else f"melting I²t: {source}",
                          notes)
     if curve <= 0.0:
