@@ -107,6 +107,7 @@ class PermittedPoint:
     runaway: bool
     assumptions: tuple[str, ...]
     solution: Any = None
+    unheated: float = math.nan  # the current with the switches at the ambient, A
 
 
 def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
@@ -120,6 +121,7 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
     runaway = False
     notes: list[str] = []
     state = None
+    unheated = math.nan
     previous: dict[str, tuple[float, float]] = {}
     for _ in range(thermal.TRIP_ITERATIONS):
         rds, notes = {}, []
@@ -131,6 +133,8 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
             return None
         i_load = abs(sol.current("(load)"))
         current = vdet / sense
+        if state is None:
+            unheated = current
         share = {ch.name: abs(sol.current(ch.name)) / i_load for ch in m.channels}
         ich = {name: f * current for name, f in share.items()}
         power = {pk: 0.0 for pk in packages}
@@ -155,7 +159,7 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
     else:
         runaway = True
     current, rds, ich, power, sol = state
-    return PermittedPoint(current, rds, ich, power, tj, runaway, tuple(notes), sol)
+    return PermittedPoint(current, rds, ich, power, tj, runaway, tuple(notes), sol, unheated)
 
 
 # --- the hard short ----------------------------------------------------------------------------
@@ -304,8 +308,13 @@ def _permitted(m: "DesignModel", vgs: float, ambient: float) -> Event | None:
         return None
     currents, power = _figures(m, pt.current, pt.channel_current, pt.rds, pt.solution, ambient,
                                "min")
-    heated = ("the trip maximum (shunt sensing)" if m.sense_by_shunt else
-              "self-heated: the switches at the junction temperature the current causes")
+    # Whether the switches are the sense resistance shows in the balance itself: with a shunt
+    # their heat does not move the current, which stays the trip maximum at this corner.
+    if abs(pt.current - pt.unheated) <= 1e-9 * pt.unheated:
+        heated = "the trip maximum: the switches' heat does not move it (a shunt senses)"
+    else:
+        heated = (f"self-heated: the switches at the junction temperature the current causes "
+                  f"(unheated, {pt.unheated:.3g} A)")
     words = (f"just below the over-current trip for ever: detection max {vdet * 1e3:.4g} mV, "
              f"lowest ambient {ambient:g} °C, {_drive(vgs, 'min')}, {heated}")
     return Event("permitted", words, ambient, pt.current, None, currents, power, None, None,
