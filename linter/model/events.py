@@ -273,7 +273,8 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
     sc = m.short_circuit_trip
     sv = m.stack_voltage
     vmax = sv.max if sv is not None else None
-    if pulse is not None and pulse.detection == "short-circuit" and sc is not None:
+    if sc is not None and p.part.short_circuit is not None and (
+            pulse is None or pulse.detection == "short-circuit"):
         # Just below the short-circuit trip maximum the short-circuit detection may not act, so
         # the over-current detection ends it, after its longest delay: the largest I²t the
         # over-current path lets through.

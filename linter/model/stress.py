@@ -437,9 +437,10 @@ def _retries(threshold: Any) -> bool:
 def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -> list[RetryHeat]:
     """Retry pulses of every current protection that releases by ``auto_retry``.
 
-    Two faults: a hard short (the prospective short-circuit current, for the delay of the
-    detection that ends it) and an overload just below the short-circuit trip maximum (for the
-    longest over-current delay), which only the over-current detection catches. Currents come
+    Two faults, the hard-short and gap-overload events (events.py): a hard short (the
+    prospective short-circuit current, for the delay of the detection that ends it) and an
+    overload just below the short-circuit trip maximum (for the longest over-current delay),
+    which only the over-current detection catches. Currents come
     from the lowest-resistance solves; each channel dissipates at its highest on-resistance
     (lowest gate drive, max corner) at its junction temperature: a bound, since one circuit
     cannot be at both corners at once.
@@ -456,11 +457,11 @@ def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -
         if _retries(owner):
             events.append((name, owner, "a hard short across the pack terminals", pulse.current,
                            dict(pulse.channel_current), pulse.duration))
-    sc = m.short_circuit_trip
-    if _retries(oc) and sc is not None and (pulse is None or pulse.detection == "short-circuit"):
-        share = sc.at_max.share
+    gap = m.event("gap-overload")
+    if _retries(oc) and gap is not None:
         events.append(("overcurrent", oc, "an overload just below the short-circuit trip maximum",
-                       sc.max, {n: f * sc.max for n, f in share.items()}, oc.delay.high))
+                       gap.current, {ch.name: gap.current_through(ch.name) for ch in m.channels},
+                       gap.duration))
     out = []
     hot = m.ambient.max
     for name, thr, event, current, ich, duration in events:
