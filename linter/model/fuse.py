@@ -326,5 +326,6 @@ def melt_limit(current: float, duration: float, rating: float, speed: str,
                          notes)
     if curve <= 0.0:
         return MeltLimit(None, f"{source}, and the fuse gives no melting I²t", notes)
-    return MeltLimit(curve, f"{source}: pre-arcing at least {t * 1e3:.4g} ms at {k:.3g} × I_n",
+    bound = "" if pre_arcing else "at least "  # the gates bound the time, the part's curve gives it
+    return MeltLimit(curve, f"{source}: pre-arcing {bound}{t * 1e3:.4g} ms at {k:.3g} × I_n",
                      notes)
