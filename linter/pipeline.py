@@ -218,6 +218,7 @@ def lint_file(session: Session, path: Path, shown: str,
     model = make_model(design, netlist, options)
     result.model = model
     result.figures = model_figures(model, result, doc)
+    result.events = model_events(model, result, doc)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root),
@@ -298,6 +299,20 @@ def model_figures(model: Any, result: DesignResult, doc: Document | None = None)
     except Exception as exc:  # the model must not take the run down; say where it broke
         result.internal.append(InternalError("model", result.file, describe(exc)))
         return {}
+
+
+def model_events(model: Any, result: DesignResult,
+                 doc: Document | None = None) -> list[dict[str, Any]]:
+    try:
+        return [e.as_dict() for e in model.events]
+    except DesignMistake as exc:  # as model_figures: the design's, on its line, said once
+        error = located(result, exc, doc)
+        if str(error) not in {str(e) for e in result.errors}:
+            result.errors.append(error)
+        return []
+    except Exception as exc:  # as model_figures
+        result.internal.append(InternalError("model", result.file, describe(exc)))
+        return []
 
 
 @record

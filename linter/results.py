@@ -25,6 +25,8 @@ class DesignResult:
     findings: list[Finding] = field(default_factory=list)
     #: The model's key figures by name (:class:`packwarden.figures.KeyFigure`).
     figures: dict[str, Any] = field(default_factory=dict)
+    #: The model's events in time (``Event.as_dict()`` of each, docs/output-formats.md "Events").
+    events: list[dict[str, Any]] = field(default_factory=list)
     errors: list[InputError] = field(default_factory=list)
     internal: list[InternalError] = field(default_factory=list)
     #: True once the design's rules ran (False when its file, config or libraries stopped it).

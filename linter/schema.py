@@ -927,13 +927,22 @@ class FuseSpeed(str, Enum):
     time_lag = "time_lag"
 
 
+class PreArcingPoint(Strict):
+    """One point of a fuse's time-current (pre-arcing) curve."""
+
+    current: PositiveAmps = Field(description="current through the fuse, in amperes, above 0")
+    time: PositiveSeconds = Field(description=(
+        "pre-arcing (melting) time at that current, in seconds, above 0; read the curve's lower "
+        "edge where the data sheet draws a band"))
+
+
 class Fuse(Packaged):
     """A fuse: the secondary protection in series with the power path."""
 
     kind: Literal["fuse"] = Field(description="the part kind: 'fuse'")
     rated_current: PositiveAmps = Field(description=(
         "rated current I_n, in amperes; derated (to 75 % by default) it must carry the "
-        "over-current trip maximum (secondary-protection)"))
+        "current the protection permits for ever (secondary-protection)"))
     rated_voltage: PositiveVolts = Field(description=(
         "rated voltage, in volts; at least the highest pack or charger voltage "
         "(secondary-protection)"))
@@ -945,8 +954,13 @@ class Fuse(Packaged):
         "longest over-current and short-circuit delays must stay below a share of it, 48 % by "
         "default (secondary-protection); when absent, an info finding"))
     speed: FuseSpeed = Field(default=FuseSpeed.time_lag, description=(
-        "'quick_acting' or 'time_lag', as IEC 60127 names them; recorded for reviewers, not yet "
-        "used by a rule"))
+        "'quick_acting' or 'time_lag', as IEC 60127 names them; without pre_arcing points, an "
+        "event longer than a short pulse is judged against the standard's pre-arcing gates for "
+        "this speed (secondary-protection)"))
+    pre_arcing: list[PreArcingPoint] | None = Field(default=None, max_length=50, description=(
+        "the part's own pre-arcing time-current points, a list of {current, time}; events "
+        "longer than a short pulse are judged against them (log-log between points) instead of "
+        "the standard's gates (secondary-protection)"))
     resistance: PathOhms | None = Field(default=None, description=(
         "cold resistance, in ohms; part of the power path's resistance (taken as near zero when "
         "absent)"))

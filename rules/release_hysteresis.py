@@ -31,7 +31,8 @@ def check(ctx, options):
     load pulls the cell under the detection again, and the output chatters — worst at the lowest
     ambient, where the internal resistance is highest. The same holds for an overcharge release
     against the charger: stopping the charge drops the cell by I·R, and a release closer than
-    that lets a faulty charger pump the cell past its detection again and again. Release by
+    that lets the charge switch chatter at the overcharge detection; each cycle stops at the
+    detection, so it cannot overcharge the cell, and that finding is a warning. Release by
     charger connection or load removal does not chatter. An over-current or short-circuit
     release that retries automatically repeats the fault current into the switches every retry
     period while the fault persists: the energy of each pulse over the period is an average
@@ -69,9 +70,9 @@ def check(ctx, options):
                 f"overcharge release hysteresis {fq(r.hysteresis, 'V')} (detect min "
                 f"{fq(r.detect, 'V')} − release max {fq(r.release, 'V')}) does not exceed the drop "
                 f"{fq(r.rebound, 'V')} of the cell when the charger current "
-                f"{fq(r.current, 'A')}{per_cell} stops ({cold}): a faulty charger is let back on "
-                f"again and again at the overcharge detection",
-                path=ppath, element=p.refdes, key="overcharge",
+                f"{fq(r.current, 'A')}{per_cell} stops ({cold}): the charge switch chatters at the "
+                f"overcharge detection (each cycle stops there, so the cell is not overcharged)",
+                path=ppath, element=p.refdes, key="overcharge", severity="warning",
                 figures=figures,
                 hint=f"a protector with overcharge release ≤ {fq(r.detect - r.rebound, 'V')} at its "
                      f"highest, or a lower charge current")

@@ -1,6 +1,7 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 from packwarden.model import FUSE_DERATING
+from packwarden.model.fuse import ADIABATIC_TIME, melt_limit
 
 
 class Options(RuleOptions):
@@ -13,15 +14,18 @@ class Options(RuleOptions):
 @rule(id="secondary-protection",
       summary="a fuse or PTC backs up the electronics, in series with the whole path",
       severity=Severity.error, options=Options, example=Example(
-          bad="F1: {part: OR-FUSE-5A, pins: [B+, P+]}   # derated 3.75 A, below a 7.8 A trip max",
+          bad="F1: {part: OR-FUSE-5A, pins: [B+, P+]}   # derated 3.75 A, below a 5.5 A permitted",
           good="F1: {part: OR-FUSE-12A, pins: [B+, P+]}"))
 def check(ctx, options):
     """The protector and its FETs can fail short; an independent fuse (or PTC) in series with the
     whole power path, in both directions and not bypassable, is the backup. It must carry, derated,
-    the highest current the electronic protection permits, be rated for the highest pack or
-    charger voltage, break the prospective short-circuit current, and let the electronics act
-    first: the I²t let through during the longest over-current and short-circuit delays must stay
-    well below its melting I²t."""
+    the highest current the electronic protection permits for ever (the ``permitted`` event), be
+    rated for the highest pack or charger voltage, break the prospective short-circuit current,
+    and let the electronics act first: in the gap overload (the largest current only the
+    over-current detection clears, for its longest delay) and the hard short, the I²t it lets
+    through must stay well below the I²t that melts it in that time — the melting I²t for a short
+    pulse, its time-current behaviour (the part's pre-arcing points, else the standard's gates
+    for its speed) for a longer event."""
     m = ctx.model
     if m.stack is None:
         return
@@ -39,21 +43,25 @@ def check(ctx, options):
             path=("components",), key="missing",
             hint="add a fuse between the cell stack and a pack terminal")
         return
-    t, sc, psc, p = m.overcurrent_trip, m.short_circuit_trip, m.prospective_short_circuit, m.protector
+    psc, p = m.prospective_short_circuit, m.protector
+    permitted = m.event("permitted")
     sv = m.stack_voltage
     ch = m.design.charger
     for f in series:
         part, path = f.part, f.path + ("part",)
         if f.kind == "fuse":
             derated = m.limits.fuse_current(part)
-            if t is not None and t.max > derated:
+            i_ever = permitted.current_through(f.refdes) if permitted is not None else None
+            if i_ever is not None and i_ever > derated:
                 yield ctx.finding(
                     f"{f.refdes} carries {fq(derated, 'A')} derated ({fq(m.limits.fuse_derating * 100, '%', 2)} of "
-                    f"{fq(part.rated_current, 'A')}) but the electronics permit up to {fq(t.max, 'A')} "
-                    f"(over-current trip max): the fuse, not the protector, would act",
+                    f"{fq(part.rated_current, 'A')}) but the electronics permit {fq(i_ever, 'A')} "
+                    f"through it for ever (the permitted event, at {fq(permitted.ambient, '°C')} ambient): the fuse, not "
+                    f"the protector, would act",
                     path=path, element=f.refdes, key="rating",
-                    figures=[Figure("derated rating", derated, "A"), Figure("trip max", t.max, "A")],
-                    hint=f"use a fuse rated ≥ {fq(t.max / m.limits.fuse_derating, 'A')}")
+                    figures=[Figure("derated rating", derated, "A"),
+                             Figure("permitted current", i_ever, "A")],
+                    hint=f"use a fuse rated ≥ {fq(i_ever / m.limits.fuse_derating, 'A')}")
         vmax = max([sv.max if sv else 0.0] + ([ch.open_circuit_max] if ch else []))
         if part.rated_voltage < vmax:
             yield ctx.finding(
@@ -70,7 +78,7 @@ def check(ctx, options):
                 figures=[Figure("breaking capacity", part.breaking_capacity, "A"),
                          Figure("prospective short circuit", psc, "A")],
                 hint=f"use a fuse with breaking capacity ≥ {fq(psc, 'A')}")
-        if f.kind == "ptc" and t is not None and part.hold_current < m.design.load.continuous:
+        if f.kind == "ptc" and m.overcurrent_trip is not None and part.hold_current < m.design.load.continuous:
             yield ctx.finding(
                 f"{f.refdes} holds {fq(part.hold_current, 'A')}, below the continuous load "
                 f"{fq(m.design.load.continuous, 'A')}: it trips in normal use",
@@ -84,20 +92,39 @@ def check(ctx, options):
                 path=path, element=f.refdes, key="no-i2t", severity="info",
                 hint="add melting_i2t from the fuse data sheet")
             continue
-        allowed = part.melting_i2t * options.i2t_margin
-        events = []
-        if t is not None:
-            events.append(("over-current", t.max, p.part.overcurrent.delay.high))
-        if sc is not None and psc is not None and p.part.short_circuit is not None:
-            events.append(("short-circuit", psc, p.part.short_circuit.delay.high))
-        for what, current, delay in events:
-            i2t = current * current * delay  # rectangular pulse, I²·t [published: definition]
-            if i2t > allowed:
-                yield ctx.finding(
-                    f"{f.refdes} lets through {fq(i2t, 'A²s')} during the longest {what} delay "
-                    f"({fq(current, 'A')} for {fq(delay, 's')}), above {fq(options.i2t_margin * 100, '%', 2)} of "
-                    f"its melting I²t {fq(part.melting_i2t, 'A²s')}: the fuse may blow before the "
-                    f"protector acts", path=path, element=f.refdes, key=f"i2t-{what}",
-                    figures=[Figure("let-through I²t", i2t, "A²s"), Figure("melting I²t", part.melting_i2t, "A²s")],
-                    hint=f"use a fuse with melting I²t ≥ {fq(i2t / options.i2t_margin, 'A²s')}, or a "
-                         f"protector with a shorter {what} delay")
+        yield from _coordination(ctx, options, m, f, path)
+
+
+def _coordination(ctx, options, m, f, path):
+    """The fuse against each event the protector ends: it must not melt before the protector acts."""
+    part = f.part
+    points = [(pt.current, pt.time) for pt in part.pre_arcing] if part.pre_arcing else None
+    for event in (m.event("gap-overload"), m.event("hard-short")):
+        if event is None:
+            continue
+        current, i2t = event.current_through(f.refdes), event.i2t_through(f.refdes)
+        if not current > 0:
+            continue
+        limit = melt_limit(current, event.duration, part.rated_current, part.speed.value,
+                           part.melting_i2t, points)
+        if limit.i2t is None or i2t <= options.i2t_margin * limit.i2t:
+            continue
+        yield ctx.finding(
+            f"{f.refdes} lets through {fq(i2t, 'A²s')} in the {event.name} event ({fq(current, 'A')} "
+            f"for {fq(event.duration, 's')}, until the {event.detection} detection acts), "
+            f"{fq(i2t / limit.i2t * 100, '%', 2)} of the {fq(limit.i2t, 'A²s')} that melts it in that time "
+            f"({limit.basis}), above {fq(options.i2t_margin * 100, '%', 2)}: the fuse may blow before "
+            f"the protector acts", path=path, element=f.refdes, key=f"i2t-{event.name}",
+            figures=[Figure("let-through I²t", i2t, "A²s"), Figure("fuse limit I²t", limit.i2t, "A²s"),
+                     Figure("duration", event.duration, "s"), Figure("current", current, "A")],
+            hint=_hint(part, event, i2t / options.i2t_margin, points is None and limit.i2t == part.melting_i2t))
+
+
+def _hint(part, event, needed, melting_only):
+    long = event.duration > ADIABATIC_TIME
+    kind = " (a time-lag type)" if long and part.speed.value == "quick_acting" else ""
+    curve = ("; a time-lag fuse's own pre_arcing points may show it needs more than its melting "
+             "I²t" if long and melting_only and part.speed.value == "time_lag" else "")
+    return (f"use a fuse that needs ≥ {fq(needed, 'A²s')} to melt in {fq(event.duration, 's')}"
+            f"{kind}, or a protector with a shorter {event.detection} delay{curve}")
+

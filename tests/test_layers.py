@@ -18,6 +18,7 @@ MODEL_LAYERS = [
     {"topology"},
     {"path"},
     {"limits"},
+    {"events"},
     {"stress", "support", "storage"},
     {"design"},
     {"vector", "yield_"},

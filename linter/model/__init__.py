@@ -8,7 +8,9 @@ Layers, each importing only those above it in this list:
 * ``topology`` — what the netlist means for protection (stack, protector, switch channels, taps);
 * ``path`` — the power-path solver: the network at a stated corner, solved, cached;
 * ``limits`` — the limits a design is judged by (rule options after overrides, part ratings);
-* ``stress``, ``support``, ``storage`` — the worst cases built on the path;
+* ``events`` — events in time (continuous and peak load, the permitted current, the gap overload,
+  the hard short), each at its stated corner with its figures;
+* ``stress``, ``support``, ``storage`` — the worst cases built on the path and the events;
 * ``design`` — ``DesignModel``, the facade rules read (``ctx.model``);
 * ``vector``, ``yield_`` — the yield run: the same functions in vector form (imports numpy).
 
@@ -20,10 +22,10 @@ from typing import TYPE_CHECKING
 
 __all__ = ["DesignModel", "TripWindow", "OperatingPoint", "CellStack", "CellLimits",
            "SwitchChannel", "Span", "ModelProblem", "Limits", "JUNCTION_LIMIT", "FUSE_DERATING",
-           "TRACE_RISE", "CHARGE_MARGIN"]
+           "TRACE_RISE", "CHARGE_MARGIN", "Event"]
 
 _HOMES = {**dict.fromkeys(["DesignModel", "TripWindow"], "design"),
-          "OperatingPoint": "path",
+          "OperatingPoint": "path", "Event": "events",
           **dict.fromkeys(["CellStack", "CellLimits", "SwitchChannel"], "topology"),
           **dict.fromkeys(["Span", "ModelProblem"], "values"),
           **dict.fromkeys(["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE",
@@ -31,6 +33,7 @@ _HOMES = {**dict.fromkeys(["DesignModel", "TripWindow"], "design"),
 
 if TYPE_CHECKING:  # what editors and type checkers see
     from .design import DesignModel, TripWindow
+    from .events import Event
     from .limits import CHARGE_MARGIN, FUSE_DERATING, JUNCTION_LIMIT, TRACE_RISE, Limits
     from .path import OperatingPoint
     from .topology import CellLimits, CellStack, SwitchChannel

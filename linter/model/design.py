@@ -16,7 +16,7 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import storage, stress, support
+from . import events, storage, stress, support
 from .limits import Limits
 from .network import Network, NetworkError
 from .path import OperatingPoint, PowerPath
@@ -323,8 +323,18 @@ class DesignModel:
 
     @cached_property
     def short_circuit_pulse(self):
-        """The hard short until the protection ends it (stress.ShortCircuitPulse), or None."""
-        return stress.short_circuit_pulse(self)
+        """The hard short until the protection ends it (events.ShortCircuitPulse), or None."""
+        return events.short_circuit_pulse(self)
+
+    @cached_property
+    def events(self) -> tuple:
+        """The design's events in time, each at its stated corner (events.Event; docs/rules-api.md,
+        "Events"): continuous-load, peak-load, permitted, gap-overload, hard-short."""
+        return events.design_events(self)
+
+    def event(self, name: str):
+        """The event called ``name`` (events.EVENT_NAMES), or None when the design has none."""
+        return next((e for e in self.events if e.name == name), None)
 
     def turn_off_spike(self, ch: SwitchChannel):
         """The voltage a discharge switch sees interrupting a short (stress.TurnOffSpike), or None

@@ -22,6 +22,7 @@ __all__ = [
     "IEC60127_2_SHEET3", "IEC60127_2_SHEET5", "IEC60127_2_QUICK", "UL248_14", "GATE_SETS",
     "pulse_i2t", "melt_verdict", "pulse_i2t_fraction", "pulse_i2t_ok",
     "CONTINUOUS_DERATING", "max_continuous_current", "linear_ambient_factor",
+    "ADIABATIC_TIME", "gates_for", "pre_arcing_time", "MeltLimit", "melt_limit",
 ]
 
 INF = math.inf
@@ -233,3 +234,98 @@ def linear_ambient_factor(ambient: float, per_kelvin: float, reference: float = 
     if per_kelvin < 0.0 or not math.isfinite(per_kelvin):
         raise ValueError(f"per_kelvin must be finite and >= 0, got {per_kelvin}")
     return max(0.0, 1.0 - per_kelvin * max(0.0, ambient - reference))
+
+
+# --- the fuse's limit for an event ----------------------------------------------------------------
+
+#: Longest event judged by the constant melting I²t, seconds. Constant melting I²t holds only for
+#: short pulses, roughly under 5-10 ms [practice; docs/references.md "Fuses"]; the lower end is
+#: taken, so an event of 5 ms or less is a short pulse.
+ADIABATIC_TIME = 5e-3
+
+
+def gates_for(speed: str, rating: float) -> GateSet | None:
+    """The standard's gates for a fuse of ``speed`` ('quick_acting' | 'time_lag') and ``rating``.
+
+    Quick-acting: IEC 60127-2 sheets 1/2 [memory]. Time-lag: sheet 3 where its span covers the
+    rating (its lower time bounds are at or below sheet 5's, so it is the cautious choice for a
+    fuse of unknown breaking capacity), else UL 248-14 up to 30 A, else none.
+    """
+    if speed == "quick_acting":
+        return IEC60127_2_QUICK
+    for gates in (IEC60127_2_SHEET3, UL248_14):
+        if gates.rating_min <= rating <= gates.rating_max:
+            return gates
+    return None
+
+
+def pre_arcing_time(current: float, points: list[tuple[float, float]]) -> float:
+    """Pre-arcing time at ``current`` from a part's (current, time) points, seconds.
+
+    Straight lines in log(time) against log(current) between neighbours, as makers draw the
+    curves; at or below the lowest current, that point's time (a smaller current never melts
+    sooner [practice: every fuse's time-current curve is monotone]); above the highest current,
+    0: the points say nothing there.
+    """
+    pts = sorted(points)
+    if not pts or current <= 0.0:
+        raise ValueError("need points and a current > 0")
+    if current <= pts[0][0]:
+        return pts[0][1]
+    for (i0, t0), (i1, t1) in zip(pts, pts[1:]):
+        if i0 < current <= i1:
+            s = (math.log(current) - math.log(i0)) / (math.log(i1) - math.log(i0))
+            return math.exp(math.log(t0) + s * (math.log(t1) - math.log(t0)))
+    return 0.0
+
+
+@record(frozen=True)
+class MeltLimit:
+    """The least I²t that melts a fuse in an event, A²s, and what it rests on, in words.
+
+    ``i2t`` is None when nothing bounds it (no melting I²t and no time-current data)."""
+
+    i2t: float | None
+    basis: str
+    notes: tuple[str, ...] = ()
+
+
+def melt_limit(current: float, duration: float, rating: float, speed: str,
+               melting_i2t: float | None,
+               pre_arcing: list[tuple[float, float]] | None = None) -> MeltLimit:
+    """The fuse's limit for ``current`` held for ``duration``: the I²t that melts it then.
+
+    A short pulse (up to :data:`ADIABATIC_TIME`) melts at the melting I²t. A longer event follows
+    the time-current behaviour: I² times the pre-arcing time at that current (the part's own
+    points where given, else the lower bound of the standard's gates for its speed), never below
+    the melting I²t, the least I²t that melts the fuse at any duration (a longer event loses heat
+    to the leads and needs more) [practice; docs/references.md "Fuses"].
+    """
+    if duration <= ADIABATIC_TIME:
+        if melting_i2t is None:
+            return MeltLimit(None, "a short pulse: the fuse gives no melting I²t")
+        return MeltLimit(melting_i2t, "melting I²t (a short pulse)")
+    notes: tuple[str, ...] = ()
+    k = current / rating
+    if pre_arcing:
+        t = pre_arcing_time(current, pre_arcing)
+        source = "the part's pre-arcing curve"
+    else:
+        gates = gates_for(speed, rating)
+        if gates is None:
+            t = 0.0
+            source = f"no standard's gates cover a {rating:g} A {speed.replace('_', '-')} fuse"
+        else:
+            v = melt_verdict(current, duration, rating, gates)
+            t, source, notes = v.t_min, f"the {gates.name} gates", v.notes
+    curve = current * current * t
+    if melting_i2t is not None and melting_i2t >= curve:
+        verb = "give" if source.endswith("gates") else "gives"
+        return MeltLimit(melting_i2t, f"melting I²t: {source} {verb} no more at {k:.3g} × I_n"
+                         if t > 0.0 or source.startswith("the ") else f"melting I²t: {source}",
+                         notes)
+    if curve <= 0.0:
+        return MeltLimit(None, f"{source}, and the fuse gives no melting I²t", notes)
+    bound = "" if pre_arcing else "at least "  # the gates bound the time, the part's curve gives it
+    return MeltLimit(curve, f"{source}: pre-arcing {bound}{t * 1e3:.4g} ms at {k:.3g} × I_n",
+                     notes)

@@ -11,6 +11,7 @@ for it once.
 from __future__ import annotations
 
 import math
+from dataclasses import field
 from functools import cached_property
 from typing import Any
 
@@ -50,6 +51,9 @@ class OperatingPoint:
     converged: bool
     runaway: bool
     assumptions: tuple[str, ...]
+    #: The network solution the point's currents come from (probe load): the events read the
+    #: current of every other part of the path from it instead of solving again.
+    solution: Any = field(default=None, compare=False, repr=False)
 
 
 class PowerPath:
@@ -233,7 +237,7 @@ class PowerPath:
         else:
             converged = False
         return OperatingPoint(current, ambient, vgs, corner, rds, ich, share, tj, power, sense, path_r,
-                              converged, runaway, tuple(notes))
+                              converged, runaway, tuple(notes), sol)
 
     def solve(self, rds: dict[str, float], temp: float, corner: Corner,
               cell_r: float) -> tuple[Any, float, float]:

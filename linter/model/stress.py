@@ -14,6 +14,7 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from . import thermal
+from .events import ShortCircuitPulse, permitted_point, pulse_i2t, short_circuit_pulse
 from .network import NetworkError
 from .values import IDEAL, corner_value
 from ..records import record
@@ -157,48 +158,11 @@ def permitted_current_heat(m: "DesignModel") -> list[HeatCase]:
 
 def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
                   corner: str) -> list[HeatCase]:
-    """The current just below the trip, I = V_detect / R_sense(T_J), with T_J from I."""
+    """The current just below the trip at one corner (events.permitted_point), per package."""
+    pt = permitted_point(m, vdet, ambient, vgs, corner)
+    if pt is None:
+        return []
     packages = {ch.package: ch.part for ch in m.channels}
-    cell_r = _cell_r(m, corner)
-    tj = {pk: ambient for pk in packages}
-    runaway = False
-    notes: list[str] = []
-    state = None
-    previous: dict[str, tuple[float, float]] = {}
-    for _ in range(thermal.TRIP_ITERATIONS):
-        rds, notes = {}, []
-        for ch in m.channels:
-            rds[ch.name], n = m.channel_rds(ch, vgs, tj[ch.package], corner)
-            notes += [x for x in n if x not in notes]
-        sol, sense, _path = m.solve_path(rds, ambient, corner, cell_r)
-        if sol is None or not math.isfinite(sense) or sense <= 0:
-            return []
-        i_load = abs(sol.current("(load)"))
-        current = vdet / sense
-        share = {ch.name: abs(sol.current(ch.name)) / i_load for ch in m.channels}
-        ich = {name: f * current for name, f in share.items()}
-        power = {pk: 0.0 for pk in packages}
-        for ch in m.channels:
-            power[ch.package] += ich[ch.name] ** 2 * rds[ch.name]
-        state = (current, rds, ich, power)
-        target = {pk: ambient + power[pk] * packages[pk].theta_ja for pk in packages}
-        delta = max(abs(target[pk] - tj[pk]) for pk in packages)
-        if delta < thermal.TJ_TOLERANCE:
-            tj = target
-            break
-        # With the FETs as the sense resistance, P = V²/R falls as T_J rises and the plain
-        # iteration oscillates; damping settles it, and the secant (where it applies) in a few
-        # solves instead of tens.
-        step = {pk: thermal.accelerated_step(tj[pk], target[pk], previous.get(pk), thermal.TRIP_DAMPING)
-                for pk in packages}
-        previous = {pk: (tj[pk], target[pk] - tj[pk]) for pk in packages}
-        tj = step
-        if any(tj[pk] > packages[pk].tj_max + thermal.RUNAWAY_MARGIN for pk in packages):
-            runaway = True
-            break
-    else:
-        runaway = True
-    current, rds, ich, power = state
     what = "lowest" if corner == "min" else "highest"
     extra = (f"sustained current just below the over-current trip: detection max "
              f"{vdet * 1e3:.4g} mV over the sense resistance at the junction temperature it "
@@ -207,9 +171,10 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
     for pk in packages:
         chans = [ch for ch in m.channels if ch.package == pk]
         out.append(HeatCase(
-            "permitted", pk, packages[pk], current, {ch.name: ich[ch.name] for ch in chans},
-            {ch.name: rds[ch.name] for ch in chans}, power[pk], tj[pk], ambient, vgs, corner,
-            runaway, None, tuple(notes) + extra))
+            "permitted", pk, packages[pk], pt.current,
+            {ch.name: pt.channel_current[ch.name] for ch in chans},
+            {ch.name: pt.rds[ch.name] for ch in chans}, pt.power[pk], pt.tj[pk], ambient, vgs,
+            corner, pt.runaway, None, pt.assumptions + extra))
     return out
 
 
@@ -233,50 +198,8 @@ def dissipation_at(m: "DesignModel", h: HeatCase, temp: float) -> float:
     return sum((abs(sol.current(ch.name)) / i_load * current) ** 2 * rds[ch.name] for ch in chans)
 
 
-# --- short-circuit pulse ------------------------------------------------------------------------
-
-def pulse_i2t(current: float, duration: float) -> float:
-    """I²t of a rectangular pulse, A²s [published: definition of I²t]."""
-    if current < 0 or duration < 0 or not (math.isfinite(current) and math.isfinite(duration)):
-        raise ValueError(f"current and duration must be finite and >= 0, got {current}, {duration}")
-    return current * current * duration
-
-
-@record(frozen=True)
-class ShortCircuitPulse:
-    """A hard short across the pack terminals, until the protection turns it off.
-
-    ``current`` is the prospective short-circuit current (highest cell voltage over the lowest
-    cell, path and copper resistance); ``channel_current`` how it divides across the switch
-    channels (body diodes included); ``duration`` the longest delay of the detection that ends
-    it: the short-circuit detection when the current exceeds its trip maximum, otherwise the
-    over-current detection.
-    """
-
-    current: float
-    channel_current: dict
-    duration: float
-    detection: str  # "short-circuit" | "over-current"
-    rds: dict  # channel name -> Ω in the short-circuit solve
-
-    def i2t(self, channel: str) -> float:
-        return pulse_i2t(self.channel_current.get(channel, 0.0), self.duration)
-
-
-def short_circuit_pulse(m: "DesignModel") -> ShortCircuitPulse | None:
-    sol, rds = m.short_circuit_solution
-    p = m.protector
-    if sol is None or p is None:
-        return None
-    psc = abs(sol.current("(load)"))
-    sc = m.short_circuit_trip
-    if sc is not None and p.part.short_circuit is not None and psc > sc.max:
-        duration, detection = p.part.short_circuit.delay.high, "short-circuit"
-    else:
-        duration, detection = p.part.overcurrent.delay.high, "over-current"
-    ich = {ch.name: abs(sol.current(ch.name)) for ch in m.channels}
-    return ShortCircuitPulse(psc, ich, duration, detection, rds)
-
+# The short-circuit pulse (ShortCircuitPulse, short_circuit_pulse, pulse_i2t) lives in events.py,
+# the layer above: it is the hard-short event; the names stay importable from here.
 
 # --- turn-off spike -----------------------------------------------------------------------------
 
@@ -514,9 +437,10 @@ def _retries(threshold: Any) -> bool:
 def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -> list[RetryHeat]:
     """Retry pulses of every current protection that releases by ``auto_retry``.
 
-    Two faults: a hard short (the prospective short-circuit current, for the delay of the
-    detection that ends it) and an overload just below the short-circuit trip maximum (for the
-    longest over-current delay), which only the over-current detection catches. Currents come
+    Two faults, the hard-short and gap-overload events (events.py): a hard short (the
+    prospective short-circuit current, for the delay of the detection that ends it) and an
+    overload just below the short-circuit trip maximum (for the longest over-current delay),
+    which only the over-current detection catches. Currents come
     from the lowest-resistance solves; each channel dissipates at its highest on-resistance
     (lowest gate drive, max corner) at its junction temperature: a bound, since one circuit
     cannot be at both corners at once.
@@ -533,11 +457,11 @@ def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -
         if _retries(owner):
             events.append((name, owner, "a hard short across the pack terminals", pulse.current,
                            dict(pulse.channel_current), pulse.duration))
-    sc = m.short_circuit_trip
-    if _retries(oc) and sc is not None and (pulse is None or pulse.detection == "short-circuit"):
-        share = sc.at_max.share
+    gap = m.event("gap-overload")
+    if _retries(oc) and gap is not None:
         events.append(("overcurrent", oc, "an overload just below the short-circuit trip maximum",
-                       sc.max, {n: f * sc.max for n, f in share.items()}, oc.delay.high))
+                       gap.current, {ch.name: gap.current_through(ch.name) for ch in m.channels},
+                       gap.duration))
     out = []
     hot = m.ambient.max
     for name, thr, event, current, ich, duration in events:

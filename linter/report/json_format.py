@@ -36,6 +36,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         "broken_plugins": [{"plugin": o, "message": m} for o, m in run.broken_plugins],
         "designs": [{
             "file": d.file, "name": d.name, "figures": key_figures(d.figures),
+            "events": [event_dict(e) for e in d.events],
             "findings": [finding_dict(f) for f in d.findings],
             "internal_errors": [asdict(i) for i in d.internal],
             "skipped_rules": d.skipped,
@@ -57,6 +58,13 @@ def key_figures(figures: dict) -> dict:
     are, measures rounded to 6 significant digits (more than any input carries), and null where
     not finite."""
     return {name: _rounded(figures[name].value) for name in DECLARED if name in figures}
+
+
+def event_dict(event: dict) -> dict:
+    """An event as JSON writes it: its measures rounded as the key figures are, its element
+    figures by element name."""
+    return {k: ({n: _rounded(x) for n, x in v.items()} if isinstance(v, dict) else _rounded(v))
+            for k, v in event.items()}
 
 
 def _rounded(value):

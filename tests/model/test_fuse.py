@@ -158,3 +158,57 @@ def test_continuous_derating():
 def test_bad_inputs_raise(call):
     with pytest.raises(ValueError):
         call()
+
+
+# --- the fuse's limit for an event (the rule's melting check) ---------------------------------
+
+def test_a_short_pulse_melts_at_the_melting_i2t():
+    # docs/references.md "Fuses" [practice]: the constant melting I²t holds for short pulses
+    # (roughly under 5-10 ms). The 40 A, 540 µs vector pulse against a 95 A²s fuse: the limit is
+    # the melting I²t whatever the gates say.
+    lim = fuse.melt_limit(40.0, 540e-6, 12.0, "time_lag", 95.0)
+    assert lim.i2t == 95.0 and "short pulse" in lim.basis
+    assert fuse.melt_limit(40.0, 540e-6, 12.0, "time_lag", None).i2t is None
+
+
+def test_a_longer_event_follows_the_sheet_3_gates():
+    # docs/references.md "Fuses": sheet 3 [published], a 5 A time-lag fuse. 28.3 A is 5.66 I_n,
+    # between the 4 I_n and 10 I_n gates; a larger current never melts slower [practice], so the
+    # pre-arcing time is at least the 10 I_n minimum, 20 ms: the fuse needs 28.3² × 0.020 =
+    # 16.0 A²s to melt then, more than its 12 A²s melting I²t.
+    lim = fuse.melt_limit(28.3, 0.015, 5.0, "time_lag", 12.0)
+    assert lim.i2t == pytest.approx(28.3**2 * 0.020, rel=1e-12)
+    assert "sheet 3" in lim.basis
+
+
+def test_the_melting_i2t_is_a_floor_for_longer_events():
+    # docs/references.md "Fuses" [memory]: quick-acting, 2.75 I_n from about 10 ms. A 12 A quick
+    # fuse at 28.3 A (2.36 I_n, between the 2.1 and 2.75 I_n gates): at least 10 ms, 8.0 A²s;
+    # its melting I²t of 20 A²s is the least that melts it at any duration [practice], so 20.
+    lim = fuse.melt_limit(28.3, 0.015, 12.0, "quick_acting", 20.0)
+    assert lim.i2t == 20.0 and lim.basis.startswith("melting I²t")
+    # without a melting I²t the gates alone bound it
+    assert fuse.melt_limit(28.3, 0.015, 12.0, "quick_acting", None).i2t == pytest.approx(
+        28.3**2 * 0.010, rel=1e-12)
+
+
+def test_a_time_lag_fuse_beyond_every_sheet_has_no_gates():
+    # Sheet 3 covers 125 mA-6.3 A and UL 248-14 0-30 A [published]: a 60 A time-lag fuse has
+    # neither, so only its melting I²t (or its own curve) bounds a long event.
+    assert fuse.gates_for("time_lag", 60.0) is None
+    assert fuse.gates_for("time_lag", 12.0) is fuse.UL248_14
+    assert fuse.gates_for("time_lag", 5.0) is fuse.IEC60127_2_SHEET3
+    assert fuse.melt_limit(118.0, 0.12, 60.0, "time_lag", 1200.0).i2t == 1200.0
+
+
+def test_pre_arcing_points_reproduce_a_power_law():
+    # docs/references.md "Fuses" [derived]: a straight line in log-log is a power law, so points
+    # on t = 100/I² (a constant 100 A²s) give 100/20² = 0.25 s at 20 A, between 10 A and 40 A.
+    points = [(10.0, 1.0), (40.0, 100.0 / 40.0**2)]
+    assert fuse.pre_arcing_time(20.0, points) == pytest.approx(0.25, rel=1e-12)
+    # below the lowest current, never sooner than there [practice: monotone]; above, unknown
+    assert fuse.pre_arcing_time(5.0, points) == 1.0
+    assert fuse.pre_arcing_time(80.0, points) == 0.0
+    # the part's points rule over the gates: 20 A for 0.1 s needs 20² × 0.25 = 100 A²s
+    assert fuse.melt_limit(20.0, 0.1, 5.0, "quick_acting", 10.0, points).i2t == pytest.approx(
+        100.0, rel=1e-12)
