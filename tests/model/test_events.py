@@ -44,7 +44,8 @@ def test_rectangular_pulse_vector_through_the_hard_short(tmp_path):
     # docs/references.md "Fuses": I²t of a rectangular pulse = I²·t [published: definition];
     # vector [derived]: 40 A for 540 µs -> 0.864 A²s. 4.2 V over 75 mΩ + 2 × 15 mΩ = 40 A, ended
     # by the short-circuit detection (trip max 0.6 V / 30 mΩ = 20 A) after its longest delay.
-    hard = _model(tmp_path, cell_r="75 mΩ", rds="15 mΩ", pulse="30 A").event("hard-short")
+    hard = _model(tmp_path, cell_r="75 mΩ", rds="15 mΩ", pulse="30 A", id_max="30 A").event(
+        "hard-short")
     assert hard.current == pytest.approx(40.0, rel=1e-4)
     assert hard.duration == pytest.approx(540e-6)
     assert hard.i2t == pytest.approx(0.864, rel=1e-3)
