@@ -37,7 +37,7 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
          fail_on: Severity | None = None,
          progress: Callable[[int, int, str], None] | None = None,
          require: Iterable[str] = (), jobs: int | None = 1,
-         keep_models: bool = True) -> RunResult:
+         keep_models: bool = True, keep_events: bool = True) -> RunResult:
     """Lint every design found under ``paths``; ``progress(done, total, file)`` after each one.
 
     ``require`` names plugin distributions that must be installed (``--require-plugins``); with
@@ -48,7 +48,9 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
     processor for a batch of :data:`PARALLEL_MIN_DESIGNS` designs or more. Each worker keeps its
     own session, so a part library is read once per worker, and the results come back in the
     order of the designs, the same as in one process. Worker results carry no ``model``; nor do
-    any results when ``keep_models`` is False (the HTML report and ``--yield`` need them).
+    any results when ``keep_models`` is False (the HTML report and ``--yield`` need them); the
+    results carry the model's events only when ``keep_events`` is True (the JSON report writes
+    them; a batch of thousands of designs in another format need not hold them).
     """
     discovery_errors: list[InputError] = []
     found = discover(paths, discovery_errors)
@@ -68,7 +70,7 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
         require_plugins(reg, require, first_cfg)
     else:  # the caller chose the rules (a second pass of --since, tests): only its own demands
         require_plugins(reg, require)
-    session = Session(registry=reg, config_override=config)
+    session = Session(registry=reg, config_override=config, keep_events=keep_events)
     run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken), errors=discovery_errors)
     workers = worker_count(jobs, len(found), rebuildable=registry is None)
     if workers > 1:
@@ -132,11 +134,12 @@ _WORKER_SESSION: Session | None = None
 
 
 def _worker_start(registry: Registry | None, rule_paths: list[Path], config: Path | None,
-                  today: _dt.date) -> None:
+                  today: _dt.date, keep_events: bool = True) -> None:
     global _WORKER_SESSION
     if registry is None:
         registry = load_registry(rule_paths)
-    _WORKER_SESSION = Session(registry=registry, config_override=config, today=today)
+    _WORKER_SESSION = Session(registry=registry, config_override=config, today=today,
+                              keep_events=keep_events)
     # What the worker holds now (modules, schemas, rules) lives as long as the worker: keep the
     # cycle collector from walking it again for every design.
     import gc
@@ -178,7 +181,7 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
     # Its own session, as the other workers have theirs: this process's session learns the
     # configs and policies afterwards, in the order of the designs (see _adopt).
     here = Session(registry=session.registry, config_override=session.config_override,
-                   today=session.today)
+                   today=session.today, keep_events=session.keep_events)
     done = 0
 
     def finished(k: int, chunk_results: list[DesignResult]) -> None:
@@ -201,7 +204,7 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
     pool = futures.ProcessPoolExecutor(
         workers - 1, mp_context=ctx, initializer=_worker_start,
         initargs=(session.registry if _FORK else None, rule_paths, session.config_override,
-                  session.today))
+                  session.today, session.keep_events))
     running: dict[int, futures.Future] = {}
     front, back = 0, len(chunks)  # the pool takes chunks from the front, this process the back
     try:

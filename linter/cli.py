@@ -118,7 +118,8 @@ def check(
     try:
         run = lint(paths, config=config, fail_on=level, progress=bar,
                    require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()],
-                   jobs=1 if needs_models else jobs, keep_models=needs_models)
+                   jobs=1 if needs_models else jobs, keep_models=needs_models,
+                   keep_events=getattr(render, "needs_events", False))
     except RequiredPluginError as exc:
         sys.stderr.write(f"{exc}\n")
         raise typer.Exit(2)

@@ -90,6 +90,8 @@ class Session:
     roots: dict[Path, Path] = field(default_factory=dict)
     #: Schematic netlists read this run, by resolved path (or the error reading one gave).
     netlists: dict[Path, Any] = field(default_factory=dict)
+    #: Whether each result carries the model's events (the JSON report writes them).
+    keep_events: bool = True
 
     def root_for(self, folder: Path) -> Path:
         root = self.roots.get(folder)
@@ -218,7 +220,8 @@ def lint_file(session: Session, path: Path, shown: str,
     model = make_model(design, netlist, options)
     result.model = model
     result.figures = model_figures(model, result, doc)
-    result.events = model_events(model, result, doc)
+    if session.keep_events:
+        result.events = model_events(model, result, doc)
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root),

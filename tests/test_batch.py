@@ -125,3 +125,17 @@ def test_the_json_report_counts_both(batch: dict) -> None:
     good = [d for d in data["designs"] if d["file"] in batch["good"]]
     assert len(good) == 900 and all(d["figures"]["trip_current_max"] > 0 for d in good)
     assert data["exit_code"] == 2
+
+
+def test_events_are_kept_only_when_asked_for():
+    # A batch in a format that prints no events need not hold them (memory of a 10 000-design
+    # run); the JSON report asks for them, in one process or in workers alike.
+    examples = str(Path(__file__).resolve().parents[1] / "example_designs")
+    kept = lint([examples], jobs=1)
+    dropped = lint([examples], jobs=1, keep_events=False)
+    assert all(d.events for d in kept.designs if d.linted)
+    assert not any(d.events for d in dropped.designs)
+    assert [d.figures for d in kept.designs] == [d.figures for d in dropped.designs]
+    from packwarden.report import formatter
+    assert getattr(formatter("json"), "needs_events", False)
+    assert not getattr(formatter("text"), "needs_events", False)

@@ -53,6 +53,10 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                       allow_nan=False) + "\n"
 
 
+# The JSON report writes each design's events: the run keeps them for it (cli, batch.lint).
+render.needs_events = True  # type: ignore[attr-defined]
+
+
 def key_figures(figures: dict) -> dict:
     """A design's key figures as JSON writes them: by name in declaration order, counts as they
     are, measures rounded to 6 significant digits (more than any input carries), and null where
