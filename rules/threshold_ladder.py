@@ -31,7 +31,6 @@ def check(ctx, options):
         return
     part = p.part
     ppath = ("components", p.refdes, "part")
-    cpath = ("components", stack.cells[0].refdes, "part")
     assumed = "; ".join(limits.assumptions)
 
     def note(text):

@@ -1,6 +1,6 @@
 import math
 
-from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden import Example, Figure, Severity, format_quantity as fq, rule
 
 
 @rule(id="trip-current-window",
