@@ -152,9 +152,6 @@ def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
     for path, shown in chunk:
         result = _lint_one(_WORKER_SESSION, path, shown)
         result.model = None  # the model stays behind: it is large, and only this process has it
-        # The options are the config's, shared by its designs: the parent puts its own copy back
-        # (_adopt) rather than receive one per design.
-        result.options = {}
         out.append(result)
     return out
 
@@ -240,11 +237,10 @@ def _adopt(session: Session, found: list[tuple[Path, str]], results: list[Design
     the policies are read in the order the designs that ran their rules name them.
     """
     for (path, _), result in zip(found, results):
-        cfg, options, error = session.config_for(path)
+        cfg, _, error = session.config_for(path)
         if error is not None:
             result.errors = [error if str(e) == str(error) else e for e in result.errors]
         elif cfg is not None and result.linted:
-            result.options = options
             session.policy_for(cfg)
 
 

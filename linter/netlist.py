@@ -15,8 +15,6 @@ from .kinds import KINDS
 from .schema import INLINE_KINDS, PART_KINDS, Design, PartRef
 from .records import record
 
-TWO_TERMINAL = ("1", "2")
-
 #: Pins every part kind has: (required, optional), from its declaration in kinds.py. Lists of
 #: nets fill these in order.
 PIN_NAMES: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {

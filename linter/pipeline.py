@@ -294,28 +294,26 @@ def make_model(design: Design, netlist: Netlist, options: dict | None = None) ->
 
 
 def model_figures(model: Any, result: DesignResult, doc: Document | None = None) -> dict[str, Any]:
-    try:
-        return model.figures()
-    except DesignMistake as exc:  # nonsense the model met: the design's, on its line
-        result.errors.append(located(result, exc, doc))
-        return {}
-    except Exception as exc:  # the model must not take the run down; say where it broke
-        result.internal.append(InternalError("model", result.file, describe(exc)))
-        return {}
+    return _from_model(result, doc, model.figures, {})
 
 
 def model_events(model: Any, result: DesignResult,
                  doc: Document | None = None) -> list[dict[str, Any]]:
+    return _from_model(result, doc, lambda: [e.as_dict() for e in model.events], [])
+
+
+def _from_model(result: DesignResult, doc: Document | None, compute: Callable[[], Any],
+                empty: Any) -> Any:
+    """What ``compute`` asks of the model, or ``empty`` when it cannot: nonsense the model met
+    is the design's input error on its line; any other failure must not take the run down, and
+    says where it broke."""
     try:
-        return [e.as_dict() for e in model.events]
-    except DesignMistake as exc:  # as model_figures: the design's, on its line, said once
-        error = located(result, exc, doc)
-        if str(error) not in {str(e) for e in result.errors}:
-            result.errors.append(error)
-        return []
-    except Exception as exc:  # as model_figures
+        return compute()
+    except DesignMistake as exc:
+        add_mistake(result, exc, doc)
+    except Exception as exc:
         result.internal.append(InternalError("model", result.file, describe(exc)))
-        return []
+    return empty
 
 
 @record
@@ -366,9 +364,7 @@ def rule_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
                 # the project's severity override wins even where a rule chose one per finding
                 findings.append(replace(f, severity=override) if override else f)
         except DesignMistake as exc:  # the model met nonsense: one input error, not the rule's
-            error = located(result, exc, run.doc)
-            if str(error) not in {str(e) for e in result.errors}:
-                result.errors.append(error)
+            add_mistake(result, exc, run.doc)
         except (Exception, SystemExit) as exc:
             result.internal.append(InternalError(rid, result.file, describe(exc)))
     return findings
@@ -413,7 +409,6 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
               elsewhere: Callable[[tuple], Any] = _nowhere) -> None:
     """Every phase after the model (:data:`PHASES`), then each finding's fingerprint and order."""
     run = DesignRun(session, cfg, options, doc, design, netlist, model, result, elsewhere)
-    result.options = options
     findings: list[Finding] = []
     for phase in PHASES:
         findings = phase(run, findings)
@@ -435,11 +430,14 @@ def printable_finding(f: Finding) -> Finding:
     return replace(f, **{k: printable(t) if t is not None else None for k, t in texts.items()})
 
 
-def located(result: DesignResult, mistake: DesignMistake, doc: Document | None) -> InputError:
-    """A mistake the model met, as an input error at its path in the design file."""
+def add_mistake(result: DesignResult, mistake: DesignMistake, doc: Document | None) -> None:
+    """A mistake the model met, as an input error at its path in the design file; said once,
+    however many figures, events and rules run into it."""
     pos = doc.where(mistake.path) if doc is not None else None
-    return InputError(result.file, pos.line if pos else 1, pos.column if pos else 1,
-                      mistake.message)
+    error = InputError(result.file, pos.line if pos else 1, pos.column if pos else 1,
+                       mistake.message)
+    if str(error) not in {str(e) for e in result.errors}:
+        result.errors.append(error)
 
 
 def describe(exc: BaseException) -> str:

@@ -37,9 +37,6 @@ class DesignResult:
     #: that list passing checks (JUnit).
     checked: list[str] = field(default_factory=list)
     model: Any = None
-    #: Each rule's options as this design was linted with them (its folder's config), by rule id:
-    #: the review report draws the limits the rules judged by.
-    options: dict[str, Any] = field(default_factory=dict)
 
 
 @record

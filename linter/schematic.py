@@ -31,7 +31,6 @@ if TYPE_CHECKING:  # pragma: no cover - the reader is imported only for designs 
     from .kicad import KicadNetlist, Node, Symbol
 
 
-
 @record
 class Components:
     """The design with every component in place, and where each one came from."""

@@ -144,7 +144,7 @@ class DesignModel:
             return None
         drive = p.part.gate_drive
         if drive != "cell":
-            return Span(float(drive), float(drive), float(drive))
+            return Span.exactly(float(drive))
         cv = self.cell_voltage
         if cv is None or self.stack is None:
             return None
