@@ -99,6 +99,10 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
     Kind("capacitor", "capacitor", _ENDS, 2),
     Kind("trace", "trace", _COPPER_ENDS, 2, _trace),
     Kind("wire", "wire", _COPPER_ENDS, 2, _given_or_ideal),
+    # Not in the power path: its switch is open in every steady state, and once the main
+    # switches close they short it (switch-on-inrush reads it).
+    Kind("precharge", "pre-charge path", {"1": "one side of the discharge switches",
+                                          "2": "the other side of the discharge switches"}, 2),
     # A diode symbol's pins are "A" and "K" [practice].
     Kind("diode", "diode", {"anode": "anode", "cathode": "cathode"}, 2,
          symbol_pins={"a": "anode", "k": "cathode"}),

@@ -449,6 +449,13 @@ class Load(Strict):
         "highest ambient (switch-temperature)"))
     peak: Peak | None = Field(default=None, description=(
         "a peak load above the continuous one, {current, duration}"))
+    input_capacitance: Q("F", gt=0, le=100.0) | None = Field(default=None, description=(
+        "capacitance across the load's input (a motor controller's bank), in farads, e.g. "
+        "'2200 uF'; with any capacitor the design places across the pack terminals it is charged "
+        "through the whole loop when the switches close (switch-on-inrush)"))
+    input_esr: Q("Ω", ge=0, le=1e3) | None = Field(default=None, description=(
+        "equivalent series resistance of that capacitance, in ohms, e.g. '15 mΩ'; part of the "
+        "inrush loop's resistance (taken as zero when absent, the highest peak)"))
 
     @model_validator(mode="after")
     def _peak_above(self) -> "Load":
@@ -456,6 +463,9 @@ class Load(Strict):
             raise inconsistent("peak.current", f"{_q(self.peak.current, 'A')} is below the "
                                                f"continuous load {_q(self.continuous, 'A')}; a "
                                                f"peak is at least the continuous load")
+        if self.input_esr is not None and self.input_capacitance is None:
+            raise inconsistent("input_esr", "an ESR without its input_capacitance; give the "
+                                            "capacitance it belongs to")
         return self
 
 
@@ -1023,6 +1033,35 @@ class Capacitor(Packaged):
     voltage: PositiveVolts | None = Field(default=None, description=(
         "voltage rating, in volts; the highest voltage across it must stay within a derated "
         "share of it, 80 % by default (support-network); when absent, not checked"))
+    esr: Q("Ω", ge=0, le=1e3) | None = Field(default=None, description=(
+        "equivalent series resistance, in ohms; across the pack terminals it is part of the "
+        "inrush loop (switch-on-inrush); taken as zero when absent"))
+
+
+class Precharge(Packaged):
+    """A pre-charge path: a resistor in series with its own switch, placed around the discharge
+    switches. The switch closes first and charges the load's capacitance through the resistor;
+    the main switches close a stated delay later."""
+
+    kind: Literal["precharge"] = Field(description="the part kind: 'precharge'")
+    resistance: Tol("Ω", gt=0, le=1e6) = Field(description=(
+        "pre-charge resistance (toleranced ohms, e.g. {typ: 47 Ω, tol: 5 %}); its lowest sets "
+        "the peak current and power, its highest how far the capacitance is charged when the "
+        "main switches close (switch-on-inrush)"))
+    switch_resistance: Q("Ω", ge=0, le=1e3) = Field(default=0.0, description=(
+        "on-resistance of the pre-charge switch, in ohms (zero when not given)"))
+    delay: Tol("s", gt=0, le=MAX_SECONDS) = Field(description=(
+        "time from closing the pre-charge switch to closing the main switches, set by whatever "
+        "sequences them (the protector's or the controller's timer), toleranced seconds; its "
+        "shortest is judged (switch-on-inrush)"))
+    pulse_energy: Q("J", gt=0, le=1e6) | None = Field(default=None, description=(
+        "single-pulse energy the resistor absorbs without damage, in joules, from its data "
+        "sheet's pulse curve; at least ½CV² of the charged capacitance (switch-on-inrush); when "
+        "absent, not checked"))
+    pulse_power: Q("W", gt=0, le=1e7) | None = Field(default=None, description=(
+        "peak power the resistor takes for a pulse as long as the charging time constant, in "
+        "watts; at least the peak power at switch-on (switch-on-inrush); when absent, not "
+        "checked"))
 
 
 class Layer(str, Enum):
@@ -1083,7 +1122,7 @@ class Diode(Packaged):
 PART_KINDS: dict[str, type[Strict]] = {
     "cell": Cell, "protector": Protector, "fet": Fet, "fet_pair_common_drain": FetPair,
     "fuse": Fuse, "ptc": Ptc, "resistor": Resistor, "capacitor": Capacitor, "trace": Trace,
-    "wire": Wire, "diode": Diode,
+    "wire": Wire, "diode": Diode, "precharge": Precharge,
 }
 
 Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items())],

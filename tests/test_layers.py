@@ -14,7 +14,7 @@ PACKAGES = (("linter", "packwarden"), ("rules", "packwarden_rules"))
 # The model's layers, bottom first; a module may import its own layer and those before it.
 MODEL_LAYERS = [
     {"values"},
-    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network"},
+    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush"},
     {"topology"},
     {"path"},
     {"limits"},

@@ -14,6 +14,7 @@ The events of this layer (see docs/rules-api.md, "Events"):
 * ``permitted`` — the highest current the over-current protection lets flow for ever;
 * ``gap-overload`` — the largest current only the over-current path clears, for its longest delay;
 * ``hard-short`` — a hard short across the pack terminals until the protection ends it.
+* ``switch-on-inrush`` — the charging pulse of the load's capacitance when the switches close.
 
 Units are SI: amperes, ohms, volts, watts, seconds, °C.
 """
@@ -24,18 +25,20 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
-from . import thermal
-from .values import SIGNAL_OHMS, corner_value
+from . import inrush, thermal
+from .values import SIGNAL_OHMS, corner_value, spread_low
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
     from .path import OperatingPoint
 
 __all__ = ["Event", "EVENT_NAMES", "design_events", "pulse_i2t", "PermittedPoint",
-           "permitted_point", "ShortCircuitPulse", "short_circuit_pulse"]
+           "permitted_point", "ShortCircuitPulse", "short_circuit_pulse", "InrushEvent",
+           "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths"]
 
 #: The events this layer computes, in the order a report lists them.
 EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short")
+EVENT_NAMES += ("switch-on-inrush",)
 
 
 def pulse_i2t(current: float, duration: float) -> float:
@@ -295,6 +298,9 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
                  f"resistance, for the longest {pulse.detection} delay")
         out.append(Event("hard-short", words, a.min, pulse.current, pulse.duration, currents, power,
                          vmax, pulse.detection))
+    inrush_event = _switch_on_inrush(m)
+    if inrush_event is not None:
+        out.append(inrush_event)
     return tuple(out)
 
 
@@ -321,3 +327,260 @@ def _permitted(m: "DesignModel", vgs: float, ambient: float) -> Event | None:
     return Event("permitted", words, ambient, pt.current, None, currents, power, None, None,
                  pt.assumptions + (("no steady state below tj_max: a lower bound",)
                                    if pt.runaway else ()))
+
+
+# --- switch-on inrush --------------------------------------------------------------------------
+
+@record(frozen=True)
+class InrushCorner:
+    """The switch-on pulse at one corner against one detection's thresholds at that corner:
+    above ``trip_max`` every unit detects it, above ``trip_min`` the most sensitive one."""
+
+    corner: str  # "lowest loop resistance" | "highest loop resistance"
+    peak: float  # A
+    loop_resistance: float  # Ω
+    time_constant: float  # s
+    trip_min: float  # A, the detection minimum over the sense resistance at this corner
+    trip_max: float  # A
+    time_above_min: float  # s
+    time_above_max: float  # s
+
+    def as_dict(self) -> dict[str, Any]:
+        return {"corner": self.corner, "peak": self.peak, "loop_resistance": self.loop_resistance,
+                "time_constant": self.time_constant, "trip_min": self.trip_min,
+                "trip_max": self.trip_max, "time_above_min": self.time_above_min,
+                "time_above_max": self.time_above_max}
+
+
+@record(frozen=True)
+class InrushTrip:
+    """How long the switch-on pulse stays above one detection's trip window, against its shortest
+    delay, at each end of the loop resistance. The lowest loop resistance gives the highest peak;
+    the highest gives the longest pulse, and while the peak is over e times the threshold the
+    time above it, τ·ln(V/(R·I_th)), grows with R [derived: its derivative in R is
+    C·(ln(I_pk/I_th) - 1)]."""
+
+    detection: str  # "short-circuit" | "over-current"
+    delay_min: float  # s
+    corners: tuple  # InrushCorner, one per end of the loop resistance
+
+    @property
+    def longest(self) -> "InrushCorner":
+        """The corner longest above the trip maximum."""
+        return max(self.corners, key=lambda c: c.time_above_max)
+
+    @property
+    def longest_above_min(self) -> "InrushCorner":
+        return max(self.corners, key=lambda c: c.time_above_min)
+
+    @property
+    def trips(self) -> bool:
+        """Every unit trips: above the trip maximum for longer than the shortest delay."""
+        return self.longest.time_above_max > self.delay_min
+
+    @property
+    def may_trip(self) -> bool:
+        """The most sensitive unit trips: above the trip minimum for longer than the shortest delay."""
+        return self.longest_above_min.time_above_min > self.delay_min
+
+    def as_dict(self) -> dict[str, Any]:
+        return {"detection": self.detection, "delay_min": self.delay_min, "trips": self.trips,
+                "may_trip": self.may_trip, "corners": [c.as_dict() for c in self.corners]}
+
+
+@record(frozen=True)
+class PrechargeFigures:
+    """The pre-charge path's pulse and the step when the main switches close.
+
+    ``peak`` is the current as the pre-charge switch closes (lowest resistance, the rest of the
+    loop left out: a few milliohms against ohms); ``resistor_energy`` ½CV², all the capacitance
+    stores, an upper bound of the resistor's share; ``time_constant`` the slowest charge (highest
+    resistance, with the loop), which leaves ``voltage_left`` when the main switches close after
+    the shortest ``delay``.
+    """
+
+    refdes: str
+    resistance_min: float  # Ω
+    resistance_max: float  # Ω
+    switch_resistance: float  # Ω
+    peak: float  # A
+    resistor_power: float  # W at the peak
+    resistor_energy: float  # J
+    switch_power: float  # W at the peak
+    switch_energy: float  # J
+    time_constant: float  # s
+    delay: float  # s, the shortest
+    voltage_left: float  # V across the loop when the main switches close
+
+    def as_dict(self) -> dict[str, Any]:
+        return {"refdes": self.refdes, "resistance_min": self.resistance_min,
+                "resistance_max": self.resistance_max, "switch_resistance": self.switch_resistance,
+                "peak": self.peak, "resistor_power": self.resistor_power,
+                "resistor_energy": self.resistor_energy, "switch_power": self.switch_power,
+                "switch_energy": self.switch_energy, "time_constant": self.time_constant,
+                "delay": self.delay, "voltage_left": self.voltage_left}
+
+
+@record(frozen=True)
+class InrushEvent(Event):
+    """The switch-on pulse through the main switches (after pre-charge, when there is one).
+
+    ``current`` is its peak and ``duration`` its time constant τ; ``i2t`` is the exponential
+    pulse's I_pk²·τ/2. ``capacitance`` and ``esr`` are the bank's (the load's input and every
+    capacitor across the terminals, ``sources``: (where, F, Ω)); ``loop_resistance`` the whole
+    loop's, ESR included; ``energy`` what the loop dissipates; ``trips`` each detection's window
+    against the pulse; ``precharge`` the pre-charge path's figures, or None.
+    """
+
+    capacitance: float = 0.0
+    esr: float = 0.0
+    loop_resistance: float = math.inf
+    energy: float = 0.0
+    sources: tuple = ()
+    trips: tuple = ()
+    precharge: PrechargeFigures | None = None
+
+    @property
+    def time_constant(self) -> float:
+        return self.duration or 0.0
+
+    @property
+    def i2t(self) -> float | None:
+        return self.current * self.current * self.time_constant / 2.0
+
+    def i2t_through(self, element: str) -> float | None:
+        i = self.current_through(element)
+        return i * i * self.time_constant / 2.0
+
+    def as_dict(self) -> dict[str, Any]:
+        out = super().as_dict()
+        out.update(capacitance=self.capacitance, esr=self.esr,
+                   loop_resistance=self.loop_resistance, time_constant=self.time_constant,
+                   energy=self.energy,
+                   sources=[{"where": w, "capacitance": c, "esr": r} for w, c, r in self.sources],
+                   trips=[t.as_dict() for t in self.trips],
+                   precharge=self.precharge.as_dict() if self.precharge else None)
+        return out
+
+
+def inrush_bank(m: "DesignModel") -> tuple[tuple[str, float, float], ...]:
+    """The capacitance the switches close onto: (where, F, ESR Ω) for the load's input
+    (``"load"``) and each capacitor the netlist places across the pack terminals (by reference)."""
+    out = []
+    load = m.design.load
+    if load.input_capacitance is not None:
+        out.append(("load", load.input_capacitance, load.input_esr or 0.0))
+    terminals = set(m.terminals)
+    for c in m.netlist.of_kind("capacitor"):
+        if c.part is not None and {c.pins.get("1"), c.pins.get("2")} == terminals:
+            out.append((c.refdes, c.part.value, c.part.esr or 0.0))
+    return tuple(out)
+
+
+def precharge_paths(m: "DesignModel") -> tuple[tuple[Any, bool], ...]:
+    """Each pre-charge component with whether it bridges the discharge switches: one pin on a
+    discharge channel's end, the other on the far end of the discharge channels or of the whole
+    switch chain (discharge and charge channels), so it carries the charge around them."""
+    discharge = {n for ch in m.channels_of("discharge") for n in (ch.drain, ch.source)}
+    chain = {n for ch in m.channels for n in (ch.drain, ch.source)}
+    out = []
+    for c in m.netlist.of_kind("precharge"):
+        if c.part is None:
+            continue  # an unknown part: unknown-part's finding
+        a, b = c.pins.get("1"), c.pins.get("2")
+        out.append((c, a != b and a in chain and b in chain and bool({a, b} & discharge)))
+    return tuple(out)
+
+
+def _switch_on_inrush(m: "DesignModel") -> InrushEvent | None:
+    """The charging pulse of the bank at switch-on, where it is highest: the highest stack
+    voltage over the lowest loop resistance, the corner of the hard short (whose solve gives the
+    loop's resistance: the pack's current into its terminals, no second solve), the bank empty."""
+    sources = inrush_bank(m)
+    c_bank, esr = inrush.equivalent_bank((c, r) for _, c, r in sources)
+    sv, gd, a = m.stack_voltage, m.gate_drive, m.ambient
+    sol, rds = m.short_circuit_solution
+    if c_bank <= 0 or sol is None or sv is None or gd is None:
+        return None
+    pos, neg = m.terminals
+    i_short = abs(sol.current("(load)"))
+    v_terminals = sol.voltage_between(pos, neg)
+    if not i_short > 0 or v_terminals is None:
+        return None
+    emf = sv.max
+    source_r = (emf - abs(v_terminals)) / i_short  # cells, switches, shunt, fuse, copper
+    loop_r = source_r + esr
+    full = inrush.RcPulse(emf, loop_r, c_bank)
+    paths = [c for c, ok in precharge_paths(m) if ok]
+    pre = _precharge(paths[0], emf, loop_r, c_bank, full.energy) if paths else None
+
+    def pulse_at(ohms: float) -> inrush.RcPulse:
+        # The main switches close onto the bank, or onto what the pre-charge left of it.
+        if pre is None:
+            return inrush.RcPulse(emf, ohms, c_bank)
+        tau = (pre.resistance_max + pre.switch_resistance + ohms) * c_bank
+        return inrush.RcPulse(inrush.voltage_left(emf, tau, pre.delay), ohms, c_bank)
+
+    main = pulse_at(loop_r)
+    ends = [("lowest loop resistance", main, False)]
+    # The other end of the loop resistance: every part at its highest, the highest ambient, the
+    # switches warm from the continuous load (switched on again after running): the trip
+    # windows' own point, already solved.
+    window = m.short_circuit_trip or m.overcurrent_trip
+    if window is not None:
+        cells_r = (corner_value(m.stack.part.internal_resistance, "max") * m.stack.series
+                   / m.stack.parallel)
+        hot_r = cells_r + window.at_min.path_resistance + esr
+        if math.isfinite(hot_r) and hot_r > loop_r:
+            ends.append(("highest loop resistance", pulse_at(hot_r), True))
+    p = m.protector
+    trips = []
+    for detection, window, threshold in (("short-circuit", m.short_circuit_trip,
+                                          p.part.short_circuit),
+                                         ("over-current", m.overcurrent_trip, p.part.overcurrent)):
+        if window is None or threshold is None:
+            continue
+        corners = []
+        for words, pulse, highest in ends:
+            op = window.at_min if highest else window.at_max
+            lo = threshold.detect.low / op.sense_resistance
+            hi = threshold.detect.high / op.sense_resistance
+            corners.append(InrushCorner(words, pulse.peak, pulse.ohms, pulse.time_constant, lo, hi,
+                                        pulse.time_above(lo), pulse.time_above(hi)))
+        trips.append(InrushTrip(detection, spread_low(threshold.delay), tuple(corners)))
+    scale = main.peak / i_short
+    ich = {ch.name: abs(sol.current(ch.name)) * scale for ch in m.channels}
+    currents, power = _figures(m, main.peak, ich, rds, sol, a.min, "min")
+    if pre is not None:
+        currents[pre.refdes] = pre.peak
+        power[pre.refdes] = pre.resistor_power + pre.switch_power
+    tripping = next((t.detection for t in trips if t.trips), None)
+    state = "bank empty"
+    if pre is not None:
+        state = (f"after pre-charge through {pre.refdes} for its shortest delay "
+                f"{pre.delay * 1e3:.4g} ms (highest resistance, the slowest charge)")
+    words = (f"switch-on into {c_bank * 1e6:.4g} µF: highest stack voltage {emf:.4g} V, lowest "
+             f"ambient {a.min:g} °C, {_drive(gd.max, 'min')}, cells at their lowest internal "
+             f"resistance, {state}")
+    notes = ()
+    if len(paths) > 1:
+        notes = (f"{len(paths)} pre-charge paths: {paths[0].refdes} is taken",)
+    return InrushEvent("switch-on-inrush", words, a.min, main.peak, main.time_constant, currents,
+                       power, emf, tripping, notes, c_bank, esr, loop_r, main.energy, sources,
+                       tuple(trips), pre)
+
+
+def _precharge(c: Any, emf: float, loop_r: float, farads: float, energy: float) -> PrechargeFigures:
+    """The pre-charge pulse of component ``c``: its peak at the lowest resistance (the rest of the
+    loop, milliohms against ohms, left out: a higher peak), the resistor's energy as all the bank
+    takes (½CV², an upper bound of its share), the slowest charge at its highest resistance with
+    the loop, and the voltage left when the main switches close after the shortest delay."""
+    part = c.part
+    r_min, r_max = spread_low(part.resistance), part.resistance.high
+    r_sw = part.switch_resistance
+    delay = spread_low(part.delay)
+    i_pre = emf / (r_min + r_sw)
+    tau = (r_max + r_sw + loop_r) * farads
+    return PrechargeFigures(c.refdes, r_min, r_max, r_sw, i_pre, i_pre * i_pre * r_min, energy,
+                            i_pre * i_pre * r_sw, energy * r_sw / (r_min + r_sw), tau, delay,
+                            inrush.voltage_left(emf, tau, delay))

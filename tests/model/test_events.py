@@ -35,7 +35,9 @@ def orchard():
 
 
 def test_the_events_in_order_and_cached(orchard):
-    assert [e.name for e in orchard.events] == list(events.EVENT_NAMES)
+    names = [e.name for e in orchard.events]
+    # in the declared order; the switch-on inrush only where a capacitance sits across the terminals
+    assert names == [n for n in events.EVENT_NAMES if n != "switch-on-inrush"]
     assert orchard.events is orchard.events
     assert orchard.event("no-such-event") is None
 
@@ -122,7 +124,7 @@ def test_the_json_report_lists_the_events():
     out = json.loads(formatter("json")(run, RenderOptions()))
     (design,) = out["designs"]
     names = [e["name"] for e in design["events"]]
-    assert names == list(events.EVENT_NAMES)
+    assert names == [n for n in events.EVENT_NAMES if n != "switch-on-inrush"]
     gap = design["events"][names.index("gap-overload")]
     assert set(gap) >= {"name", "corner", "current", "duration", "i2t", "dissipation"}
     assert gap["dissipation"]["Q1"] > 0 and gap["duration"] == 0.015
