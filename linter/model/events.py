@@ -493,9 +493,10 @@ def precharge_paths(m: "DesignModel") -> tuple[tuple[Any, bool], ...]:
 
 
 def _switch_on_inrush(m: "DesignModel") -> InrushEvent | None:
-    """The charging pulse of the bank at switch-on, where it is highest: the highest stack
-    voltage over the lowest loop resistance, the corner of the hard short (whose solve gives the
-    loop's resistance: the pack's current into its terminals, no second solve), the bank empty."""
+    """The charging pulse of the bank at switch-on, the bank empty, where it is highest: the
+    highest stack voltage over the lowest loop resistance, the corner of the hard short (whose
+    solve gives the loop's resistance: the pack's current into its terminals, no second solve).
+    Each detection judges it there and at the highest loop resistance, where it lasts longer."""
     sources = inrush_bank(m)
     c_bank, esr = inrush.equivalent_bank((c, r) for _, c, r in sources)
     sv, gd, a = m.stack_voltage, m.gate_drive, m.ambient
@@ -510,6 +511,8 @@ def _switch_on_inrush(m: "DesignModel") -> InrushEvent | None:
     emf = sv.max
     source_r = (emf - abs(v_terminals)) / i_short  # cells, switches, shunt, fuse, copper
     loop_r = source_r + esr
+    if not (loop_r > 0 and math.isfinite(loop_r)):
+        return None  # nothing limits the pulse: the hard short's findings say why
     full = inrush.RcPulse(emf, loop_r, c_bank)
     paths = [c for c, ok in precharge_paths(m) if ok]
     pre = _precharge(paths[0], emf, loop_r, c_bank, full.energy) if paths else None
