@@ -67,19 +67,11 @@ def run_op(netlist: str) -> dict[str, float]:
     return values
 
 
-@dataclass(frozen=True)
-class SpiceResult:
-    voltages: dict[str, float | None]
-    currents: dict[str, float]
-
-
-def simulate(network: Network, ground: str, *, diode: DiodeModel = "pwl",
-             junction_is: float = 1e-12, junction_n: float = 1.0) -> SpiceResult:
-    """Node voltages (against ``ground``) and branch currents of ``network`` from ngspice.
-
-    ``junction_is``/``junction_n`` set the saturation current and emission coefficient of the
-    junction diode model; a diode's ``r_on`` becomes its series resistance either way.
-    """
+def element_lines(network: Network, ground: str, *, diode: DiodeModel = "pwl",
+                  junction_is: float = 1e-12, junction_n: float = 1.0
+                  ) -> tuple[dict[str, str], list[str], dict[str, str]]:
+    """(node of each net, the netlist's element and model lines, ammeter of each branch): one
+    SPICE element per branch, each behind a 0 V source that reads its current."""
     node = {net: ("0" if net == ground else f"n{i}") for i, net in enumerate(network.nets)}
     lines = ["* packwarden network"]
     ammeters: dict[str, str] = {}
@@ -113,6 +105,24 @@ def simulate(network: Network, ground: str, *, diode: DiodeModel = "pwl",
             lines += body
             ammeters[br.name] = f"vam{k}#branch"
     lines += models
+    return node, lines, ammeters
+
+
+@dataclass(frozen=True)
+class SpiceResult:
+    voltages: dict[str, float | None]
+    currents: dict[str, float]
+
+
+def simulate(network: Network, ground: str, *, diode: DiodeModel = "pwl",
+             junction_is: float = 1e-12, junction_n: float = 1.0) -> SpiceResult:
+    """Node voltages (against ``ground``) and branch currents of ``network`` from ngspice.
+
+    ``junction_is``/``junction_n`` set the saturation current and emission coefficient of the
+    junction diode model; a diode's ``r_on`` becomes its series resistance either way.
+    """
+    node, lines, ammeters = element_lines(network, ground, diode=diode, junction_is=junction_is,
+                                          junction_n=junction_n)
     lines += [
         f".option rshunt={_RSHUNT!r} reltol=1e-9 abstol=1e-15 vntol=1e-12",
         ".control", "set numdgt=15", "op", "print all", "quit 0", ".endc", ".end", ""]
