@@ -49,6 +49,7 @@ UNITS: dict[str, Unit] = {
     "F": Unit("F", "farads", minimum=0.0),
     "H": Unit("H", "henries", minimum=0.0),
     "W": Unit("W", "watts", minimum=0.0),
+    "J": Unit("J", "joules", minimum=0.0),
     "s": Unit("s", "seconds", ("sec",), minimum=0.0),
     "Ah": Unit("Ah", "ampere-hours", minimum=0.0, exclusive=True),
     "%": Unit("%", "percent", prefixes=False),
@@ -270,7 +271,7 @@ def _check_bounds(value: float, spec: Unit) -> float:
 def example(spec: Unit) -> str:
     return {"V": "4.25 V", "A": "1.2 A", "Ω": "22 mΩ", "F": "100 nF", "H": "500 nH",
             "W": "0.25 W", "s": "40 ms", "Ah": "3.4 Ah", "%": "1 %", "°C": "-20 °C",
-            "K": "10 K", "K/W": "120 K/W", "A²s": "10 A²s", "m": "2 mm", "oz": "1 oz",
+            "J": "50 mJ", "K": "10 K", "K/W": "120 K/W", "A²s": "10 A²s", "m": "2 mm", "oz": "1 oz",
             "months": "12 months", "%/month": "2 %/month"}.get(spec.symbol, f"1 {spec.symbol}")
 
 
