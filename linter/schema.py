@@ -953,8 +953,9 @@ class FetCommon(Packaged):
         "tau}]}; the junction at the end of each event must stay below tj_max "
         "(switch-pulse-heat); when absent, the Z_th each event needs is stated"))
     e_as: Q("J", gt=0, le=1e3) | None = Field(default=None, description=(
-        "single-pulse avalanche energy rating E_AS, in joules; a turn-off spike past vds_max is "
-        "then judged by the energy it puts into the FET (short-circuit-stress)"))
+        "single-pulse avalanche energy rating E_AS, in joules, as the data sheet gives it (most "
+        "rate it from a 25 °C junction; give a derated figure for a hot start); a turn-off spike "
+        "past vds_max is then judged by the energy it puts into the FET (short-circuit-stress)"))
     soa: list[SoaPoint] | None = Field(default=None, min_length=1, max_length=50, description=(
         "safe-operating-area points, [{vds, current, pulse}], read off the chart's single-pulse "
         "lines; each event's drain current is checked against them where they decide "

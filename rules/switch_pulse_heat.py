@@ -30,7 +30,8 @@ def check(ctx, options):
         path = ctx.part_path(h.package)
         ev = h.event
         share = (f", at the worst share of the on-resistance spread (× {h.factor:.3g} of its "
-                 f"equal share)" if h.factor > 1.0 else "")
+                 f"equal share, the event's on-resistance kept: a bound)" if h.factor > 1.0
+                 else "")
         figures = [Figure("dissipation", h.power, "W"), Figure("duration", ev.duration, "s"),
                    Figure("start temperature", h.start, "°C"),
                    Figure("Z_th needed", h.needed, "K/W"), Figure("tj_max", h.part.tj_max, "°C")]
