@@ -168,4 +168,10 @@ class RuleContext:
     def component_path(self, refdes: str, *rest: str) -> tuple:
         return ("components", refdes, *rest)
 
+    def part_path(self, refdes: str) -> tuple:
+        """Path of a component's part: its library name under ``part``, or the component itself
+        where the part is written inline."""
+        c = self.netlist.components[refdes]
+        return c.path + (("part",) if c.part_name else ())
+
 

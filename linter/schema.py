@@ -857,6 +857,63 @@ class HotRatio(Strict):
         "on-resistance curve, e.g. 1.44 (a plain number between 0.5 and 5)"))
 
 
+class ZthPoint(Strict):
+    """One point of a single-pulse transient thermal impedance curve."""
+
+    time: PositiveSeconds = Field(description="pulse width, in seconds, above 0")
+    zth: Q("K/W", gt=0, le=10e3) = Field(description=(
+        "single-pulse Z_th at that pulse width, junction to ambient on the board as built, in "
+        "K/W"))
+
+
+class FosterStage(Strict):
+    """One stage of a Foster network: Z_th(t) = Σ r·(1 − e^(−t/tau))."""
+
+    r: Q("K/W", gt=0, le=10e3) = Field(description="the stage's thermal resistance, in K/W")
+    tau: PositiveSeconds = Field(description="the stage's time constant, in seconds")
+
+
+class ThermalImpedance(Strict):
+    """A switch's single-pulse transient thermal impedance Z_th(t), as curve points or a Foster
+    network (one of the two)."""
+
+    points: list[ZthPoint] | None = Field(default=None, min_length=1, max_length=50, description=(
+        "points of the single-pulse curve, {time, zth}, rising in time; read as straight lines "
+        "on log-log axes, the first point's value before it and theta_ja after the last"))
+    foster: list[FosterStage] | None = Field(default=None, min_length=1, max_length=20,
+                                             description=(
+        "Foster network stages {r, tau}, as the data sheet tabulates them; it should describe "
+        "the junction to ambient on the board as built (a junction-to-case network understates "
+        "long pulses)"))
+
+    @model_validator(mode="after")
+    def _one(self) -> "ThermalImpedance":
+        if (self.points is None) == (self.foster is None):
+            raise ValueError("give either 'points' or 'foster'")
+        pts = self.points or []
+        for i, (a, b) in enumerate(zip(pts, pts[1:]), start=1):
+            if b.time <= a.time:
+                raise inconsistent(f"points.{i}.time", (
+                    f"{_q(b.time, 's')} is not after the point before ({_q(a.time, 's')}); give "
+                    f"the points in rising time"))
+            if b.zth < a.zth:
+                raise inconsistent(f"points.{i}.zth", (
+                    f"{_q(b.zth, 'K/W')} is below the point before ({_q(a.zth, 'K/W')}); a "
+                    f"single-pulse Z_th never falls as the pulse gets longer"))
+        return self
+
+
+class SoaPoint(Strict):
+    """One point of a safe-operating-area chart: a current the part carries at a drain-source
+    voltage for a single pulse of a width."""
+
+    vds: PositiveVolts = Field(description="drain-source voltage, in volts")
+    current: PositiveAmps = Field(description="drain current allowed there, in amperes")
+    pulse: PositiveSeconds = Field(description=(
+        "single-pulse width of the chart's line, in seconds (the DC line: a long time, e.g. "
+        "'1000 s')"))
+
+
 class FetCommon(Packaged):
     """Parameters every switch MOSFET gives, per channel for a pair."""
 
@@ -866,7 +923,8 @@ class FetCommon(Packaged):
     vds_max: PositiveVolts = Field(description=(
         "drain-source voltage rating V_DS (absolute maximum), in volts: the worst voltage the off "
         "switch blocks must stay within a derated share of it, 80 % by default "
-        "(switch-voltage-margin), a turn-off spike within it (short-circuit-stress)"))
+        "(switch-voltage-margin), a turn-off spike within it, or its energy within e_as "
+        "(short-circuit-stress)"))
     vgs_max: PositiveVolts = Field(description=(
         "gate-source voltage rating V_GS (absolute maximum), in volts; the highest gate drive "
         "must stay within a derated share of it, 70 % by default (switch-voltage-margin)"))
@@ -900,6 +958,18 @@ class FetCommon(Packaged):
     idss: LeakageAmps | None = Field(default=None, description=(
         "zero-gate-voltage drain leakage I_DSS at vds_max, in amperes; the discharge switches' "
         "leakage counts as a drain on a stored pack (storage-drain)"))
+    zth: ThermalImpedance | None = Field(default=None, description=(
+        "single-pulse transient thermal impedance, {points: [{time, zth}]} or {foster: [{r, "
+        "tau}]}; the junction at the end of each event must stay below tj_max "
+        "(switch-pulse-heat); when absent, the Z_th each event needs is stated"))
+    e_as: Q("J", gt=0, le=1e3) | None = Field(default=None, description=(
+        "single-pulse avalanche energy rating E_AS, in joules, as the data sheet gives it (most "
+        "rate it from a 25 °C junction; give a derated figure for a hot start); a turn-off spike "
+        "past vds_max is then judged by the energy it puts into the FET (short-circuit-stress)"))
+    soa: list[SoaPoint] | None = Field(default=None, min_length=1, max_length=50, description=(
+        "safe-operating-area points, [{vds, current, pulse}], read off the chart's single-pulse "
+        "lines; each event's drain current is checked against them where they decide "
+        "(switch-pulse-heat)"))
 
     @model_validator(mode="after")
     def _consistent(self) -> "FetCommon":

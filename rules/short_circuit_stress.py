@@ -1,3 +1,5 @@
+import math
+
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 
@@ -22,7 +24,11 @@ def check(ctx, options):
     pulse's I²t is reported beside it. Turning that current off through the pack wiring's
     inductance adds L·di/dt to the stack voltage across the discharge switch; past vds_max the
     FET avalanches (no derating here: avalanche is the physical limit — the derated margin is
-    switch-voltage-margin's). The fuse's side of the short is secondary-protection's."""
+    switch-voltage-margin's). Where the part gives its avalanche energy rating ``e_as``, the
+    energy it absorbs clamping the spike, ½·L·I²·V_BR/(V_BR − V_DD) [published in FET makers'
+    application notes; formula from memory], with V_BR taken as vds_max (the real breakdown lies
+    above it, so this errs high), is judged against it instead; without it the error stands and
+    states that energy. The fuse's side of the short is secondary-protection's."""
     m = ctx.model
     pulse = m.short_circuit_pulse
     if pulse is None:
@@ -59,15 +65,33 @@ def check(ctx, options):
                      f"resistance; a protector with a shorter short-circuit delay shortens the stress")
         spike = m.turn_off_spike(ch)
         if spike is not None and spike.total > ch.part.vds_max:
+            av, e_as = m.avalanche(ch), ch.part.e_as
+            if e_as is not None and av.energy <= e_as:
+                continue  # it clamps the spike in avalanche, within its rated energy
             yield ctx.finding(
                 f"{ch.name} (discharge switch) sees {fq(spike.total, 'V')} when it turns off a "
                 f"short ({spike.describe()}), above its vds_max {fq(ch.part.vds_max, 'V')}: it "
-                f"avalanches",
+                f"avalanches{_energy(av, e_as)}",
                 path=("pack", "wiring_inductance"), element=ch.package, key=f"spike-{ch.name}",
                 figures=[Figure("turn-off voltage", spike.total, "V"), Figure("spike", spike.spike, "V"),
                          Figure("wiring inductance", spike.inductance, "H"),
-                         Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V")],
-                hint=_spike_hint(spike, ch.part.vds_max))
+                         Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V"),
+                         Figure("avalanche energy", av.energy, "J")]
+                + ([Figure("e_as", e_as, "J")] if e_as is not None else []),
+                hint=_spike_hint(spike, ch.part.vds_max) + (
+                    "" if e_as is not None or not math.isfinite(av.energy) else
+                    f"; or, if its data sheet rates E_AS ≥ {fq(av.energy, 'J')}, give it as e_as"))
+
+
+def _energy(av, e_as):
+    """What the avalanche puts into the FET, against its rating where it gives one."""
+    if not math.isfinite(av.energy):
+        return ": the stack voltage alone is at its vds_max, so it cannot clamp the current down"
+    e = (f", absorbing {fq(av.energy, 'J')} (½·L·I²·V_BR/(V_BR − V_DD) with V_BR taken as "
+         f"vds_max and V_DD {fq(av.v_dd, 'V')})")
+    if e_as is None:
+        return e + "; the part gives no e_as to judge it by"
+    return e + f", above its e_as {fq(e_as, 'J')}"
 
 
 def _spike_hint(spike, vds_max):

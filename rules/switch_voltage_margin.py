@@ -39,6 +39,9 @@ def check(ctx, options):
         part, path = ch.part, ("components", ch.package, "part")
         cases = m.blocking_voltage(ch.role)
         spike = m.turn_off_spike(ch)
+        av = m.avalanche(ch)
+        if av is not None and part.e_as is not None and av.energy <= part.e_as:
+            spike = None  # it clamps in avalanche within its rated energy (short-circuit-stress)
         if spike is not None:
             # The turn-off spike of a short rides on the stack voltage; derated here like any
             # other peak, and against the bare rating (avalanche) in short-circuit-stress.

@@ -14,12 +14,12 @@ PACKAGES = (("linter", "packwarden"), ("rules", "packwarden_rules"))
 # The model's layers, bottom first; a module may import its own layer and those before it.
 MODEL_LAYERS = [
     {"values"},
-    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush"},
+    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush", "pulse"},
     {"topology"},
     {"path"},
     {"limits"},
     {"events"},
-    {"stress", "support", "storage"},
+    {"stress", "support", "storage", "survival"},
     {"design"},
     {"vector", "yield_"},
 ]

@@ -16,7 +16,7 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import events, storage, stress, support
+from . import events, storage, stress, support, survival
 from .limits import Limits
 from .network import Network, NetworkError
 from .path import OperatingPoint, PowerPath
@@ -345,6 +345,26 @@ class DesignModel:
     def conductor_loads(self) -> tuple:
         """Highest permitted current of every trace and wire (stress.ConductorLoad)."""
         return stress.conductor_loads(self)
+
+    @cached_property
+    def current_spread(self) -> dict:
+        """Channel -> how much more than its share it carries at the on-resistance spread
+        (survival.Spread), for channels with parallel peers."""
+        return survival.current_spread(self)
+
+    @cached_property
+    def current_sharing(self) -> tuple:
+        """Each event's channel currents at the worst spread (survival.ShareCase)."""
+        return survival.current_sharing(self)
+
+    @cached_property
+    def pulse_heat(self) -> tuple:
+        """Each switch package's junction at the end of each event (survival.PulseHeat)."""
+        return survival.pulse_heat(self)
+
+    def avalanche(self, ch: SwitchChannel):
+        """The avalanche energy of turning off a short past vds_max (survival.Avalanche), or None."""
+        return survival.avalanche(self, ch)
 
     @cached_property
     def storage_budget(self):
