@@ -162,15 +162,16 @@ def channel_resistance(m: "DesignModel", ch: "SwitchChannel", vgs: float, temp: 
     vth = threshold(ch, corner)
     if not vgs > vth:
         return None, ()
-    low = min(abs(p.vgs) for p in ch.part.rds_on)
+    # the lowest tabulated drive above the threshold: the curve runs through it to the threshold
+    low = min((abs(p.vgs) for p in ch.part.rds_on if abs(p.vgs) > vth), default=None)
     notes: tuple[str, ...] = ()
     try:
         r, notes = m.channel_rds(ch, vgs, temp, corner)
     except ValueError:
         r = None
-    if vgs < low:
+    if low is not None and vgs < low:
         r_low, low_notes = m.channel_rds(ch, low, temp, corner)
-        bound = r_low * (low - vth) / (vgs - vth) if low > vth else math.inf
+        bound = r_low * (low - vth) / (vgs - vth)
         if r is None or not (r >= bound):
             r, notes = bound, low_notes + (
                 f"{ch.name}: V_GS {vgs:.3g} V below the lowest tabulated {low:g} V in the short; "
@@ -231,7 +232,17 @@ def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
     emf = m.cell_voltage.max
     cell_r = corner_value(stack.part.internal_resistance, corner)
     knees = {ch.name: (BODY_DIODE_V_FORWARD, DEFAULT_DIODE_R_ON) for ch in m.channels}
+    thresholds = {ch.name: threshold(ch, corner) for ch in m.channels}
     vgs = {ch.name: gd.max for ch in m.channels}  # the short begins with the drive it had
+    # A channel's residual, target − V_GS, falls as its V_GS rises where the current takes drive
+    # away (the discharge switch). Near the threshold that fall is steep, and plain or secant
+    # steps swing between a starved and a conducting channel; once a residual changes sign the
+    # two drives either side bracket the root, and a step leaving the bracket is replaced by its
+    # midpoint [published: safeguarded secant, any numerical-analysis text]. A bracket kept
+    # through eight midpoints without settling is dropped: the other channels moved its root. A
+    # channel off at its drive and at its target is settled by its target alone.
+    brackets: dict[str, list] = {}
+    halvings = {k: 0 for k in vgs}
     previous: dict[str, tuple[float, float]] = {}
     notes: list[str] = []
     state = None
@@ -261,7 +272,24 @@ def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
             break
         step = {}
         for k, x in vgs.items():
-            step[k] = _next(x, residual[k], previous.get(k))
+            ch_vth = thresholds[k]
+            if x <= ch_vth and target[k] <= ch_vth:
+                step[k] = target[k]
+                continue
+            before = previous.get(k)
+            bracket = brackets.get(k)
+            if bracket is not None:
+                bracket[0 if residual[k] > 0 else 1] = x
+            elif before is not None and (residual[k] > 0) != (before[1] > 0):
+                bracket = brackets[k] = [x, before[0]] if residual[k] > 0 else [before[0], x]
+            nxt = _next(x, residual[k], before)
+            if bracket is not None and not min(bracket) < nxt < max(bracket):
+                nxt = 0.5 * (bracket[0] + bracket[1])
+                halvings[k] += 1
+                if halvings[k] >= 8:
+                    del brackets[k]
+                    halvings[k] = 0
+            step[k] = max(nxt, 0.0)
         previous = {k: (vgs[k], residual[k]) for k in vgs}
         vgs = step
     sol, vgs, rds, on = state

@@ -19,6 +19,7 @@ from packwarden.engine import lint
 from packwarden.model.network import DEFAULT_DIODE_R_ON
 from packwarden.model.short import BODY_DIODE_V_FORWARD
 from tests.model.spice import run_op
+from tests.model.test_multicell import RIDGE, _model
 
 REPO = Path(__file__).resolve().parents[2]
 
@@ -229,3 +230,63 @@ def test_hard_short_is_solved_once(orchard):
     assert orchard.hard_short is orchard.hard_short
     assert orchard.short_circuit_pulse.current == orchard.hard_short.current
     assert orchard.event("hard-short").current == orchard.hard_short.current
+
+
+# --- the fixed point holds on every topology ----------------------------------------------------
+
+def _gate_to_source(m, hs, ch) -> float:
+    """The V_GS a channel's node voltages give it in the short's own solution, written out from
+    the drive's wiring: a cell-driven n-channel gate sits at the protector's supply (the stack's
+    terminal voltage in the short) above its ground, a p-channel gate at that ground."""
+    sol, p = hs.solution, m.protector
+    ground = sol.voltage(p.pins["ground"])
+    stack = sol.voltage_between(m.stack.top, m.stack.bottom)
+    supply = stack if p.part.cells > 1 else stack / m.stack.series
+    source = sol.voltage(ch.source)
+    return ground + supply - source if ch.channel == "n" else source - ground
+
+
+@pytest.mark.parametrize("cell_r, fuse_r, vth", [
+    (15, 5, 0.8),     # the ngspice case
+    (200, 5, 2.4),    # a weak cell and a high threshold: the discharge channel just conducts
+    (60, 100, 2.4),   # a resistive path: the charge channel's drive rises with the current
+    (0.5, 0.001, 0.4),
+])
+def test_each_cell_driven_channel_has_the_drive_its_short_gives_it(tmp_path, cell_r, fuse_r, vth):
+    # Self-consistency of the solve [derived]: the V_GS each channel was solved with is the one its
+    # own node voltages give it, to a microvolt, near the threshold too.
+    rows = "\n".join(f"      - {{vgs: {v:g} V, typ: {_rds(v) * 1e3:.6g} mΩ, max: {_rds(v) * 1.3e3:.6g} mΩ}}"
+                     for v in ROWS)
+    (tmp_path / "packwarden.toml").write_text("")
+    (tmp_path / "lib.yaml").write_text(LIB.format(cell_r=cell_r, emf=EMF, vth=vth, rows=rows),
+                                       encoding="utf-8")
+    (tmp_path / "d.yaml").write_text(DESIGN.format(fuse_r=fuse_r), encoding="utf-8")
+    (result,) = lint([str(tmp_path / "d.yaml")]).designs
+    m = result.model
+    for hs in (m.hard_short, m.short_onset):
+        assert hs.converged
+        for ch in m.channels:
+            if hs.drive == "collapsed":
+                assert hs.channels[ch.name].vgs == pytest.approx(_gate_to_source(m, hs, ch), abs=2e-6)
+
+
+def test_a_cell_driven_high_side_pair_loses_its_drive_with_the_stack(tmp_path):
+    # The 4S2P pack's p-channel switches on the positive rail, driven from the stack: each gate
+    # is pulled to the protector's ground, so |V_GS| is its source's voltage above B−, which the
+    # short pulls down; the charge switches' sources on P+ sit a shunt's drop above B−.
+    m = _model(tmp_path, *RIDGE, lib_replace=(
+        ("    gate_drive: 12 V                   # clamped gate driver, 12 V below the source when on",
+         "    gate_drive: cell"),))
+    hs = m.hard_short
+    assert hs.converged and hs.drive == "collapsed"
+    for ch in m.channels:
+        assert hs.channels[ch.name].vgs == pytest.approx(_gate_to_source(m, hs, ch), abs=2e-6)
+    discharge = [hs.channels[c.name] for c in m.channels_of("discharge")]
+    charge = [hs.channels[c.name] for c in m.channels_of("charge")]
+    assert all(c.vgs < 0.25 * m.gate_drive.max for c in discharge)  # far below the 17.2 V stack
+    assert all(c.vgs < 1.5 for c in charge)  # a shunt's drop: hardly above the threshold
+    # a fixed 12 V driver would have held every V_GS
+    (tmp_path / "fixed").mkdir()
+    fixed = _model(tmp_path / "fixed", *RIDGE).hard_short
+    assert fixed.drive == "fixed" and {c.vgs for c in fixed.channels.values()} == {12.0}
+    assert fixed.current > hs.current
