@@ -290,3 +290,15 @@ def test_a_cell_driven_high_side_pair_loses_its_drive_with_the_stack(tmp_path):
     fixed = _model(tmp_path / "fixed", *RIDGE).hard_short
     assert fixed.drive == "fixed" and {c.vgs for c in fixed.channels.values()} == {12.0}
     assert fixed.current > hs.current
+
+
+@pytest.mark.parametrize("design", ["orchard-probe.yaml", "ridgeline-tool-4s2p.yaml",
+                                    "ridgeline-blower-4s2p-lowside.yaml"])
+def test_the_breaking_figure_is_never_below_the_short_as_it_happens(design):
+    # What a fuse must break is the highest current of the short: its onset at the lowest
+    # ambient holds at least as much drive, at switches at most as resistive, as the short as
+    # it goes on at 25 °C [derived: more drive and less resistance, more current].
+    (result,) = lint([str(REPO / "example_designs" / design)]).designs
+    m = result.model
+    assert m.prospective_short_circuit >= m.event("hard-short").current
+    assert m.short_onset.ambient == m.ambient.min
