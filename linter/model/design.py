@@ -18,10 +18,10 @@ from ..records import record
 from ..schema import Design, Toleranced
 from . import events, short, storage, stress, support
 from .limits import Limits
-from .network import Network, NetworkError
+from .network import Network
 from .path import OperatingPoint, PowerPath
 from .topology import CellLimits, CellStack, SwitchChannel, Topology
-from .values import IDEAL, DesignMistake, ModelProblem, Span, corner_value, spread_low
+from .values import DesignMistake, ModelProblem, Span, spread_low
 
 __all__ = ["DesignModel", "TripWindow", "Span", "ModelProblem", "OperatingPoint", "CellLimits",
            "CellStack", "SwitchChannel", "spread_low"]
