@@ -13,22 +13,23 @@ class Options(RuleOptions):
 @rule(id="short-circuit-stress",
       summary="the switches survive a hard short until the protection turns it off",
       severity=Severity.error, options=Options, example=Example(
-          bad="pack: {wiring_inductance: 200 nH}   # 118 A cut in 1 µs: 23.7 V spike + 4.3 V > 20 V",
-          good="pack: {wiring_inductance: 20 nH}    # 2.4 V spike + 4.3 V, within 20 V"))
+          bad="pack: {wiring_inductance: 200 nH}   # 110 A cut in 1 µs: 22 V spike + 4.3 V > 20 V",
+          good="pack: {wiring_inductance: 20 nH}    # 2.2 V spike + 4.3 V, within 20 V"))
 def check(ctx, options):
-    """A hard short across the pack terminals draws the prospective short-circuit current — the
-    highest cell voltage over the lowest cell, switch and copper resistance — through every switch
-    channel in the path, as the current divides between parallel packages, until the longest
-    short-circuit delay has passed (the over-current delay when the short does not reach the
-    short-circuit trip). Each channel must stay within its pulse drain current id_pulse_max; the
-    pulse's I²t is reported beside it. Turning that current off through the pack wiring's
-    inductance adds L·di/dt to the stack voltage across the discharge switch; past vds_max the
-    FET avalanches (no derating here: avalanche is the physical limit — the derated margin is
-    switch-voltage-margin's). Where the part gives its avalanche energy rating ``e_as``, the
-    energy it absorbs clamping the spike, ½·L·I²·V_BR/(V_BR − V_DD) [published in FET makers'
-    application notes; formula from memory], with V_BR taken as vds_max (the real breakdown lies
-    above it, so this errs high), is judged against it instead; without it the error stands and
-    states that energy. The fuse's side of the short is secondary-protection's."""
+    """A hard short across the pack terminals draws its current as it happens — the highest cell
+    voltage over the lowest cell, switch and copper resistance, each switch with the gate drive
+    the short leaves it (the hard-short event) — through every switch channel in the path, as
+    the current divides between parallel packages, until the longest short-circuit delay has
+    passed (the over-current delay when the short does not reach the short-circuit trip). Each
+    channel must stay within its pulse drain current id_pulse_max; the pulse's I²t is reported
+    beside it. Turning that current off through the pack wiring's inductance adds L·di/dt to the
+    stack voltage across the discharge switch; past vds_max the FET avalanches (no derating
+    here: avalanche is the physical limit — the derated margin is switch-voltage-margin's).
+    Where the part gives its avalanche energy rating ``e_as``, the energy it absorbs clamping
+    the spike, ½·L·I²·V_BR/(V_BR − V_DD) [published in FET makers' application notes; formula
+    from memory], with V_BR taken as vds_max (the real breakdown lies above it, so this errs
+    high), is judged against it instead; without it the error stands and states that energy. The
+    fuse's side of the short is secondary-protection's."""
     m = ctx.model
     pulse = m.short_circuit_pulse
     if pulse is None:
@@ -39,7 +40,7 @@ def check(ctx, options):
         path = _part_path(m, ch.package)
         limit = ch.part.id_pulse_max
         i2t = pulse.i2t(ch.name)
-        figures = [Figure("prospective short circuit", pulse.current, "A"),
+        figures = [Figure("hard-short current", pulse.current, "A"),
                    Figure("channel current", ich, "A"), Figure("duration", pulse.duration, "s"),
                    Figure("I²t", i2t, "A²s")]
         if limit is None:
@@ -51,8 +52,8 @@ def check(ctx, options):
                     path=path, element=ch.package, key="no-pulse-rating", severity="info",
                     figures=figures, hint="add id_pulse_max from the FET data sheet")
         elif ich > limit * options.pulse_margin:
-            of = (f"{ich / pulse.current * 100:.0f} % of the prospective {fq(pulse.current, 'A')}"
-                  if ich < 0.999 * pulse.current else f"the prospective {fq(pulse.current, 'A')}")
+            of = (f"{ich / pulse.current * 100:.0f} % of the short's {fq(pulse.current, 'A')}"
+                  if ich < 0.999 * pulse.current else f"all of the short's {fq(pulse.current, 'A')}")
             yield ctx.finding(
                 f"{ch.name} carries {fq(ich, 'A')} in a hard short ({of}) for up to "
                 f"{fq(pulse.duration, 's')}, the longest "

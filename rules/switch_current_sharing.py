@@ -4,12 +4,12 @@ from packwarden import Example, Figure, NoOptions, Severity, format_quantity as 
 
 
 def _worse(s, old) -> bool:
-    """The higher current; of two within 1 % (a short and a small capacitance charged through the
-    same loop), the longer, which heats the part most."""
-    if abs(s.worst - old.worst) > 0.01 * max(s.worst, old.worst):
-        return s.worst > old.worst
-    last = [math.inf if x.event.duration is None else x.event.duration for x in (s, old)]
-    return last[0] > last[1]
+    """Of two events that both exceed the rating, the one the part feels most: the larger I²t
+    (an event for ever outweighs any pulse), so a short of hundreds of microseconds is named
+    before a capacitor charged in nanoseconds through the same loop."""
+    weight = [math.inf if x.event.duration is None else x.worst ** 2 * x.event.duration
+              for x in (s, old)]
+    return weight[0] > weight[1]
 
 
 @rule(id="switch-current-sharing",

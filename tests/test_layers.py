@@ -18,7 +18,7 @@ MODEL_LAYERS = [
     {"topology"},
     {"path"},
     {"limits"},
-    {"events"},
+    {"events", "short"},
     {"stress", "support", "storage", "survival"},
     {"design"},
     {"vector", "yield_"},

@@ -16,12 +16,12 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import events, storage, stress, support, survival
+from . import events, short, storage, stress, support, survival
 from .limits import Limits
-from .network import Network, NetworkError
+from .network import Network
 from .path import OperatingPoint, PowerPath
 from .topology import CellLimits, CellStack, SwitchChannel, Topology
-from .values import IDEAL, DesignMistake, ModelProblem, Span, corner_value, spread_low
+from .values import DesignMistake, ModelProblem, Span, spread_low
 
 __all__ = ["DesignModel", "TripWindow", "Span", "ModelProblem", "OperatingPoint", "CellLimits",
            "CellStack", "SwitchChannel", "spread_low"]
@@ -270,30 +270,44 @@ class DesignModel:
 
 
     @cached_property
-    def short_circuit_solution(self) -> tuple[Any, dict]:
-        """(solution, channel on-resistances) of a hard short across the pack terminals.
+    def hard_short(self):
+        """The hard short as it happens (short.HardShort), or None: everything at the ambient
+        nearest 25 °C, where the cells' internal resistance is given and no part's value is a
+        guess at another temperature, every part and the cells at their lowest resistance, the
+        highest cell voltage, and each switch with the gate drive the short leaves it (a
+        cell-driven gate follows the collapsed cell voltage)."""
+        a = self.ambient
+        return short.hard_short(self, min(max(25.0, a.min), a.max), "min")
 
-        Highest cell voltage over the lowest cell and path resistance, switches fully on: the
-        lowest ambient, the highest gate drive, every part at its ``min`` corner.
+    @cached_property
+    def short_onset(self):
+        """The hard short at its onset, at the highest current a physical corner gives
+        (short.HardShort), or None: the breaking-capacity case.
+
+        One temperature, the lowest ambient, for cells, switches and path: switches and copper
+        are least resistive there. The cells' resistance is taken at its 25 °C minimum, the only
+        value the data sheet gives; a cell's resistance only rises as it cools [practice], so at
+        that one temperature this bounds the current from above (and a pack carried from indoors
+        into the cold, its board already cold and its cells still warm, comes close to it). The
+        protector's supply is held at its highest, the one it had before the short: when the
+        short begins its supply filter still holds it, so each cell-driven gate stays where it was
+        while the sources move with the short (the low-side charge switch's source on P− rises
+        with P+ at once); a fixed drive holds throughout.
         """
-        if self.stack is None or self.cell_voltage is None or self.gate_drive is None:
-            return None, {}
-        rds = {ch.name: self.channel_rds(ch, self.gate_drive.max, self.ambient.min, "min")[0]
-               for ch in self.channels}
-        net = self.network(rds, cell_emf=self.cell_voltage.max,
-                           cell_r=corner_value(self.stack.part.internal_resistance, "min"),
-                           temp=self.ambient.min, corner="min", load=IDEAL)
-        try:
-            return net.solve(ground=self.stack.bottom), rds
-        except NetworkError as exc:
-            self.problems.append(ModelProblem("network", str(exc)))
-            return None, rds
+        return short.hard_short(self, self.ambient.min, "min", held=True)
+
+    @cached_property
+    def short_circuit_solution(self) -> tuple[Any, dict]:
+        """(solution, channel on-resistances) of the hard short at its onset (:attr:`short_onset`)."""
+        onset = self.short_onset
+        return (onset.solution, onset.rds) if onset is not None else (None, {})
 
     @cached_property
     def prospective_short_circuit(self) -> float | None:
-        """Highest current a hard short across the pack terminals can draw, amperes."""
-        sol, _ = self.short_circuit_solution
-        return abs(sol.current("(load)")) if sol is not None else None
+        """Highest current a hard short across the pack terminals can draw, amperes: the onset of
+        the short at the lowest ambient (:attr:`short_onset`)."""
+        onset = self.short_onset
+        return onset.current if onset is not None else None
 
     # --- blocking ------------------------------------------------------------------------------
 
@@ -323,7 +337,8 @@ class DesignModel:
 
     @cached_property
     def short_circuit_pulse(self):
-        """The hard short until the protection ends it (events.ShortCircuitPulse), or None."""
+        """The hard short as it happens (:attr:`hard_short`) until the protection ends it
+        (events.ShortCircuitPulse), or None."""
         return events.short_circuit_pulse(self)
 
     @cached_property

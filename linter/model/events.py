@@ -22,6 +22,7 @@ Units are SI: amperes, ohms, volts, watts, seconds, °C.
 from __future__ import annotations
 
 import math
+from dataclasses import field
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
@@ -70,6 +71,12 @@ class Event:
     voltage: float | None = None
     detection: str | None = None
     assumptions: tuple[str, ...] = ()
+    #: By switch channel, where the event solves them (the hard short): the gate drive it sees
+    #: (V), what carries its current ("channel", "body diode", "channel and body diode") and
+    #: what it dissipates (W: I²·R in the channel, V_F·I in the body diode).
+    gate_voltage: dict = field(default_factory=dict)
+    conduction: dict = field(default_factory=dict)
+    channel_dissipation: dict = field(default_factory=dict)
 
     @property
     def i2t(self) -> float | None:
@@ -92,7 +99,9 @@ class Event:
                 "current": self.current,
                 "duration": self.duration, "i2t": self.i2t, "voltage": self.voltage,
                 "detection": self.detection, "element_current": dict(self.element_current),
-                "dissipation": dict(self.dissipation)}
+                "dissipation": dict(self.dissipation), "gate_voltage": dict(self.gate_voltage),
+                "conduction": dict(self.conduction),
+                "channel_dissipation": dict(self.channel_dissipation)}
 
 
 # --- the permitted current ---------------------------------------------------------------------
@@ -169,38 +178,40 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
 
 @record(frozen=True)
 class ShortCircuitPulse:
-    """A hard short across the pack terminals, until the protection turns it off.
+    """A hard short across the pack terminals as it happens, until the protection turns it off.
 
-    ``current`` is the prospective short-circuit current (highest cell voltage over the lowest
-    cell, path and copper resistance); ``channel_current`` how it divides across the switch
-    channels (body diodes included); ``duration`` the longest delay of the detection that ends
-    it: the short-circuit detection when the current exceeds its trip maximum, otherwise the
-    over-current detection.
+    ``current`` is the short's current with the gate drive it leaves the switches
+    (:attr:`DesignModel.hard_short`, :mod:`short`); ``channel_current`` how it divides across
+    the switch channels (body diodes included); ``duration`` the longest delay of the detection
+    that ends it: the short-circuit detection when the sense voltage of the short passes its
+    detection maximum, otherwise the over-current detection.
     """
 
     current: float
     channel_current: dict
     duration: float
     detection: str  # "short-circuit" | "over-current"
-    rds: dict  # channel name -> Ω in the short-circuit solve
+    rds: dict  # channel name -> Ω in the short-circuit solve (0 for a starved channel)
 
     def i2t(self, channel: str) -> float:
         return pulse_i2t(self.channel_current.get(channel, 0.0), self.duration)
 
 
 def short_circuit_pulse(m: "DesignModel") -> ShortCircuitPulse | None:
-    sol, rds = m.short_circuit_solution
-    p = m.protector
-    if sol is None or p is None:
+    hs, p = m.hard_short, m.protector
+    if hs is None or p is None:
         return None
-    psc = abs(sol.current("(load)"))
-    sc = m.short_circuit_trip
-    if sc is not None and p.part.short_circuit is not None and psc > sc.max:
-        duration, detection = p.part.short_circuit.delay.high, "short-circuit"
+    sc = p.part.short_circuit
+    if sc is not None and hs.sense_voltage is not None:
+        caught = hs.sense_voltage > sc.detect.high
+    else:
+        trip = m.short_circuit_trip
+        caught = sc is not None and trip is not None and hs.current > trip.max
+    if caught:
+        duration, detection = sc.delay.high, "short-circuit"
     else:
         duration, detection = p.part.overcurrent.delay.high, "over-current"
-    ich = {ch.name: abs(sol.current(ch.name)) for ch in m.channels}
-    return ShortCircuitPulse(psc, ich, duration, detection, rds)
+    return ShortCircuitPulse(hs.current, hs.channel_current, duration, detection, hs.rds)
 
 
 # --- the events of a design --------------------------------------------------------------------
@@ -290,14 +301,7 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
         out.append(_at_point(m, "gap-overload", at, p.part.overcurrent.delay.high, words,
                              "over-current", vmax, current=sc.max))
     if pulse is not None:
-        sol, _ = m.short_circuit_solution
-        currents, power = _figures(m, pulse.current, pulse.channel_current, pulse.rds, sol,
-                                   a.min, "min")
-        words = (f"hard short across the pack terminals: highest cell voltage, lowest ambient "
-                 f"{a.min:g} °C, {_drive(gd.max, 'min')}, cells at their lowest internal "
-                 f"resistance, for the longest {pulse.detection} delay")
-        out.append(Event("hard-short", words, a.min, pulse.current, pulse.duration, currents, power,
-                         vmax, pulse.detection))
+        out.append(_hard_short(m, pulse, vmax))
     inrush_event = _switch_on_inrush(m)
     if inrush_event is not None:
         out.append(inrush_event)
@@ -569,8 +573,9 @@ def _switch_on_inrush(m: "DesignModel") -> InrushEvent | None:
     if len(paths) > 1:
         notes = (f"{len(paths)} pre-charge paths: {paths[0].refdes} is taken",)
     return InrushEvent("switch-on-inrush", words, a.min, main.peak, main.time_constant, currents,
-                       power, emf, tripping, notes, c_bank, esr, loop_r, main.energy, sources,
-                       tuple(trips), pre)
+                       power, emf, tripping, notes, capacitance=c_bank, esr=esr,
+                       loop_resistance=loop_r, energy=main.energy, sources=sources,
+                       trips=tuple(trips), precharge=pre)
 
 
 def _precharge(c: Any, emf: float, loop_r: float, farads: float, energy: float) -> PrechargeFigures:
@@ -587,3 +592,27 @@ def _precharge(c: Any, emf: float, loop_r: float, farads: float, energy: float) 
     return PrechargeFigures(c.refdes, r_min, r_max, r_sw, i_pre, i_pre * i_pre * r_min, energy,
                             i_pre * i_pre * r_sw, energy * r_sw / (r_min + r_sw), tau, delay,
                             inrush.voltage_left(emf, tau, delay))
+
+
+def _hard_short(m: "DesignModel", pulse: ShortCircuitPulse, vmax: float | None) -> Event:
+    """The hard short as it happens (:mod:`short`), until the detection that ends it."""
+    hs = m.hard_short
+    currents, power = _figures(m, hs.current, hs.channel_current, {}, hs.solution, hs.ambient,
+                               hs.corner)
+    for package, watts in hs.package_power.items():
+        power[package] = watts
+    if hs.drive == "fixed":
+        drive = f"the fixed gate drive {m.gate_drive.max:.3g} V held by its driver"
+    else:
+        drive = ("the protector's supply and its gate outputs following the collapsed cell "
+                 f"voltage ({hs.describe_drive()})")
+    where = ("the temperature the cells' internal resistance is given at" if hs.ambient == 25.0
+             else "the ambient nearest the 25 °C the cells' internal resistance is given at")
+    words = (f"hard short across the pack terminals as it happens: everything at {hs.ambient:g} °C "
+             f"({where}), highest cell voltage {hs.emf:.4g} V, every part and the cells at their "
+             f"lowest resistance, {drive}, for the longest {pulse.detection} delay")
+    return Event("hard-short", words, hs.ambient, hs.current, pulse.duration, currents, power,
+                 vmax, pulse.detection, hs.assumptions,
+                 {n: c.vgs for n, c in hs.channels.items()},
+                 {n: c.conducts for n, c in hs.channels.items()},
+                 {n: c.power for n, c in hs.channels.items()})

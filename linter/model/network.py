@@ -403,6 +403,23 @@ class Network:
             copy._branches[name] = replace(branch, on=on)
         return copy
 
+    def with_body_diodes(self, knees: Mapping[str, tuple[float, float]]) -> Network:
+        """A copy whose named switches' body diodes take a knee and on-resistance
+        ``(v_forward, r_on)``: a diode's knee at the amperes of a short is not its knee at a
+        few amperes."""
+        copy = Network()
+        copy._branches = dict(self._branches)
+        copy._nets = dict(self._nets)
+        for name, (v_forward, r_on) in knees.items():
+            branch = self._branches.get(name)
+            if not isinstance(branch, Switch) or branch.body_diode is None:
+                raise NetworkError(f"{name!r} is not a switch with a body diode in this network")
+            diode = replace(branch.body_diode,
+                            v_forward=_check_finite(f"{name}: v_forward", v_forward, minimum=0.0),
+                            r_on=_check_positive(f"{name}: r_on", r_on))
+            copy._branches[name] = replace(branch, body_diode=diode)
+        return copy
+
     @property
     def nets(self) -> tuple[str, ...]:
         return tuple(self._nets)

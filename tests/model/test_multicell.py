@@ -5,6 +5,7 @@ from pathlib import Path
 import pytest
 
 from packwarden.testing import lint_variant
+from tests.model.spice import run_op
 
 REPO = Path(__file__).resolve().parents[2]
 RIDGE = ("ridgeline-tool-4s2p.yaml", "ridgeline-parts.yaml")
@@ -103,14 +104,43 @@ def test_blocking_voltages_of_the_stack(tmp_path):
     assert v == pytest.approx(18.5 - 10.6)
 
 
-def test_prospective_short_circuit_of_the_stack(tmp_path):
-    # Hand calculation at the low corner [derived]: 4 × 4.30 V over four levels of two cells
-    # (min 15 − (22 − 15) = 8 mΩ each, 4 mΩ a level, 16 mΩ), the shunt at −1 % (1.485 mΩ), the
-    # fuse (1 mΩ) and two switches of two FETs in parallel (min 2.5 − 0.7 = 1.8 mΩ at −10 °C:
-    # × (1 + 0.5 × (−35)/100) = 1.485 mΩ, 0.7425 mΩ a pair, 1.485 mΩ both).
+def _stack_short_by_ngspice(temp: float) -> float:
+    """The 4S2P pack's hard short at one temperature, from ngspice (an independent simulator) on
+    a netlist written here from the library's figures (example_designs/parts/ridgeline-parts.yaml),
+    every part at its lowest resistance:
+
+    * eight cells at 4.30 V (the protector's overcharge detection max, 4.275 V + 25 mV), each at
+      its 25 °C minimum 15 − (22 − 15) = 8 mΩ [practice: typ and max read as a symmetric spread];
+      a cell's resistance only rises as it cools [practice, docs/references.md "Events in time"],
+      so at or below 25 °C this is its lowest;
+    * the fuse 1 mΩ; the shunt 1.5 mΩ − 1 %;
+    * four p-channel FETs with the fixed 12 V drive, above the 10 V row, so at its figure (more
+      drive never raises R_DS(on) [practice]): min 2.5 − (3.2 − 2.5) = 1.8 mΩ at 25 °C, rising
+      linearly to 1.5 × at 125 °C (the part's hot ratio) [practice: docs/references.md "MOSFETs"].
+    """
+    fet = 1.8e-3 * (1 + 0.5 * (temp - 25.0) / 100.0)
+    lines = ["* 4S2P hard short"]
+    for level, (neg, pos) in enumerate((("0", "b1"), ("b1", "b2"), ("b2", "b3"), ("b3", "bp"))):
+        for k in (1, 2):
+            lines += [f"V{level}{k} {pos} x{level}{k} DC 4.30", f"R{level}{k} x{level}{k} {neg} 8m"]
+    lines += ["RF bp bf 1m", "RQ1 bf mid " + repr(fet), "RQ2 bf mid " + repr(fet),
+              "RQ3 mid pp " + repr(fet), "RQ4 mid pp " + repr(fet),
+              "VSHORT pp pm DC 0", "RSH pm 0 1.485m",
+              ".control", "set numdgt=12", "op", "print i(vshort)", "quit 0", ".endc", ".end", ""]
+    return abs(run_op("\n".join(lines))["i(vshort)"])
+
+
+def test_prospective_short_circuit_is_the_highest_one_temperature_short(tmp_path):
+    # What a fuse must break: the highest current a hard short draws with cells, switches and path
+    # at one temperature. At or below 25 °C the cells' 25 °C minimum is their floor, so ngspice's
+    # current at each such temperature bounds the real one, and the model's figure must be the
+    # highest of them: the lowest ambient, -10 °C, where the switches are least resistive.
     m = _model(tmp_path, *RIDGE)
-    r = 0.016 + 0.001485 + 0.001 + 0.001485 + 1e-6
-    assert m.prospective_short_circuit == pytest.approx(17.2 / r, rel=1e-4)
+    by_temperature = {t: _stack_short_by_ngspice(t) for t in (-10.0, 0.0, 10.0, 25.0)}
+    assert max(by_temperature, key=by_temperature.get) == -10.0
+    assert m.prospective_short_circuit == pytest.approx(by_temperature[-10.0], rel=1e-4)
+    # the charge switches' body diodes stay below their knee (860 A × 0.74 mΩ ≈ 0.64 V)
+    assert not m.short_onset.solution.conducting_diodes
 
 
 def test_a_cell_driven_multicell_gate_drive_is_the_stack(tmp_path):

@@ -39,6 +39,7 @@ parts:
     short_circuit: {{detect: {{typ: 500 mV, tol: 100 mV}}, delay: {{min: 150 us, max: 540 us}},
                     release_on: {sc_release}}}
     supply_current: {{operating: {{max: 6 uA}}}}
+{guard_extra}
   T-PAIR:                 # a flat table: the same resistance at every gate drive and corner
     kind: fet_pair_common_drain
     channel: n
@@ -70,7 +71,12 @@ components:
 DEFAULTS = dict(cell_r="30 mΩ", sc_release="[load_removal]", vds_max="20 V", rds="25 mΩ",
                 ratio="1.5", pulse="500 A", id_max="100 A", theta="83 K/W", fet_extra="",
                 hot="40 °C",
-                pack_extra="", load="0.5 A", s2="P-", fuse_a="B+", extra="")
+                pack_extra="", load="0.5 A", s2="P-", fuse_a="B+", extra="", guard_extra="")
+
+# A driver that holds the gates 12 V above their sources, whatever the short does to the cell
+# voltage: the hard short then keeps every switch fully on (linter/model/short.py), and the
+# vectors below are plain Ohm's law.
+FIXED_DRIVE = "    gate_drive: 12 V"
 
 
 def _design(tmp_path: Path, **values: str) -> Path:
@@ -173,7 +179,7 @@ def test_prospective_short_circuit_vector_cell_only(tmp_path):
     # [derived] docs/references.md, "Internal resistance and short circuit": 4.2 V / 18 mΩ -> 233 A
     # with the cell alone; the switches are 1 µΩ and the fuse gives no resistance. Through the
     # nodal solve of the netlist.
-    model = _model(tmp_path, cell_r="18 mΩ", rds="1 uΩ")
+    model = _model(tmp_path, cell_r="18 mΩ", rds="1 uΩ", guard_extra=FIXED_DRIVE)
     assert model.prospective_short_circuit == pytest.approx(4.2 / 0.018, rel=1e-3)
     pulse = model.short_circuit_pulse
     assert pulse.current == pytest.approx(model.prospective_short_circuit, rel=1e-9)
@@ -194,7 +200,8 @@ def test_i2t_vector_through_the_rule(tmp_path):
     # definition]; 40 A for 540 µs -> 0.86 A²s. 4.2 V over 75 mΩ + 2 × 15 mΩ = 40 A, ended by the
     # short-circuit detection (trip max 0.6 V / 30 mΩ = 20 A) after its longest delay, 540 µs.
     findings = _findings(tmp_path, "short-circuit-stress", cell_r="75 mΩ", rds="15 mΩ",
-                         pulse="30 A", id_max="30 A")  # a pulse rating is at least I_D
+                         pulse="30 A", id_max="30 A",  # a pulse rating is at least I_D
+                         guard_extra=FIXED_DRIVE)
     assert len(findings) == 2  # both channels carry the whole short
     for f in findings:
         assert _figure(f, "channel current") == pytest.approx(40.0, rel=1e-4)
@@ -208,7 +215,7 @@ def test_retry_energy_and_average_heat(tmp_path):
     # retry period; T_J = T_A + P·R_θJA [published: data sheet definition]. 40 A as above,
     # 15 mΩ flat (ratio 1.0), 540 µs, every 1 s: 2 × 40² × 0.015 × 540e-6 = 25.9 mJ, 25.9 mW.
     model = _model(tmp_path, cell_r="75 mΩ", rds="15 mΩ", ratio="1.0",
-                   sc_release="[auto_retry], retry_period: 1 s")
+                   sc_release="[auto_retry], retry_period: 1 s", guard_extra=FIXED_DRIVE)
     (heat,) = stress.retry_heat(model)
     assert heat.event.startswith("a hard short")
     assert heat.energy["Q1"] == pytest.approx(2 * 40**2 * 0.015 * 540e-6, rel=1e-3)

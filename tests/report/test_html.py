@@ -169,7 +169,7 @@ def test_example_report_has_title_counts_figures_and_cautions() -> None:
     assert "not that the design is safe" in html
     # key figures as the model computes them, formatted with units
     assert "<tr><th>over-current trip</th><td>1.79 A</td><td>3.67 A</td><td>7.78 A</td></tr>" in html
-    assert "<tr><th>prospective short circuit</th><td></td><td>118 A</td><td></td></tr>" in html
+    assert "<tr><th>prospective short circuit</th><td></td><td>110 A</td><td></td></tr>" in html
     assert set(charts(html)) == {"ladder", "trip", "tj"}
 
 
@@ -369,7 +369,7 @@ def test_trip_window_example_design() -> None:
     labels = texts(charts(report(EXAMPLE))["trip"])
     for text in ("U1 over-current trip", "1.79–7.78 A, typ 3.67 A", "U1 short-circuit trip",
                  "continuous load", "1.2 A", "peak load, 40 ms", "1.6 A", "Q1 FET id_max",
-                 "prospective short circuit", "118 A", "current, A (log scale)"):
+                 "prospective short circuit", "110 A", "current, A (log scale)"):
         assert text in labels, text
 
 
