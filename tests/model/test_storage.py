@@ -280,3 +280,19 @@ def test_an_ocv_table_that_cannot_be_inverted_is_a_finding_not_a_crash(tmp_path)
     [f] = [f for f in result.findings if f.rule == "storage-drain"]
     assert "the ocv table of BT1 cannot be used: voltage must rise strictly" in f.message
     assert f.location.path == ("components", "BT1", "part")
+
+
+def test_the_storage_event_carries_the_budget(tmp_path):
+    # The storage event (docs/rules-api.md "Events"): its current is the drain before the cut-off,
+    # its duration the storage time (12 months of 730 h), its figures the months of each phase.
+    # Here 3 µA (the protector's supply) drain before the cut-off, and after it the 0.1 µA
+    # power-down current and the 1 µA leakage of the off switch.
+    m = model(tmp_path, idss="    idss: 1 uA\n", empty="2.00 V")
+    event = m.event("storage")
+    b = m.storage_budget
+    assert event.current == pytest.approx(3e-6)
+    assert event.duration == pytest.approx(12 * 730 * 3600)
+    assert event.figures["months to cut-off"] == b.to_cutoff.months
+    assert event.figures["months from cut-off to lower limit"] == b.to_lower_limit.months
+    assert event.figures["drain after cut-off"] == pytest.approx(1.1e-6)
+    assert event.element_current == {"U1": pytest.approx(3e-6)}
