@@ -522,6 +522,13 @@ class Storage(Strict):
     temperature: Temperature = Field(default=25.0, description=(
         "storage temperature, in °C; the cell's 25 °C self-discharge is scaled by doubling per "
         "10 °C [practice]"))
+    standby_current: LeakageAmps | None = Field(default=None, description=(
+        "what the product draws from the pack terminals while stored in it (sleep or ship "
+        "mode), in amperes, e.g. '15 µA'; usually the largest drain on the shelf. It drains every "
+        "cell until the over-discharge cut-off, and after it no more than the off discharge "
+        "switches leak; '0 A' for a pack stored on its own or a ship mode that disconnects. "
+        "Without it, nothing is counted before the cut-off and the switches' full leakage "
+        "after it"))
 
 
 class Waiver(Strict):

@@ -12,16 +12,18 @@ from packwarden import Example, Figure, NoOptions, Severity, format_quantity as 
                "D1: {part: LED-GREEN, pins: {anode: B+, cathode: LED_EN}}   # lit by the product's "
                "switch only"))
 def check(ctx, options):
-    """A pack on the shelf loses charge to the protector's supply current, the leakage of its
-    switches, every resistive path the netlist puts across a cell (dividers, pull-ups, LEDs the
-    cells can light) and the cells' self-discharge, which roughly doubles per 10 °C. When the
-    charge above the over-discharge detection runs out, the protector cuts off and drops to its
-    power-down current; the cells go on falling, through self-discharge and any path that does not
-    run through the discharge switches, towards the cell's lower limit, below which copper
-    dissolution makes them unsafe to recharge. Storage longer than the time to the cut-off ships a
-    dead pack (warning); longer than the time to the lower limit ships a damaged one (error). In a
-    series stack the level that empties first decides. The figures are a budget on data-sheet
-    maxima, the cell maker's storage instructions rule."""
+    """A pack on the shelf loses charge to the protector's supply current, the product's standby
+    current (sleep or ship mode, ``storage.standby_current``: usually the largest drain), every
+    resistive path the netlist puts across a cell (dividers, pull-ups, LEDs the cells can light)
+    and the cells' self-discharge, a share of the charge left each month that roughly doubles per
+    10 °C. When the charge above the over-discharge detection runs out, the protector cuts off and
+    drops to its power-down current, and the off discharge switches pass only their leakage; the
+    cells go on falling, through that, self-discharge (small now: little charge is left) and any
+    path that does not run through the discharge switches, towards the cell's lower limit, below
+    which copper dissolution makes them unsafe to recharge. Storage longer than the time to the
+    cut-off ships a dead pack (warning); longer than the time to the lower limit ships a damaged
+    one (error). In a series stack the level that empties first decides. The figures are a budget
+    on data-sheet maxima, the cell maker's storage instructions rule."""
     b = ctx.model.storage_budget
     for problem in ctx.model.problems:
         if problem.what == "storage":
@@ -38,15 +40,16 @@ def check(ctx, options):
     where = "" if stack.series == 1 else f" level {first.level} of the stack ({', '.join(level_cells)})"
     assumed = f" (assumed: {'; '.join(b.assumptions)})" if b.assumptions else ""
     drains = ", ".join(d.text() for d in first.drains)
-    sd = (f"self-discharge {fq(first.self_discharge_ah_per_month, 'Ah')}/month "
-          f"({b.self_discharge_pct:.3g} %/month at {b.temperature:g} °C)")
+    sd = (f"self-discharge {b.self_discharge_pct:.3g} % of the charge left per month at "
+          f"{b.temperature:g} °C, {fq(first.self_discharge_ah_per_month, 'Ah')}/month at the start")
     figures = [Figure("storage duration", b.duration, "months"),
                Figure("months to cut-off", first.months, "months"),
                Figure("charge above cut-off", (first.start_soc - first.end_soc) * first.capacity_ah, "Ah"),
                Figure("drain current", first.drain_current, "A"),
                Figure("self-discharge", first.self_discharge_ah_per_month, "Ah/month")]
     if after is not None:
-        figures.append(Figure("months from cut-off to lower limit", after.months, "months"))
+        figures += [Figure("months from cut-off to lower limit", after.months, "months"),
+                    Figure("drain current after cut-off", after.drain_current, "A")]
     if first.start_soc <= first.end_soc:
         yield ctx.finding(
             f"stored at {b.soc * 100:.3g} % state of charge ({fq(first.start_voltage, 'V')} per "

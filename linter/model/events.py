@@ -13,8 +13,11 @@ The events of this layer (see docs/rules-api.md, "Events"):
 * ``peak-load`` — the design's peak load for its duration;
 * ``permitted`` — the highest current the over-current protection lets flow for ever;
 * ``gap-overload`` — the largest current only the over-current path clears, for its longest delay;
-* ``hard-short`` — a hard short across the pack terminals until the protection ends it.
-* ``switch-on-inrush`` — the charging pulse of the load's capacitance when the switches close.
+* ``hard-short`` — a hard short across the pack terminals until the protection ends it;
+* ``weakest-short`` — the weakest short the protection must still catch, until it ends it (or
+  for ever, when no detection surely does);
+* ``switch-on-inrush`` — the charging pulse of the load's capacitance when the switches close;
+* ``storage`` — the pack on the shelf: its drains before and after the over-discharge cut-off.
 
 Units are SI: amperes, ohms, volts, watts, seconds, °C.
 """
@@ -27,7 +30,9 @@ from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from . import inrush, thermal
-from .values import SIGNAL_OHMS, corner_value, spread_low
+from .network import NetworkError
+from .ocv import HOURS_PER_MONTH
+from .values import SIGNAL_OHMS, ModelProblem, corner_value, spread_low
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -35,11 +40,12 @@ if TYPE_CHECKING:  # pragma: no cover
 
 __all__ = ["Event", "EVENT_NAMES", "design_events", "pulse_i2t", "PermittedPoint",
            "permitted_point", "ShortCircuitPulse", "short_circuit_pulse", "InrushEvent",
-           "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths"]
+           "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths",
+           "WeakestShort", "weakest_short", "SECONDS_PER_MONTH"]
 
 #: The events this layer computes, in the order a report lists them.
-EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short")
-EVENT_NAMES += ("switch-on-inrush",)
+EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short",
+               "weakest-short", "switch-on-inrush", "storage")
 
 
 def pulse_i2t(current: float, duration: float) -> float:
@@ -77,6 +83,9 @@ class Event:
     gate_voltage: dict = field(default_factory=dict)
     conduction: dict = field(default_factory=dict)
     channel_dissipation: dict = field(default_factory=dict)
+    #: The event's own figures beyond its current, by name in SI units (the weakest short's
+    #: resistances; storage's months and drain currents), for a message or a report to quote.
+    figures: dict = field(default_factory=dict)
 
     @property
     def i2t(self) -> float | None:
@@ -101,7 +110,8 @@ class Event:
                 "detection": self.detection, "element_current": dict(self.element_current),
                 "dissipation": dict(self.dissipation), "gate_voltage": dict(self.gate_voltage),
                 "conduction": dict(self.conduction),
-                "channel_dissipation": dict(self.channel_dissipation)}
+                "channel_dissipation": dict(self.channel_dissipation),
+                "figures": dict(self.figures)}
 
 
 # --- the permitted current ---------------------------------------------------------------------
@@ -302,9 +312,11 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
                              "over-current", vmax, current=sc.max))
     if pulse is not None:
         out.append(_hard_short(m, pulse, vmax))
+    out.extend(_weakest_short(m))
     inrush_event = _switch_on_inrush(m)
     if inrush_event is not None:
         out.append(inrush_event)
+    out.extend(_storage(m))
     return tuple(out)
 
 
@@ -616,3 +628,147 @@ def _hard_short(m: "DesignModel", pulse: ShortCircuitPulse, vmax: float | None) 
                  {n: c.vgs for n, c in hs.channels.items()},
                  {n: c.conducts for n, c in hs.channels.items()},
                  {n: c.power for n, c in hs.channels.items()})
+
+
+# --- the weakest short -------------------------------------------------------------------------
+
+# Gate drive that follows the sagging cells settles to within this, volts [derived: the fixed
+# point contracts fast, three or four solves on the examples; a millivolt is far inside any
+# detection's tolerance].
+_SAG_TOLERANCE = 1e-3
+_SAG_ITERATIONS = 20
+
+
+@record(frozen=True)
+class WeakestShort:
+    """The weakest short the protection must still catch, solved at its corner.
+
+    ``current`` is the pack current through ``fault`` ohms across the terminals, with the stack
+    at the lowest voltage the protector allows (``cell_emf`` per cell: its over-discharge detection
+    minimum), each cell at its maximum internal resistance times ``ageing`` (``cell_r``), the
+    lowest ambient, and every part of the path at its highest resistance. With ``gate_drive:
+    cell`` the gate drive ``vgs`` is the stack voltage the short leaves at the cells' terminals.
+    """
+
+    current: float
+    cell_emf: float
+    cell_r: float
+    ageing: float
+    fault: float
+    ambient: float
+    vgs: float
+    rds: dict  # channel name -> Ω at the corner
+    channel_current: dict  # channel name -> A
+    stack_resistance: float  # all the cells, Ω
+    path_resistance: float  # stack to terminals, Ω
+    solution: Any
+    assumptions: tuple[str, ...]
+
+
+def weakest_short(m: "DesignModel") -> WeakestShort | None:
+    """The weakest short at its corner (see :class:`WeakestShort`), from the path's own solver;
+    None without a protector, a stack or switches."""
+    p, stack, gd = m.protector, m.stack, m.gate_drive
+    if p is None or stack is None or gd is None or not m.channels:
+        return None
+    limits = m.limits
+    emf = p.part.overdischarge.detect.low
+    cell_r = corner_value(stack.part.internal_resistance, "max") * limits.cell_ageing
+    ambient, vgs = m.ambient.min, gd.min
+    # With the drive taken from the cells, the gate sees the stack as the short leaves it, below
+    # its open-circuit voltage: solved until the drive and the current agree.
+    follows = p.part.gate_drive == "cell"
+    per_cell = 1.0 / stack.series if p.part.cells <= 1 else 1.0
+    sol, notes, rds, drive = None, [], {}, vgs
+    for _ in range(_SAG_ITERATIONS if follows else 1):
+        rds, notes, drive = {}, [], vgs
+        for ch in m.channels:
+            rds[ch.name], n = m.channel_rds(ch, vgs, ambient, "max")
+            notes += [x for x in n if x not in notes]
+        net = m.network(rds, cell_emf=emf, cell_r=cell_r, temp=ambient, corner="max",
+                        load=limits.fault_resistance)
+        try:
+            sol = net.solve(ground=stack.bottom)
+        except NetworkError as exc:
+            m.problems.append(ModelProblem("network", str(exc)))
+            return None
+        sag = sol.voltage_between(stack.top, stack.bottom)
+        if not follows or sag is None or abs(abs(sag) * per_cell - vgs) < _SAG_TOLERANCE:
+            break
+        vgs = abs(sag) * per_cell
+    else:
+        notes.append(f"the gate drive did not settle with the sagging cells: {drive:.3g} V "
+                     f"taken, {vgs:.3g} V next")
+    current = abs(sol.current("(load)"))
+    ich = {ch.name: abs(sol.current(ch.name)) for ch in m.channels}
+    pos, neg = m.terminals
+    vs = sol.voltage_between(stack.top, stack.bottom)
+    vt = sol.voltage_between(pos, neg)
+    path_r = abs(abs(vs) - abs(vt)) / current if current > 0 and None not in (vs, vt) else math.nan
+    stack_r = stack.series * cell_r / stack.parallel
+    return WeakestShort(current, emf, cell_r, limits.cell_ageing, limits.fault_resistance,
+                        ambient, drive, rds, ich, stack_r, path_r, sol, tuple(notes))
+
+
+def _weakest_short(m: "DesignModel") -> list[Event]:
+    """The ``weakest-short`` event: cleared by the short-circuit detection when its current
+    exceeds that trip's maximum, else by the over-current detection when it exceeds that trip's
+    maximum (after its longest delay), else by neither: it lasts for ever."""
+    ws = weakest_short(m)
+    if ws is None:
+        return []
+    p, sc, oc = m.protector, m.short_circuit_trip, m.overcurrent_trip
+    if sc is not None and p.part.short_circuit is not None and ws.current > sc.max:
+        detection, duration = "short-circuit", p.part.short_circuit.delay.high
+    elif oc is not None and ws.current > oc.max:
+        detection, duration = "over-current", p.part.overcurrent.delay.high
+    else:
+        detection, duration = None, None
+    currents, power = _figures(m, ws.current, ws.channel_current, ws.rds, ws.solution,
+                               ws.ambient, "max")
+    series = m.stack.series
+    ends = (f"for the longest {detection} delay" if detection else
+            "for ever: no detection surely trips")
+    words = (f"weakest short to catch: {ws.fault * 1e3:.3g} mΩ across the pack terminals, the "
+             f"stack at the over-discharge detection minimum ({ws.cell_emf:.4g} V per cell), "
+             f"lowest ambient {ws.ambient:g} °C, cells at {ws.ageing:g} × their maximum internal "
+             f"resistance ({ws.cell_r * 1e3:.3g} mΩ each), gate drive {ws.vgs:.3g} V, every part "
+             f"at its highest resistance, {ends}")
+    figures = {"fault resistance": ws.fault, "cell resistance": ws.cell_r,
+               "stack resistance": ws.stack_resistance, "path resistance": ws.path_resistance,
+               "stack voltage": ws.cell_emf * series, "gate drive": ws.vgs}
+    return [Event("weakest-short", words, ws.ambient, ws.current, duration, currents, power,
+                  ws.cell_emf * series, detection, ws.assumptions, figures=figures)]
+
+
+# --- storage -----------------------------------------------------------------------------------
+
+#: A month in seconds: the storage budget's month of 730 hours [derived: 8760 h / 12].
+SECONDS_PER_MONTH = HOURS_PER_MONTH * 3600.0
+
+
+def _storage(m: "DesignModel") -> list[Event]:
+    """The ``storage`` event: the stored pack's drain on its first level to empty, before the
+    over-discharge cut-off (``current``), for the storage time; its figures give the months to
+    the cut-off and on to the cell's lower limit, and the drain after the cut-off."""
+    b = m.storage_budget
+    if b is None:
+        return []
+    first, after = b.to_cutoff, b.to_lower_limit
+    currents: dict[str, float] = {}
+    for d in first.drains:
+        if len(d.elements) == 1:  # a drain of one part (the protector's supply, an LED)
+            currents[d.elements[0]] = currents.get(d.elements[0], 0.0) + d.current
+    figures = {"storage months": b.duration, "months to cut-off": first.months,
+               "drain before cut-off": first.drain_current,
+               "self-discharge per month": b.self_discharge_pct / 100.0}
+    if after is not None:
+        figures.update({"months from cut-off to lower limit": after.months,
+                        "drain after cut-off": after.drain_current})
+    level = "" if m.stack.series == 1 else f", level {first.level} of the stack first"
+    words = (f"stored at {b.soc * 100:.3g} % state of charge and {b.temperature:g} °C for "
+             f"{b.duration:.3g} months{level}: self-discharge {b.self_discharge_pct:.3g} % of the "
+             f"charge left per month, the drains at their data-sheet maxima")
+    return [Event("storage", words, b.temperature, first.drain_current,
+                  b.duration * SECONDS_PER_MONTH, currents, {}, None, None, b.assumptions,
+                  figures=figures)]

@@ -15,7 +15,8 @@ from ..records import record
 from . import copper
 from .fuse import CONTINUOUS_DERATING
 
-__all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN"]
+__all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
+           "CELL_AGEING", "FAULT_RESISTANCE"]
 
 #: Highest junction temperature allowed in service, below the part's own tj_max [practice:
 #: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
@@ -29,6 +30,14 @@ TRACE_RISE = 10.0
 #: How far the overcharge detection must sit above the charger's highest per-cell voltage, volts
 #: [practice: end-of-charge noise and the charger's ripple are tens of millivolts].
 CHARGE_MARGIN = 0.025
+#: How far the cells' internal resistance may have risen at the end of their life, as a factor on
+#: the data sheet's maximum [practice: end of life is commonly taken at 1.5-2 x the new
+#: resistance, docs/references.md "Events in time"].
+CELL_AGEING = 1.5
+#: Resistance of the weakest external short the protection must still catch, ohms [published:
+#: IEC 62133-2's external short-circuit test, 80 +/- 20 mOhm; value from memory,
+#: docs/references.md "Events in time"].
+FAULT_RESISTANCE = 0.080
 
 
 @record(frozen=True)
@@ -37,13 +46,16 @@ class Limits:
 
     ``junction``: switch-temperature's ``limit``; ``fuse_derating``: secondary-protection's
     ``derating``; ``trace_rise``: conductor-capacity's ``delta_t``; ``charge_margin``:
-    threshold-ladder's ``charge_margin``.
+    threshold-ladder's ``charge_margin``; ``cell_ageing`` and ``fault_resistance``:
+    short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner).
     """
 
     junction: float = JUNCTION_LIMIT
     fuse_derating: float = FUSE_DERATING
     trace_rise: float = TRACE_RISE
     charge_margin: float = CHARGE_MARGIN
+    cell_ageing: float = CELL_AGEING
+    fault_resistance: float = FAULT_RESISTANCE
 
     @classmethod
     def of(cls, options: Mapping[str, Any]) -> "Limits":
@@ -53,10 +65,13 @@ class Limits:
         fuse = options.get("secondary-protection")
         trace = options.get("conductor-capacity")
         ladder = options.get("threshold-ladder")
+        reach = options.get("short-circuit-reach")
         return cls(getattr(temp, "limit", JUNCTION_LIMIT),
                    getattr(fuse, "derating", FUSE_DERATING),
                    getattr(trace, "delta_t", TRACE_RISE),
-                   getattr(ladder, "charge_margin", CHARGE_MARGIN))
+                   getattr(ladder, "charge_margin", CHARGE_MARGIN),
+                   getattr(reach, "ageing", CELL_AGEING),
+                   getattr(reach, "fault_resistance", FAULT_RESISTANCE))
 
     def junction_ceiling(self, fet: Any) -> float:
         """The highest junction temperature a FET part may reach: the limit or its tj_max."""

@@ -1,12 +1,17 @@
 """A pack on the shelf: the charge above the protector's cut-off against everything that drains it.
 
 Two phases. Until the protector's over-discharge detection cuts off, the cells feed the protector's
-supply current, the leakage of the switch FETs, every resistive path the netlist puts across a
-cell (dividers, pull-ups, bleeders, LEDs that the cells can light) and their own self-discharge.
-After the cut-off the protector sits at its power-down current, the discharge switches are off,
-and whatever paths do not run through them keep draining, on towards the cell's ``lower_limit``,
-below which the cell maker no longer vouches for it (copper dissolves, docs/references.md
-"Storage and self-discharge").
+supply current, the product's standby current (``storage.standby_current``, through the switches,
+which are on), every resistive path the netlist puts across a cell (dividers, pull-ups, bleeders,
+LEDs that the cells can light) and their own self-discharge. After the cut-off the protector sits
+at its power-down current, the discharge switches are off and pass only their leakage (no more
+than the product's standby current, where it is given), and whatever paths do not run through
+them keep draining, on towards the cell's ``lower_limit``, below which the cell maker no longer
+vouches for it (copper dissolves, docs/references.md "Storage and self-discharge").
+
+Self-discharge is a share of the charge left per month, so an almost empty cell loses almost
+nothing to it: with a constant drain I beside it the charge decays as dQ/dt = -r·Q - I
+(:func:`ocv.shelf_life`'s ``remaining`` basis).
 
 The resistive paths come from the same nodal solver as the power path: the cells as sources at
 their open-circuit voltage, every resistor, diode and switch of the netlist, the pack terminals
@@ -74,8 +79,9 @@ class StoragePhase:
     level: int  # 1 = the bottom parallel group
     capacity_ah: float  # of that level (cells in parallel)
     drains: tuple[Drain, ...]
-    self_discharge_ah_per_month: float
+    self_discharge_ah_per_month: float  # at the start of the phase
     months: float
+    self_discharge_rate: float = 0.0  # share of the charge left per month, 0..1
 
     @property
     def drain_current(self) -> float:
@@ -86,8 +92,13 @@ class StoragePhase:
         return self.drain_current * HOURS_PER_MONTH + self.self_discharge_ah_per_month
 
     def soc_to_last(self, months: float) -> float:
-        """Starting state of charge that reaches ``end_soc`` after ``months`` at this loss."""
-        return self.end_soc + months * self.loss_ah_per_month / self.capacity_ah
+        """Starting state of charge that reaches ``end_soc`` after ``months`` at these drains:
+        Q0 = (Qe + I/r)·e^(r·t) - I/r, or Qe + I·t without self-discharge."""
+        r, drain = self.self_discharge_rate, self.drain_current * HOURS_PER_MONTH
+        end = self.end_soc * self.capacity_ah
+        if r <= 0.0:
+            return (end + drain * months) / self.capacity_ah
+        return ((end + drain / r) * math.exp(r * months) - drain / r) / self.capacity_ah
 
 
 @record(frozen=True)
@@ -149,38 +160,56 @@ def storage_budget(m: "DesignModel") -> StorageBudget | None:
         notes.append("no power-down current given: the operating supply current is assumed "
                      "after the cut-off")
 
+    standby = st.standby_current
+    if standby is None and any(ch.part.idss for ch in m.channels_of("discharge")):
+        notes.append("no storage standby_current: the product draws nothing on the shelf but "
+                     "the off switches' leakage")
     v_start = voltage_at_soc(table, start)
     before = _phase(m, table, start, max(soc_cut, 0.0), v_start, v_cut, rate,
-                    supply.operating.high, off=frozenset())
+                    supply.operating.high, off=frozenset(), standby=standby)
     after = None
     if soc_low < soc_cut:
         after = _phase(m, table, soc_cut, soc_low, v_cut, limits.lower_limit, rate, power_down,
-                       off=frozenset({"discharge"}))
-    # Self-discharge is a constant share of rated capacity per month (shelf_life's "capacity"
-    # basis), as the docs/references.md shelf-life vector is worked; said in the rule's rationale.
+                       off=frozenset({"discharge"}), standby=standby)
     return StorageBudget(start, st.duration, st.temperature, table, rate, before, after, v_cut,
                          limits.lower_limit, tuple(dict.fromkeys(notes)))
 
 
+def _terminal_drain(m: "DesignModel", off: frozenset[str], standby: float | None) -> list[Drain]:
+    """What the product across the terminals draws from every level: its standby current while
+    the discharge switches are on; once they are off, their leakage, capped by the standby
+    current where it is given (the two are in series)."""
+    if "discharge" not in off:
+        return [Drain("product standby", standby)] if standby else []
+    leakage = [ch for ch in m.channels_of("discharge") if ch.part.idss]
+    if not leakage:
+        return []
+    # Stored in its product, the product's own standby circuit can bridge the terminals; an off
+    # switch then passes at most its leakage, given at vds_max [practice: at cell voltage it is
+    # lower, so this errs long on drain].
+    amps = math.fsum(ch.part.idss for ch in leakage)
+    if standby is not None:
+        amps = min(amps, standby)
+    if amps <= 0.0:
+        return []
+    return [Drain("FET leakage", amps, tuple(dict.fromkeys(ch.package for ch in leakage)))]
+
+
 def _phase(m: "DesignModel", table: OcvTable, start: float, end: float, v_start: float,
-           v_end: float, rate: float, supply: float, off: frozenset[str]) -> StoragePhase:
+           v_end: float, rate: float, supply: float, off: frozenset[str],
+           standby: float | None = None) -> StoragePhase:
     stack = m.stack
     capacity = stack.part.capacity * stack.parallel
-    leakage = [ch for ch in m.channels_of("discharge") if ch.part.idss]
+    terminal = _terminal_drain(m, off, standby)
     per_level = level_drains(m, v_start, off)
     worst: StoragePhase | None = None
     for level in range(1, stack.series + 1):
-        drains = [Drain("protector supply", supply, (m.protector.refdes,))]
-        if leakage:
-            # Stored in its product, the product's own standby circuit can bridge the terminals;
-            # an off switch then passes at most its leakage, given at vds_max [practice: at cell
-            # voltage it is lower, so this errs long on drain].
-            drains.append(Drain("FET leakage", math.fsum(ch.part.idss for ch in leakage),
-                                tuple(dict.fromkeys(ch.package for ch in leakage))))
+        drains = [Drain("protector supply", supply, (m.protector.refdes,))] + terminal
         drains.extend(per_level.get(level, ()))
-        life = shelf_life(capacity, start, rate, [d.current for d in drains], end)
+        life = shelf_life(capacity, start, rate, [d.current for d in drains], end,
+                          basis="remaining")
         phase = StoragePhase(start, end, v_start, v_end, level, capacity, tuple(drains),
-                             life.self_discharge_ah_per_month, life.months)
+                             life.self_discharge_ah_per_month, life.months, rate / 100.0)
         # Levels drained alike differ only by rounding; the lowest of them is named.
         if worst is None or phase.months < worst.months * (1 - 1e-9):
             worst = phase

@@ -1,5 +1,6 @@
 """Shelf life in storage: the charge above the cut-off against the drains the netlist implies."""
 
+import math
 from pathlib import Path
 
 import pytest
@@ -69,13 +70,13 @@ def _fill(template: str, **values: str) -> str:
 
 
 def model(tmp_path, *, extra="", sd="2 %/month", soc="44 %", temp="25 °C", idss="",
-          empty="2.50 V"):
+          empty="2.50 V", storage=""):
     (tmp_path / "packwarden.toml").write_text("")
     sd_line = f"    self_discharge: {sd}\n" if sd else ""
     (tmp_path / "lib.yaml").write_text(_fill(LIB, sd=sd_line, idss=idss, empty=empty),
                                        encoding="utf-8")
     path = tmp_path / "d.yaml"
-    path.write_text(_fill(DESIGN, extra=extra, soc=soc, temp=temp), encoding="utf-8")
+    path.write_text(_fill(DESIGN, extra=extra, soc=soc, temp=temp + storage), encoding="utf-8")
     run = lint([str(path)])
     assert not run.input_errors(), [str(e) for e in run.input_errors()]
     (result,) = run.designs
@@ -83,19 +84,38 @@ def model(tmp_path, *, extra="", sd="2 %/month", soc="44 %", temp="25 °C", idss
     return result.model
 
 
+# Self-discharge is a share of the charge left, r per month, beside constant drains I: dQ/dt =
+# -r·Q - I, so Q(t) + I/r = (Q0 + I/r)·e^(-r·t), and a cell falls from Q0 to Qe in
+# t = ln((Q0 + I/r) / (Qe + I/r)) / r months [derived: first-order linear ODE, docs/references.md
+# "Storage and self-discharge", which gives 1-2 %/month [practice] and the vector below].
+
+
 def test_shelf_life_worked_vector_through_the_design(tmp_path):
-    # docs/references.md "Storage and self-discharge" vector [derived]: a 1000 mAh cell at about 44 %
-    # losing 2 %/month plus a 3 µA drain (2.19 mAh/month) loses 22.2 mAh/month and reaches empty
-    # in about 19.8 months. Here the 3 µA is the protector's maximum supply current, the cell's
-    # table puts 44 % at 3.70 V and empty (0 %) at the 2.50 V over-discharge detection maximum,
-    # and the FETs give no leakage: nothing else drains.
+    # docs/references.md "Storage and self-discharge" vector [derived]: a 1000 mAh cell at 44 %
+    # losing 2 % of the charge left per month plus a 3 µA drain (2.19 mAh/month): I/r = 109.5 mAh,
+    # ln(549.5 / 109.5) / 0.02 = ln(5.0183) / 0.02 = 80.7 months to empty. Here the 3 µA is the
+    # protector's maximum supply current, the cell's table puts 44 % at 3.70 V and empty (0 %) at
+    # the 2.50 V over-discharge detection maximum, and nothing else drains.
     b = model(tmp_path).storage_budget
     first = b.to_cutoff
     assert (first.start_soc, first.end_soc) == pytest.approx((0.44, 0.0))
     assert first.drain_current == pytest.approx(3e-6)
     assert first.drain_current * ocv.HOURS_PER_MONTH == pytest.approx(2.19e-3, rel=1e-3)
-    assert first.loss_ah_per_month == pytest.approx(22.2e-3, abs=0.05e-3)
-    assert first.months == pytest.approx(19.8, abs=0.05)
+    assert first.months == pytest.approx(80.65, abs=0.01)
+    # At the start the cell loses 2 % of 440 mAh, 8.8 mAh, a month to self-discharge.
+    assert first.self_discharge_ah_per_month == pytest.approx(8.8e-3)
+
+
+def test_the_vector_by_stepping_a_day_at_a_time(tmp_path):
+    # The same cell stepped a day at a time, losing 2 %/month of what it holds and 3 µA × 24 h
+    # [derived: explicit Euler, independent of the closed form]: empty after about 80.7 months.
+    q, days = 0.440, 0
+    per_day = 0.02 / (730 / 24)
+    while q > 0:
+        q -= q * per_day + 3e-6 * 24
+        days += 1
+    b = model(tmp_path).storage_budget
+    assert b.to_cutoff.months == pytest.approx(days * 24 / 730, abs=0.05)
 
 
 def test_shelf_life_vector_drain_alone(tmp_path):
@@ -106,20 +126,32 @@ def test_shelf_life_vector_drain_alone(tmp_path):
 
 def test_self_discharge_doubles_per_10_degrees(tmp_path):
     # [practice] docs/references.md: self-discharge roughly doubles per 10 °C; 2 %/month at 25 °C is
-    # 4 %/month at 35 °C, so with 3 µA on top the cell empties in 440 / (40 + 2.19) months.
+    # 4 %/month at 35 °C: I/r = 2.19 / 0.04 = 54.75 mAh, ln(494.75 / 54.75) / 0.04 = 55.0 months.
     b = model(tmp_path, temp="35 °C").storage_budget
     assert b.self_discharge_pct == pytest.approx(4.0)
-    assert b.to_cutoff.months == pytest.approx(440 / (40 + 2.19), rel=1e-3)
+    assert b.to_cutoff.months == pytest.approx(55.03, abs=0.01)
 
 
 def test_default_self_discharge_is_named_as_an_assumption(tmp_path):
     # Without a data-sheet figure the default, 2 %/month (the upper end of docs/references.md's
-    # 1-2 %/month [practice]), is used and said; the vector's 19.8 months follow again.
+    # 1-2 %/month [practice]), is used and said; the vector's 80.7 months follow again.
     b = model(tmp_path, sd="").storage_budget
     assert DEFAULT_SELF_DISCHARGE == 2.0
     assert b.self_discharge_pct == pytest.approx(2.0)
     assert any("no cell self_discharge" in a for a in b.assumptions)
-    assert b.to_cutoff.months == pytest.approx(19.8, abs=0.05)
+    assert b.to_cutoff.months == pytest.approx(80.65, abs=0.01)
+
+
+def test_an_almost_empty_cell_loses_almost_nothing_to_self_discharge(tmp_path):
+    # With empty (0 %) at 2.00 V on the cell's table, the 2.50 V cut-off sits on the line to the
+    # 10 % row at 3.30 V: 10 % × 0.50 / 1.30 = 3.846 %, 38.46 mAh. After the cut-off only the
+    # 0.1 µA power-down current drains beside self-discharge: I/r = 0.073 mAh / 0.02 = 3.65 mAh,
+    # ln((38.46 + 3.65) / 3.65) / 0.02 = 122 months to the 2.0 V lower limit. Self-discharge as a
+    # share of rated capacity (20 mAh a month) would have emptied it in under 2 months.
+    b = model(tmp_path, empty="2.00 V").storage_budget
+    after = b.to_lower_limit
+    assert after.start_soc == pytest.approx(0.03846, abs=1e-5)
+    assert after.months == pytest.approx(122.3, abs=0.1)
 
 
 def test_a_divider_across_the_cell_drains_v_over_r(tmp_path):
@@ -131,8 +163,9 @@ def test_a_divider_across_the_cell_drains_v_over_r(tmp_path):
     [path] = [d for d in first.drains if d.what == "resistive paths"]
     assert path.current == pytest.approx(3.70 / 1.1e6, rel=1e-6)
     assert set(path.elements) == {"R5", "R6"}
-    # 440 mAh over (2.19 + 2.45 + 20) mAh/month [derived]
-    assert first.months == pytest.approx(440 / (20 + (3e-6 + 3.70 / 1.1e6) * 730e3), rel=1e-4)
+    # 3 µA + 3.36 µA is 4.645 mAh/month, I/r = 232.3 mAh: ln(672.3 / 232.3) / 0.02 = 53.1 months
+    # [derived: the closed form above]
+    assert first.months == pytest.approx(53.14, abs=0.01)
 
 
 def test_a_load_behind_the_discharge_switch_stops_at_the_cut_off(tmp_path):
@@ -169,10 +202,33 @@ def test_an_led_behind_an_open_switch_is_not_lit(tmp_path):
     assert not [d for d in m.storage_budget.to_cutoff.drains if d.what == "LED"]
 
 
-def test_fet_leakage_counts_the_discharge_switch(tmp_path):
-    m = model(tmp_path, idss="    idss: 1 uA\n")
-    [leak] = [d for d in m.storage_budget.to_cutoff.drains if d.what == "FET leakage"]
-    assert leak.current == pytest.approx(1e-6)  # one discharge channel, Q1.1
+def test_fet_leakage_counts_only_once_the_discharge_switch_is_off(tmp_path):
+    # Before the cut-off the switch is on and leaks nothing; after it the off channel (Q1.1)
+    # passes its 1 µA leakage, beside the 0.1 µA power-down current.
+    m = model(tmp_path, idss="    idss: 1 uA\n", empty="2.00 V")
+    b = m.storage_budget
+    assert not [d for d in b.to_cutoff.drains if d.what == "FET leakage"]
+    [leak] = [d for d in b.to_lower_limit.drains if d.what == "FET leakage"]
+    assert leak.current == pytest.approx(1e-6)
+    assert b.to_lower_limit.drain_current == pytest.approx(1.1e-6)
+
+
+def test_the_products_standby_current_drains_until_the_cut_off(tmp_path):
+    # A 50 µA standby current beside the protector's 3 µA: 38.69 mAh/month, I/r = 1.9345 Ah
+    # [derived: the closed form above]. After the cut-off the product draws through the off
+    # switch, no more than its 1 µA leakage.
+    m = model(tmp_path, idss="    idss: 1 uA\n", empty="2.00 V",
+              storage=", standby_current: 50 uA")
+    b = m.storage_budget
+    [standby] = [d for d in b.to_cutoff.drains if d.what == "product standby"]
+    assert standby.current == pytest.approx(50e-6)
+    # From 440 mAh to the 2.50 V cut-off at 38.46 mAh (see above):
+    # ln((0.440 + 1.9345) / (0.03846 + 1.9345)) / 0.02 = ln(1.2035) / 0.02 = 9.26 months.
+    assert b.to_cutoff.months == pytest.approx(9.26, abs=0.01)
+    assert b.to_lower_limit.drain_current == pytest.approx(1.1e-6)
+    # A ship mode that disconnects: 0 A standby stops the leakage path too.
+    m = model(tmp_path, idss="    idss: 1 uA\n", empty="2.00 V", storage=", standby_current: 0 A")
+    assert m.storage_budget.to_lower_limit.drain_current == pytest.approx(0.1e-6)
 
 
 def _example_copy(tmp_path, name: str, library: str, extra: str = "", storage: str = ""):
@@ -224,3 +280,19 @@ def test_an_ocv_table_that_cannot_be_inverted_is_a_finding_not_a_crash(tmp_path)
     [f] = [f for f in result.findings if f.rule == "storage-drain"]
     assert "the ocv table of BT1 cannot be used: voltage must rise strictly" in f.message
     assert f.location.path == ("components", "BT1", "part")
+
+
+def test_the_storage_event_carries_the_budget(tmp_path):
+    # The storage event (docs/rules-api.md "Events"): its current is the drain before the cut-off,
+    # its duration the storage time (12 months of 730 h), its figures the months of each phase.
+    # Here 3 µA (the protector's supply) drain before the cut-off, and after it the 0.1 µA
+    # power-down current and the 1 µA leakage of the off switch.
+    m = model(tmp_path, idss="    idss: 1 uA\n", empty="2.00 V")
+    event = m.event("storage")
+    b = m.storage_budget
+    assert event.current == pytest.approx(3e-6)
+    assert event.duration == pytest.approx(12 * 730 * 3600)
+    assert event.figures["months to cut-off"] == b.to_cutoff.months
+    assert event.figures["months from cut-off to lower limit"] == b.to_lower_limit.months
+    assert event.figures["drain after cut-off"] == pytest.approx(1.1e-6)
+    assert event.element_current == {"U1": pytest.approx(3e-6)}
