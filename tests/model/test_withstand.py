@@ -1,12 +1,12 @@
-"""Short-time withstand of copper (IEC 60949's adiabatic form) against docs/references.md,
-"What parts survive over time", cross-checked with Onderdonk's fusing equation worked here on
-its own terms (circular mils, log10, 234 and 1083 °C)."""
+"""What parts survive over time (docs/references.md): the short-time withstand of copper (IEC
+60949's adiabatic form), cross-checked with Onderdonk's fusing equation worked here on its own
+terms (circular mils, log10, 234 and 1083 °C); a PTC's hold current at the highest ambient."""
 
 import math
 
 import pytest
 
-from packwarden.model import copper
+from packwarden.model import copper, fuse
 from packwarden.model.limits import Limits
 
 UM = 1e-6
@@ -82,3 +82,30 @@ def test_limits_start_from_the_hottest_ambient_plus_the_allowed_rise():
 def test_bad_inputs_raise(call):
     with pytest.raises(ValueError):
         call()
+
+
+# --- a PTC's hold current at the highest ambient ------------------------------------------------
+
+@pytest.mark.parametrize("ambient", [50.0, 60.0])
+def test_ptc_default_derating_lies_in_the_practice_band(ambient):
+    # docs/references.md [practice]: hold current falls to 70-80 % at 50-60 °C.
+    share = fuse.ptc_hold_current(1.0, ambient).current
+    assert 0.70 - 1e-9 <= share <= 0.80
+
+
+def test_ptc_default_derating_is_none_at_or_below_25_c():
+    assert fuse.ptc_hold_current(2.0, 25.0).current == 2.0
+    assert fuse.ptc_hold_current(2.0, -20.0).current == 2.0
+
+
+def test_ptc_table_is_read_in_straight_lines_between_points():
+    # An invented maker's table (hold current against ambient): 25 °C 1.5 A (the rating),
+    # 50 °C 1.2 A, 70 °C 0.9 A. By hand [derived]: at 60 °C halfway from 1.2 to 0.9 → 1.05 A;
+    # at 85 °C the last segment's -15 mA/K continued → 0.675 A; at -40 °C the coldest point.
+    table = [(50.0, 1.2), (70.0, 0.9), (-20.0, 1.9)]
+    assert fuse.ptc_hold_current(1.5, 60.0, table).current == pytest.approx(1.05)
+    hot = fuse.ptc_hold_current(1.5, 85.0, table)
+    assert hot.current == pytest.approx(0.675)
+    assert "extrapolated" in hot.basis
+    assert fuse.ptc_hold_current(1.5, -40.0, table).current == 1.9
+    assert fuse.ptc_hold_current(1.5, 0.0, table).current == pytest.approx(1.9 - 0.4 * 20 / 45)
