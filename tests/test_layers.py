@@ -19,7 +19,7 @@ MODEL_LAYERS = [
     {"path"},
     {"limits"},
     {"events"},
-    {"stress", "support", "storage"},
+    {"stress", "support", "storage", "coordination"},
     {"design"},
     {"vector", "yield_"},
 ]
