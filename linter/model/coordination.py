@@ -5,7 +5,7 @@ chart has no physics of its own: the design's events (a current for a duration; 
 ever), the protector's detections (trip current window × delay window), the fuse's melting
 limit (the part's pre-arcing points, its melting I²t for short pulses, the standard's gates for
 its speed), a PTC's hold current at the highest ambient and its I_max, the switch FETs'
-ratings, and each trace's adiabatic withstand.
+ratings and steady thermal limit (θJA), and each trace's adiabatic withstand.
 
 All currents are pack currents (at the terminals), so every curve meets the events on one axis:
 a part that carries a share of the pack current (a FET channel in parallel) has its limit
@@ -109,6 +109,7 @@ def time_current(m: "DesignModel") -> TimeCurrent:
         limit = fet_limit(m, ch)
         if limit is not None:
             limits.append(limit)
+    limits += _steady_fet_limits(m)
     limits += _conductor_limits(m)
     if not marks:
         notes.append("no events: the design lacks a protector driving switches in a cell stack")
@@ -187,6 +188,32 @@ def fet_limit(m: "DesignModel", ch) -> Limit | None:
     if abs(share - 1.0) > 1e-9:
         basis += f", per channel; the channel carries {share * 100:.3g} % of the pack current"
     return Limit(ch.name, "fet", f"{ch.name} ratings", tuple(pts), basis)
+
+
+def _steady_fet_limits(m: "DesignModel") -> list[Limit]:
+    """Per switch package, the pack current that holds its junction at tj_max in a steady state
+    at the highest ambient: P = (tj_max − T_A)/θJA = I²·Σ s²·R_DS(on)(tj_max), each channel at
+    its share s of the pack current, lowest gate drive, highest on-resistance. A steady state
+    bounds any shorter pulse from the same ambient from above, so below this current the
+    package survives every duration."""
+    gd = m.gate_drive
+    if gd is None:
+        return []
+    hot, out = m.ambient.max, []
+    for package in sorted({ch.package for ch in m.channels}):
+        chans = [ch for ch in m.channels if ch.package == package]
+        part = chans[0].part
+        shares = {ch.name: _share(m, ch.name) for ch in chans}
+        if any(v is None for v in shares.values()) or part.tj_max <= hot:
+            continue
+        r = sum(shares[ch.name] ** 2 * m.channel_rds(ch, gd.min, part.tj_max, "max")[0]
+                for ch in chans)
+        current = math.sqrt((part.tj_max - hot) / part.theta_ja / r)
+        out.append(Limit(package, "fet", f"{package} θJA steady at {hot:g} °C",
+                         ((current, DURATIONS[0]), (current, DURATIONS[-1])),
+                         f"tj_max {part.tj_max:g} °C at {hot:g} °C ambient through θJA "
+                         f"{part.theta_ja:g} K/W, steady: safe for any duration below it"))
+    return out
 
 
 def _share(m: "DesignModel", element: str) -> float | None:

@@ -827,7 +827,8 @@ def time_current_chart(model: Any) -> Chart:
                   "detection ends; dashed to the top: for ever). Shaded: the protector's "
                   "detections, trip current window by delay window, lighter where they surely "
                   "trip. Lines: where a fuse melts (with the standard's gates as bars), a PTC's "
-                  "hold current and I_max, the FETs' ratings, the traces' adiabatic withstand. "
+                  "hold current and I_max, the FETs' ratings and steady thermal limit (θJA, at the highest "
+                  "ambient), the traces' adiabatic withstand. "
                   "An event must end (its bar top) below every line it crosses: the part whose "
                   "line lies lowest above an event acts or fails first.")
     tc = time_current(model)
@@ -883,11 +884,20 @@ def time_current_chart(model: Any) -> Chart:
         chart.values.append((f"{g.element} gate at {q(g.current, 'A')}",
                              f"melts after {q(g.t_min, 's') if g.t_min > 0 else '—'} and before "
                              f"{q(g.t_max, 's') if math.isfinite(g.t_max) else '—'}"))
+    # Identical parts draw one line, labelled once: "Q1–Q4 θJA steady".
+    same: dict[tuple, list[Any]] = {}
     for lim in tc.limits:
+        key = (lim.kind, lim.label[len(lim.element):], lim.basis,
+               tuple((round(i, 6), t) for i, t in lim.points))
+        same.setdefault(key, []).append(lim)
+    drawn = []
+    for (kind, rest, basis, _), group in same.items():
+        lim = group[0]
+        drawn.append((kind, refs_text([g.element for g in group]) + rest))
         for run in clip_polyline([(x(i), y(t)) for i, t in lim.points], box):
             svg.el("polyline", points=" ".join(f"{_n(a)},{_n(b)}" for a, b in run),
-                   class_=f"tc-limit k-{lim.kind}")
-        chart.values.append((lim.label, lim.basis))
+                   class_=f"tc-limit k-{kind}")
+        chart.values.append((drawn[-1][1], basis))
     placed: list[tuple[float, float]] = []
     for k, mk in enumerate(tc.marks, 1):
         css = "m-load" if mk.load else "m-fault"
@@ -917,7 +927,7 @@ def time_current_chart(model: Any) -> Chart:
                  "tc-legend " + ("m-load" if mk.load else "m-fault"))
     ly += FONT + 12
     svg.text(lx, ly + 8, "limits", "col-head")
-    keys = [(f"tc-limit k-{lim.kind}", f"{lim.label} ({_KIND_WORDS[lim.kind]})") for lim in tc.limits]
+    keys = [(f"tc-limit k-{kind}", f"{label} ({_KIND_WORDS[kind]})") for kind, label in drawn]
     keys += [("tc-gate", f"{who} the standard's gates (melts within)")
              for who in dict.fromkeys(g.element for g in tc.gates)]
     for css, text in keys:

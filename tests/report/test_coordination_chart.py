@@ -6,6 +6,7 @@ outside values: the definition of I²t and IEC 60949's adiabatic form (docs/refe
 from __future__ import annotations
 
 import math
+import shutil
 import re
 import xml.etree.ElementTree as ET
 
@@ -97,3 +98,37 @@ def test_clip_polyline_cuts_at_the_box_edges() -> None:
     # out, in, out, in: two runs
     runs = clip_polyline([(5.0, -5.0), (5.0, 5.0), (15.0, 5.0), (5.0, 8.0)], box)
     assert runs == [[(5.0, 0.0), (5.0, 5.0), (10.0, 5.0)], [(10.0, 6.5), (5.0, 8.0)]]
+
+
+@pytest.mark.parametrize("path", [CLEAN, EXAMPLES / "ridgeline-tool-4s2p.yaml"])
+def test_the_steady_fet_limit_is_where_the_thermal_balance_reaches_tj_max(path) -> None:
+    # Checked against the model's own self-heated operating point (the thermal fixed point of
+    # switch-temperature, tested against its closed form in tests/model/test_thermal.py): at the
+    # chart's steady current the package's junction sits at its tj_max.
+    m = _model(path)
+    for lim in time_current(m).limits:
+        if "θJA steady" not in lim.label:
+            continue
+        op = m.operating_point(lim.points[0][0], m.ambient.max, m.gate_drive.min, "max",
+                               self_heating=True)
+        part = next(ch.part for ch in m.channels if ch.package == lim.element)
+        assert op.tj[lim.element] == pytest.approx(part.tj_max, abs=0.1)
+
+
+def test_a_ptc_draws_its_derated_hold_current_and_i_max(tmp_path) -> None:
+    # docs/references.md [practice]: hold current falls to 70-80 % at 50-60 °C; without the
+    # part's table 70 % at 60 °C from 25 °C: 1.5 A × (1 − 0.3 × 30/35) = 1.114 A at 55 °C.
+    (tmp_path / ".git").mkdir()
+    shutil.copytree(EXAMPLES / "parts", tmp_path / "parts")
+    text = CLEAN.read_text(encoding="utf-8")
+    fuse_line = "  F1: {part: OR-FUSE-12A, pins: [B+, P+]}"
+    assert fuse_line in text
+    ptc = ("  F1: {kind: ptc, hold_current: 1.5 A, trip_current: 3 A, rated_voltage: 6 V, "
+           "max_current: 200 A, resistance: {min: 20 mΩ, max: 50 mΩ}, pins: [B+, P+]}")
+    path = tmp_path / "ptc.yaml"
+    path.write_text(text.replace(fuse_line, ptc), encoding="utf-8")
+    m = _model(path)
+    ptcs = {lim.label: lim.points[0][0] for lim in time_current(m).limits if lim.kind == "ptc"}
+    assert ptcs["F1 holds at 55 °C"] == pytest.approx(1.5 * (1 - 0.3 * 30 / 35))
+    assert ptcs["F1 I_max"] == 200.0
+    assert time_current_chart(m).drawn
