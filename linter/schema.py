@@ -1090,6 +1090,10 @@ class Wire(Packaged):
         "resistance of the whole wire, in ohms; part of the power path (near zero when absent)"))
     length: Q("m", gt=0, le=10e3) | None = Field(default=None, description=(
         "wire length, in metres; recorded, not yet used"))
+    awg: int | None = Field(default=None, ge=-3, le=40, description=(
+        "copper size in American Wire Gauge, e.g. 18 (-3 for 4/0); its cross-section (ASTM "
+        "B258) must withstand each event's current for its duration (conductor-withstand); "
+        "when absent, an info finding states the copper the wire needs"))
 
 
 class Diode(Packaged):

@@ -26,8 +26,9 @@ def check(ctx, options):
     β = 234.5 K, gives the current a cross-section S carries for the event's duration from the
     starting temperature θi to the final θf. The conductor starts at the highest ambient plus the
     steady rise conductor-capacity allows; the final temperature is this rule's option, not the
-    melting point: a trace that reaches the laminate's glass transition may lift. A wire gives no
-    cross-section, so the finding states the copper area it needs (info)."""
+    melting point: a trace that reaches the laminate's glass transition may lift. A wire is judged
+    by its gauge (``awg``, ASTM B258's cross-section); without one the finding states the copper
+    area it needs (info)."""
     m = ctx.model
     events = [e for e in m.events if e.duration is not None and e.duration > 0]
     if not events:
@@ -44,12 +45,17 @@ def check(ctx, options):
         if not carried:
             continue
         path = c.path + (("part",) if c.part_name else ())
-        if c.kind == "wire":
+        if c.kind == "wire" and c.part.awg is None:
             yield from _wire_needs(ctx, c, path, carried, start, final, start_words)
             continue
         part = c.part
-        thick = copper.trace_thickness(part)
-        area = part.width * thick
+        if c.kind == "wire":
+            area, thick = copper.awg_area(part.awg), None
+            desc = f"AWG {part.awg}, {area * 1e6:.3g} mm²"
+        else:
+            thick = copper.trace_thickness(part)
+            area = part.width * thick
+            desc = f"{fq(part.width, 'm')} × {fq(thick, 'm')}, {area * 1e6:.3g} mm²"
         for e, i in carried:
             can = limits.conductor_withstand(area, e.duration, hot)
             if i <= can:
@@ -62,7 +68,7 @@ def check(ctx, options):
             delay = (f"the {e.detection} detection's delay" if e.detection
                      else f"the {e.name} event")
             yield ctx.finding(
-                f"{c.refdes} ({fq(part.width, 'm')} × {fq(thick, 'm')}, {area * 1e6:.3g} mm²) carries "
+                f"{c.refdes} ({desc}) carries "
                 f"{fq(i, 'A')} for {fq(e.duration, 's')} in the {e.name} event, but {start_words} "
                 f"it carries {fq(can, 'A')} for that time before passing {final:g} °C "
                 f"(IEC 60949 adiabatic){melts}",
@@ -72,8 +78,21 @@ def check(ctx, options):
                          Figure("melting current", melt, "A"),
                          Figure("cross-section", area * 1e6, "mm²"),
                          Figure("cross-section needed", need * 1e6, "mm²")],
-                hint=f"widen {c.refdes} to ≥ {fq(need / thick, 'm')} at this copper weight, use "
-                     f"heavier copper, or shorten {delay}")
+                hint=_hint(c, need, thick, delay))
+
+
+def _hint(c, need, thick, delay):
+    if thick is not None:
+        return (f"widen {c.refdes} to ≥ {fq(need / thick, 'm')} at this copper weight, use "
+                f"heavier copper, or shorten {delay}")
+    return f"use {_size(need)} for {c.refdes}, or shorten {delay}"
+
+
+def _size(need):
+    """The wire that has ``need`` m² of copper, in words."""
+    gauge = copper.awg_for_area(need)
+    return (f"AWG {gauge} or heavier ({need * 1e6:.3g} mm²)" if gauge is not None
+            else f"≥ {need * 1e6:.3g} mm² of copper")
 
 
 def _wire_needs(ctx, c, path, carried, start, final, start_words):
@@ -81,12 +100,11 @@ def _wire_needs(ctx, c, path, carried, start, final, start_words):
     needs = [(copper.adiabatic_min_area(i, e.duration, start, final), e, i) for e, i in carried]
     need, e, i = max(needs, key=lambda n: n[0])
     yield ctx.finding(
-        f"{c.refdes} is a wire with no cross-section given, so its short-time withstand is not "
+        f"{c.refdes} is a wire with no gauge given (awg), so its short-time withstand is not "
         f"checked: to carry {fq(i, 'A')} for {fq(e.duration, 's')} (the {e.name} event) "
         f"{start_words} without passing {final:g} °C it needs ≥ {need * 1e6:.3g} mm² of "
         f"copper (IEC 60949 adiabatic)",
         path=path, element=c.refdes, key="withstand-data", severity="info",
         figures=[Figure("current", i, "A"), Figure("duration", e.duration, "s"),
                  Figure("cross-section needed", need * 1e6, "mm²")],
-        hint=f"check the wire's data: ≥ {need * 1e6:.3g} mm² of copper (finer is at risk in "
-             f"the {e.name} event)")
+        hint=f"give {c.refdes} its awg: it needs {_size(need)}")

@@ -228,11 +228,12 @@ def _share(m: "DesignModel", element: str) -> float | None:
 
 def _conductor_limits(m: "DesignModel") -> list[Limit]:
     out = []
-    for c in m.netlist.of_kind("trace"):
+    for c in m.netlist.of_kind("trace", "wire"):
         share = _share(m, c.refdes)
-        if share is None:
+        if share is None or c.kind == "wire" and c.part.awg is None:
             continue
-        area = c.part.width * copper.trace_thickness(c.part)
+        area = (copper.awg_area(c.part.awg) if c.kind == "wire"
+                else c.part.width * copper.trace_thickness(c.part))
         pts = tuple((m.limits.conductor_withstand(area, t, m.ambient.max) / share, t)
                     for t in DURATIONS if t <= ADIABATIC_SPAN)
         out.append(Limit(c.refdes, "conductor", f"{c.refdes} withstand", pts,

@@ -18,7 +18,8 @@ __all__ = [
     "copper_resistivity", "trace_resistance", "oz_to_thickness", "thickness_to_oz",
     "ConductorRating", "ipc2221_current", "ipc2221_min_width",
     "IEC60949_K_COPPER", "IEC60949_BETA_COPPER", "COPPER_MELTING",
-    "adiabatic_i2t", "adiabatic_current", "adiabatic_min_area",
+    "adiabatic_i2t", "adiabatic_current", "adiabatic_min_area", "awg_area",
+    "awg_for_area",
 ]
 
 #: Annealed copper at 20 °C, 1/58 Ω·mm²/m, in Ω·m (IEC 60028 [published]).
@@ -219,3 +220,18 @@ def adiabatic_min_area(current: float, duration: float, initial: float, final: f
     _positive(current=current, duration=duration)
     s = current * math.sqrt(duration / _withstand_log(initial, final)) / IEC60949_K_COPPER
     return s * 1e-6
+
+
+def awg_area(gauge: int) -> float:
+    """Cross-section in m² of a copper conductor of American Wire Gauge ``gauge`` (-3 for
+    4/0): d = 0.005 in × 92^((36 − n)/39), area π·d²/4 [published: ASTM B258's definition of the
+    gauge]. A stranded wire of that gauge has about the same copper area [practice]."""
+    if not -3 <= gauge <= 40:
+        raise ValueError(f"AWG gauge must be within -3 (4/0) and 40, got {gauge}")
+    d = 0.005 * 0.0254 * 92.0 ** ((36 - gauge) / 39)
+    return math.pi / 4 * d * d
+
+
+def awg_for_area(area: float) -> int | None:
+    """The thinnest American Wire Gauge with at least ``area`` m² of copper; None above 4/0."""
+    return next((g for g in range(40, -4, -1) if awg_area(g) >= area), None)

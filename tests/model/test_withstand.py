@@ -109,3 +109,15 @@ def test_ptc_table_is_read_in_straight_lines_between_points():
     assert "extrapolated" in hot.basis
     assert fuse.ptc_hold_current(1.5, -40.0, table).current == 1.9
     assert fuse.ptc_hold_current(1.5, 0.0, table).current == pytest.approx(1.9 - 0.4 * 20 / 45)
+
+
+@pytest.mark.parametrize("gauge, mm2", [(10, 5.26), (14, 2.08), (18, 0.823), (24, 0.205),
+                                        (34, 0.0201), (-3, 107.2)])
+def test_awg_area_against_the_gauge_table(gauge, mm2):
+    # ASTM B258 gauge table, cross-sections in mm² [published; from memory].
+    assert copper.awg_area(gauge) * 1e6 == pytest.approx(mm2, rel=0.003)
+
+
+def test_awg_for_area_picks_the_thinnest_gauge_that_suffices():
+    assert copper.awg_for_area(0.8e-6) == 18  # 0.823 mm² ≥ 0.8, AWG 19 is 0.653 mm²
+    assert copper.awg_for_area(200e-6) is None  # above 4/0
