@@ -641,6 +641,14 @@ class OcvPoint(Strict):
         "open-circuit (rested) voltage per cell at that state of charge, in volts, at 25 °C"))
 
 
+class PulseRating(Strict):
+    """One pulse discharge rating of a cell: a current it delivers for up to a duration."""
+
+    current: PositiveAmps = Field(description="pulse discharge current per cell, in amperes")
+    duration: PositiveSeconds = Field(description=(
+        "longest duration of that pulse, in seconds, e.g. '10 s'"))
+
+
 class Cell(Packaged):
     """A lithium-ion cell; cells in series and parallel form the stack from their pins."""
 
@@ -668,6 +676,10 @@ class Cell(Packaged):
     ocv: list[OcvPoint] | None = Field(default=None, description=(
         "the cell's own open-circuit voltage table, a list of {soc, voltage}; when absent, the "
         "chemistry's table; storage-drain turns voltages into charge with it"))
+    pulse_discharge: list[PulseRating] | None = Field(default=None, max_length=20, description=(
+        "pulse discharge ratings per cell, a list of {current, duration}: the cell delivers "
+        "that current for up to that long; every event above the continuous rating must fit "
+        "under one (cell-pulse-rating); when absent, an info finding says what is needed"))
 
 
 class ReleaseOn(str, Enum):
@@ -1061,6 +1073,13 @@ class Fuse(Packaged):
         return self
 
 
+class HoldPoint(Strict):
+    """A PTC's hold current at one ambient, from its data sheet's table."""
+
+    ambient: Temperature = Field(description="ambient temperature, in °C")
+    current: PositiveAmps = Field(description="hold current at that ambient, in amperes")
+
+
 class Ptc(Packaged):
     """A resettable PTC fuse used as the secondary protection."""
 
@@ -1074,7 +1093,13 @@ class Ptc(Packaged):
         "rated voltage V_max, in volts; at least the highest pack or charger voltage "
         "(secondary-protection)"))
     max_current: PositiveAmps = Field(description=(
-        "highest fault current it withstands, I_max, in amperes; recorded, not yet used by a rule"))
+        "highest fault current it withstands and interrupts, I_max, in amperes; at least the "
+        "highest short-circuit current through it (secondary-protection)"))
+    hold_derating: list[HoldPoint] | None = Field(default=None, max_length=50, description=(
+        "hold current at other ambients, a list of {ambient, current} from the data sheet's "
+        "table; the hold current at the highest ambient is read from it (straight lines between "
+        "points, with hold_current at 25 °C); when absent, 70 % at 60 °C [practice] "
+        "(secondary-protection)"))
     resistance: Tol("Ω", gt=0, le=MAX_OHMS) = Field(description=(
         "resistance before tripping (toleranced ohms, the data sheet's R_min and R_max); part of "
         "the power path's resistance at each corner"))
@@ -1181,6 +1206,10 @@ class Wire(Packaged):
         "resistance of the whole wire, in ohms; part of the power path (near zero when absent)"))
     length: Q("m", gt=0, le=10e3) | None = Field(default=None, description=(
         "wire length, in metres; recorded, not yet used"))
+    awg: int | None = Field(default=None, ge=-3, le=40, description=(
+        "copper size in American Wire Gauge, e.g. 18 (-3 for 4/0); its cross-section (ASTM "
+        "B258) must withstand each event's current for its duration (conductor-withstand); "
+        "when absent, an info finding states the copper the wire needs"))
 
 
 class Diode(Packaged):

@@ -1,7 +1,7 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 from packwarden.model import FUSE_DERATING
-from packwarden.model.fuse import ADIABATIC_TIME, melt_limit
+from packwarden.model.fuse import ADIABATIC_TIME, melt_limit, ptc_hold_current
 
 
 class Options(RuleOptions):
@@ -25,7 +25,9 @@ def check(ctx, options):
     over-current detection clears, for its longest delay) and the hard short, the I²t it lets
     through must stay well below the I²t that melts it in that time — the melting I²t for a short
     pulse, its time-current behaviour (the part's pre-arcing points, else the standard's gates
-    for its speed) for a longer event."""
+    for its speed) for a longer event. A PTC must hold the continuous load at the highest
+    ambient (its hold current from the part's hold_derating table, else 70 % at 60 °C
+    [practice]) and withstand the highest short-circuit current through it (I_max)."""
     m = ctx.model
     if m.stack is None:
         return
@@ -78,12 +80,8 @@ def check(ctx, options):
                 figures=[Figure("breaking capacity", part.breaking_capacity, "A"),
                          Figure("prospective short circuit", psc, "A")],
                 hint=f"use a fuse with breaking capacity ≥ {fq(psc, 'A')}")
-        if f.kind == "ptc" and m.overcurrent_trip is not None and part.hold_current < m.design.load.continuous:
-            yield ctx.finding(
-                f"{f.refdes} holds {fq(part.hold_current, 'A')}, below the continuous load "
-                f"{fq(m.design.load.continuous, 'A')}: it trips in normal use",
-                path=path, element=f.refdes, key="hold",
-                hint=f"use a PTC with hold current ≥ {fq(m.design.load.continuous, 'A')} at the highest ambient")
+        if f.kind == "ptc":
+            yield from _ptc(ctx, m, f, path)
         if f.kind != "fuse" or p is None:
             continue
         if part.melting_i2t is None:
@@ -128,3 +126,33 @@ def _hint(part, event, needed, melting_only):
     return (f"use a fuse that needs ≥ {fq(needed, 'A²s')} to melt in {fq(event.duration, 's')}"
             f"{kind}, or a protector with a shorter {event.detection} delay{curve}")
 
+
+def _ptc(ctx, m, f, path):
+    """A PTC holds the continuous load at the highest ambient (its hold current derated there)
+    and withstands the highest short-circuit current through it (I_max)."""
+    part, hot, load = f.part, m.ambient.max, m.design.load.continuous
+    points = [(pt.ambient, pt.current) for pt in part.hold_derating or ()]
+    hold = ptc_hold_current(part.hold_current, hot, points)
+    if m.overcurrent_trip is not None and hold.current < load:
+        yield ctx.finding(
+            f"{f.refdes} holds {fq(hold.current, 'A')} at the highest ambient {hot:g} °C "
+            f"({fq(part.hold_current, 'A')} at 25 °C; {hold.basis}), below the continuous load "
+            f"{fq(load, 'A')}: it trips in normal use",
+            path=path, element=f.refdes, key="hold",
+            figures=[Figure("hold current at the highest ambient", hold.current, "A"),
+                     Figure("continuous load", load, "A")],
+            hint=f"use a PTC with hold current ≥ {fq(load, 'A')} at {hot:g} °C")
+    shorts = [(e.current_through(f.refdes), f"the {e.name} event") for e in m.events
+              if e.duration is not None]
+    if m.prospective_short_circuit is not None:
+        shorts.append((m.prospective_short_circuit, "the prospective short circuit"))
+    if not shorts:
+        return
+    worst, what = max(shorts)
+    if part.max_current < worst:
+        yield ctx.finding(
+            f"{f.refdes} withstands {fq(part.max_current, 'A')} (I_max) but carries {fq(worst, 'A')} "
+            f"({what}): it may fail before it trips, or fail to interrupt",
+            path=path, element=f.refdes, key="interrupt",
+            figures=[Figure("I_max", part.max_current, "A"), Figure("highest current", worst, "A")],
+            hint=f"use a PTC with I_max ≥ {fq(worst, 'A')}")

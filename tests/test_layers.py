@@ -19,7 +19,7 @@ MODEL_LAYERS = [
     {"path"},
     {"limits"},
     {"events", "short"},
-    {"stress", "support", "storage", "survival"},
+    {"stress", "support", "storage", "survival", "coordination"},
     {"design"},
     {"vector", "yield_"},
 ]

@@ -17,6 +17,9 @@ __all__ = [
     "RESISTIVITY_20C", "ALPHA_20C", "OZ_THICKNESS", "MIL",
     "copper_resistivity", "trace_resistance", "oz_to_thickness", "thickness_to_oz",
     "ConductorRating", "ipc2221_current", "ipc2221_min_width",
+    "IEC60949_K_COPPER", "IEC60949_BETA_COPPER", "COPPER_MELTING",
+    "adiabatic_i2t", "adiabatic_current", "adiabatic_min_area", "awg_area",
+    "awg_for_area",
 ]
 
 #: Annealed copper at 20 °C, 1/58 Ω·mm²/m, in Ω·m (IEC 60028 [published]).
@@ -170,3 +173,65 @@ def _positive(**values: float) -> None:
     for name, value in values.items():
         if not (value > 0.0 and math.isfinite(value)):
             raise ValueError(f"{name} must be a finite value > 0, got {value}")
+
+
+# --- short-time withstand (adiabatic) ----------------------------------------------------------
+
+#: IEC 60949's adiabatic constants for copper: K in A·s½/mm² and β, the reciprocal of the
+#: temperature coefficient referred to 0 °C, in kelvin [published; from memory;
+#: docs/references.md "What parts survive over time"].
+IEC60949_K_COPPER = 226.0
+IEC60949_BETA_COPPER = 234.5
+#: Melting point of copper, °C [published: a handbook constant].
+COPPER_MELTING = 1083.0
+
+
+def _withstand_log(initial: float, final: float) -> float:
+    """ln((θf + β)/(θi + β)) of IEC 60949's adiabatic equation; > 0 for final above initial."""
+    beta = IEC60949_BETA_COPPER
+    if not (math.isfinite(initial) and math.isfinite(final)) or initial <= -beta:
+        raise ValueError(f"temperatures must be finite and above {-beta} °C, got {initial}, {final}")
+    if final <= initial:
+        raise ValueError(f"the final temperature {final} °C must be above the initial {initial} °C")
+    return math.log((final + beta) / (initial + beta))
+
+
+def adiabatic_i2t(area: float, initial: float, final: float) -> float:
+    """The I²t in A²s that heats a copper conductor of cross-section ``area`` (m²) from
+    ``initial`` to ``final`` °C with no heat lost: I²t = K²·S²·ln((θf + β)/(θi + β)), S in mm²
+    (IEC 60949's adiabatic form). No heat lost is what makes it a bound that errs safe for
+    events shorter than a few seconds, while the copper sheds little into the board or
+    insulation [practice]."""
+    _positive(area=area)
+    s = area * 1e6  # m² -> mm²
+    return (IEC60949_K_COPPER * s) ** 2 * _withstand_log(initial, final)
+
+
+def adiabatic_current(area: float, duration: float, initial: float, final: float) -> float:
+    """The current in A a copper conductor of ``area`` (m²) carries for ``duration`` (s) from
+    ``initial`` to ``final`` °C: the square root of :func:`adiabatic_i2t` over the duration."""
+    _positive(duration=duration)
+    return math.sqrt(adiabatic_i2t(area, initial, final) / duration)
+
+
+def adiabatic_min_area(current: float, duration: float, initial: float, final: float) -> float:
+    """The smallest copper cross-section in m² that carries ``current`` (A) for ``duration``
+    (s) from ``initial`` to ``final`` °C (the inverse of :func:`adiabatic_current`)."""
+    _positive(current=current, duration=duration)
+    s = current * math.sqrt(duration / _withstand_log(initial, final)) / IEC60949_K_COPPER
+    return s * 1e-6
+
+
+def awg_area(gauge: int) -> float:
+    """Cross-section in m² of a copper conductor of American Wire Gauge ``gauge`` (-3 for
+    4/0): d = 0.005 in × 92^((36 − n)/39), area π·d²/4 [published: ASTM B258's definition of the
+    gauge]. A stranded wire of that gauge has about the same copper area [practice]."""
+    if not -3 <= gauge <= 40:
+        raise ValueError(f"AWG gauge must be within -3 (4/0) and 40, got {gauge}")
+    d = 0.005 * 0.0254 * 92.0 ** ((36 - gauge) / 39)
+    return math.pi / 4 * d * d
+
+
+def awg_for_area(area: float) -> int | None:
+    """The thinnest American Wire Gauge with at least ``area`` m² of copper; None above 4/0."""
+    return next((g for g in range(40, -4, -1) if awg_area(g) >= area), None)

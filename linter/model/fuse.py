@@ -23,6 +23,7 @@ __all__ = [
     "pulse_i2t", "melt_verdict", "pulse_i2t_fraction", "pulse_i2t_ok",
     "CONTINUOUS_DERATING", "max_continuous_current", "linear_ambient_factor",
     "ADIABATIC_TIME", "gates_for", "pre_arcing_time", "MeltLimit", "melt_limit",
+    "PTC_HOLD_REFERENCE", "PTC_HOLD_PER_KELVIN", "HoldCurrent", "ptc_hold_current",
 ]
 
 INF = math.inf
@@ -329,3 +330,54 @@ def melt_limit(current: float, duration: float, rating: float, speed: str,
     bound = "" if pre_arcing else "at least "  # the gates bound the time, the part's curve gives it
     return MeltLimit(curve, f"{source}: pre-arcing {bound}{t * 1e3:.4g} ms at {k:.3g} × I_n",
                      notes)
+
+
+# --- a PTC's hold current at an ambient ----------------------------------------------------------
+
+#: Temperature the data sheet's hold current is given at, °C [practice: PTC tables head their
+#: I_hold column at 23 or 25 °C; 25 °C is taken].
+PTC_HOLD_REFERENCE = 25.0
+#: A PTC's hold current falls with ambient, commonly to 70-80 % at 50-60 °C [practice;
+#: docs/references.md "What parts survive over time"]. Without the part's table the cautious end
+#: is taken: 70 % at 60 °C, in a straight line from 100 % at 25 °C (0.857 %/K).
+PTC_HOLD_PER_KELVIN = 0.30 / (60.0 - PTC_HOLD_REFERENCE)
+
+
+@record(frozen=True)
+class HoldCurrent:
+    """A PTC's hold current at an ambient, A, and what it rests on, in words."""
+
+    current: float
+    basis: str
+
+
+def ptc_hold_current(hold: float, ambient: float,
+                     points: list[tuple[float, float]] | None = None) -> HoldCurrent:
+    """The hold current at ``ambient`` °C of a PTC holding ``hold`` A at 25 °C.
+
+    With the part's (ambient, current) points: straight lines between them and the rated point,
+    flat beyond the coldest, and the last two points' line beyond the hottest (floored at 0; the
+    words say it is extrapolated). Without points: :func:`linear_ambient_factor` at
+    :data:`PTC_HOLD_PER_KELVIN`.
+    """
+    if not (hold > 0.0 and math.isfinite(hold)):
+        raise ValueError(f"hold current must be a finite value > 0 A, got {hold}")
+    if not points:
+        factor = linear_ambient_factor(ambient, PTC_HOLD_PER_KELVIN, PTC_HOLD_REFERENCE)
+        return HoldCurrent(hold * factor, "no hold_derating given: 70 % at 60 °C in a straight "
+                                          "line from 25 °C [practice]")
+    table = dict(points)
+    table.setdefault(PTC_HOLD_REFERENCE, hold)
+    pts = sorted(table.items())
+    if ambient <= pts[0][0]:
+        return HoldCurrent(pts[0][1], "the part's hold_derating table")
+    for (t0, i0), (t1, i1) in zip(pts, pts[1:]):
+        if t0 < ambient <= t1:
+            return HoldCurrent(i0 + (i1 - i0) * (ambient - t0) / (t1 - t0),
+                               "the part's hold_derating table")
+    if len(pts) < 2:  # a table of the rated point alone says nothing about heat
+        return HoldCurrent(pts[-1][1], "the part's hold_derating table, one point")
+    (t0, i0), (t1, i1) = pts[-2], pts[-1]
+    current = max(0.0, i1 + (i1 - i0) * (ambient - t1) / (t1 - t0))
+    return HoldCurrent(current, f"the part's hold_derating table, extrapolated beyond its "
+                                f"hottest point {t1:g} °C")

@@ -16,7 +16,7 @@ from . import copper
 from .fuse import CONTINUOUS_DERATING
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
-           "CELL_AGEING", "FAULT_RESISTANCE"]
+           "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL"]
 
 #: Highest junction temperature allowed in service, below the part's own tj_max [practice:
 #: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
@@ -38,6 +38,11 @@ CELL_AGEING = 1.5
 #: IEC 62133-2's external short-circuit test, 80 +/- 20 mOhm; value from memory,
 #: docs/references.md "Events in time"].
 FAULT_RESISTANCE = 0.080
+#: Highest temperature a conductor may reach at the end of an event, °C [practice: 160 °C is the
+#: short-circuit limit of PVC-insulated copper (IEC 60364-4-43, from 70 °C) and lies within the
+#: glass transition of common FR-4 laminates, 130-180 °C [memory]; above it insulation softens
+#: and a trace may lift]. Not the melting point: a conductor that nearly melts has failed.
+CONDUCTOR_FINAL = 160.0
 
 
 @record(frozen=True)
@@ -47,7 +52,8 @@ class Limits:
     ``junction``: switch-temperature's ``limit``; ``fuse_derating``: secondary-protection's
     ``derating``; ``trace_rise``: conductor-capacity's ``delta_t``; ``charge_margin``:
     threshold-ladder's ``charge_margin``; ``cell_ageing`` and ``fault_resistance``:
-    short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner).
+    short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner);
+    ``conductor_final``: conductor-withstand's ``final_temperature``.
     """
 
     junction: float = JUNCTION_LIMIT
@@ -56,6 +62,7 @@ class Limits:
     charge_margin: float = CHARGE_MARGIN
     cell_ageing: float = CELL_AGEING
     fault_resistance: float = FAULT_RESISTANCE
+    conductor_final: float = CONDUCTOR_FINAL
 
     @classmethod
     def of(cls, options: Mapping[str, Any]) -> "Limits":
@@ -71,7 +78,9 @@ class Limits:
                    getattr(trace, "delta_t", TRACE_RISE),
                    getattr(ladder, "charge_margin", CHARGE_MARGIN),
                    getattr(reach, "ageing", CELL_AGEING),
-                   getattr(reach, "fault_resistance", FAULT_RESISTANCE))
+                   getattr(reach, "fault_resistance", FAULT_RESISTANCE),
+                   getattr(options.get("conductor-withstand"), "final_temperature",
+                           CONDUCTOR_FINAL))
 
     def junction_ceiling(self, fet: Any) -> float:
         """The highest junction temperature a FET part may reach: the limit or its tj_max."""
@@ -85,3 +94,15 @@ class Limits:
         """The IPC-2221 rating of a trace part at the allowed rise (ValueError off the chart)."""
         return copper.ipc2221_current(trace.width, copper.trace_thickness(trace),
                                       self.trace_rise, trace.layer.value)
+
+    def conductor_start(self, ambient: float) -> float:
+        """The temperature a conductor starts an event at, °C: ``ambient`` plus the steady rise
+        conductor-capacity allows (a conductor that passes that check runs no hotter)."""
+        return ambient + self.trace_rise
+
+    def conductor_withstand(self, area: float, duration: float, ambient: float) -> float:
+        """The current a copper conductor of cross-section ``area`` (m²) carries for
+        ``duration`` (s) from :meth:`conductor_start` at ``ambient`` to ``conductor_final``
+        (IEC 60949's adiabatic form)."""
+        return copper.adiabatic_current(area, duration, self.conductor_start(ambient),
+                                        self.conductor_final)

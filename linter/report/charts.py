@@ -212,18 +212,18 @@ class Chart:
 
 
 TITLES = {"ladder": "Voltage ladder (per cell)", "trip": "Trip-current window",
-          "tj": "Junction temperature against ambient"}
+          "tj": "Junction temperature against ambient", "tc": "Time–current coordination"}
 
 
 def charts_for(model: Any) -> list[Chart]:
-    """The three charts of a design. A chart the design lacks the parts for says why instead.
+    """The four charts of a design. A chart the design lacks the parts for says why instead.
 
     Each is drawn on its own: a model figure that fails (the engine has reported it already)
     costs the chart that needs it, never the report.
     """
     out = []
     for cid, build in (("ladder", voltage_ladder), ("trip", trip_window),
-                       ("tj", junction_temperature)):
+                       ("tj", junction_temperature), ("tc", time_current_chart)):
         try:
             out.append(build(model))
         except Exception as exc:
@@ -771,5 +771,174 @@ def junction_temperature(model: Any) -> Chart:
     return chart
 
 
+# --- 4. time-current coordination -------------------------------------------------------------
+
+def clip_polyline(points: Sequence[tuple[float, float]],
+                  box: tuple[float, float, float, float]) -> list[list[tuple[float, float]]]:
+    """The runs of a polyline inside ``box`` (x0, y0, x1, y1), each segment cut where it leaves
+    (Liang–Barsky), so a curve that runs off the plot stops at its edge."""
+    bx0, by0, bx1, by1 = box
+    runs: list[list[tuple[float, float]]] = []
+    current: list[tuple[float, float]] = []
+    for (ax, ay), (bx, by) in zip(points, points[1:]):
+        dx, dy = bx - ax, by - ay
+        lo, hi = 0.0, 1.0
+        for p, qv in ((-dx, ax - bx0), (dx, bx1 - ax), (-dy, ay - by0), (dy, by1 - ay)):
+            if p == 0:
+                if qv < 0:
+                    lo, hi = 1.0, 0.0
+                continue
+            r = qv / p
+            if p < 0:
+                lo = max(lo, r)
+            else:
+                hi = min(hi, r)
+        if lo > hi:
+            if current:
+                runs.append(current)
+                current = []
+            continue
+        start = (ax + lo * dx, ay + lo * dy)
+        end = (ax + hi * dx, ay + hi * dy)
+        if not current or lo > 0:
+            if current:
+                runs.append(current)
+            current = [start]
+        current.append(end)
+        if hi < 1:
+            runs.append(current)
+            current = []
+    if current:
+        runs.append(current)
+    return [r for r in runs if len(r) > 1]
+
+
+_KIND_WORDS = {"fuse": "melts", "ptc": "PTC", "fet": "FET rating", "conductor": "withstand"}
+
+
+def time_current_chart(model: Any) -> Chart:
+    """Log current against log time: the events, the protector's detections, the fuse's melting
+    limit and gates, the FETs' ratings and the traces' withstand, all from
+    :func:`packwarden.model.coordination.time_current` (the chart computes nothing itself)."""
+    from ..model.coordination import DURATIONS, time_current
+    chart = Chart("tc", TITLES["tc"],
+                  "Pack current against time, both logarithmic. Each event is a bar up to its "
+                  "duration (green: a load or what the protection permits; purple: a fault a "
+                  "detection ends; dashed to the top: for ever). Shaded: the protector's "
+                  "detections, trip current window by delay window, lighter where they surely "
+                  "trip. Lines: where a fuse melts (with the standard's gates as bars), a PTC's "
+                  "hold current and I_max, the FETs' ratings and steady thermal limit (θJA, at the highest "
+                  "ambient), the traces' adiabatic withstand. "
+                  "An event must end (its bar top) below every line it crosses: the part whose "
+                  "line lies lowest above an event acts or fails first.")
+    tc = time_current(model)
+    chart.notes.extend(tc.notes)
+    if not tc.marks:
+        return chart
+    currents = ([mk.current for mk in tc.marks] + [w.current_min for w in tc.windows]
+                + [w.current_max for w in tc.windows])
+    xlo, xhi = nice_below(min(currents) / 2), nice_above(max(currents) * 3)
+    ylo, yhi = DURATIONS[0], DURATIONS[-1]
+    W, H = 1180.0, 470.0
+    x0, x1, top, bottom = 84.0, 840.0, 16.0, H - 46.0
+    lx = x1 + 22
+
+    def x(i: float) -> float:
+        return x0 + (math.log10(i) - math.log10(xlo)) / (math.log10(xhi) - math.log10(xlo)) * (x1 - x0)
+
+    def y(t: float) -> float:
+        t = min(max(t, ylo / 10), yhi * 10)
+        return bottom - (math.log10(t) - math.log10(ylo)) / (math.log10(yhi) - math.log10(ylo)) * (bottom - top)
+
+    svg = Svg(W, H, "Time-current coordination: events, detections and part limits", "tc")
+    decades = (math.log10(xhi) - math.log10(xlo)) > 3
+    for v in log_ticks(xlo, xhi):
+        if decades and not math.isclose(math.log10(v), round(math.log10(v))):
+            continue
+        svg.line(x(v), top, x(v), bottom, "grid")
+        svg.text(x(v), bottom + 16, tick_text(v), "tick", anchor="middle")
+    for e in range(round(math.log10(ylo)), round(math.log10(yhi)) + 1):
+        svg.line(x0, y(10.0 ** e), x1, y(10.0 ** e), "grid")
+        t = 10.0 ** e
+        svg.text(x0 - 6, y(t) + 4, q(t, "s") if t < 1 else f"{t:g} s", "tick", anchor="end")
+    svg.line(x0, bottom, x1, bottom, "axis")
+    svg.line(x0, top, x0, bottom, "axis")
+    svg.text((x0 + x1) / 2, bottom + 36, "pack current, A", "axis-title", anchor="middle")
+    svg.text(x0 - 68, top + (bottom - top) / 2, "time", "axis-title", anchor="middle",
+             transform=f"rotate(-90 {_n(x0 - 68)} {_n(top + (bottom - top) / 2)})")
+    box = (x0, top, x1, bottom)
+    for w in tc.windows:
+        css = f"tc-w tc-{w.detection}"
+        for a, b, extra in ((w.current_min, w.current_max, ""), (w.current_max, xhi, " sure")):
+            xa, xb = max(x(a), x0), min(x(b), x1)
+            ya, yb = max(y(w.delay_max), top), min(y(w.delay_min), bottom)
+            svg.rect(xa, ya, xb - xa, yb - ya, css + extra)
+        chart.values.append((f"{w.detection} detection",
+                             f"trips {span_text(w.current_min, w.current_max, 'A')} after "
+                             f"{span_text(w.delay_min, w.delay_max, 's')}"))
+    for g in tc.gates:
+        lo = y(g.t_min) if g.t_min > 0 else bottom
+        hi = y(g.t_max) if math.isfinite(g.t_max) else top
+        if x0 <= x(g.current) <= x1:
+            svg.line(x(g.current), lo, x(g.current), hi, "tc-gate")
+        chart.values.append((f"{g.element} gate at {q(g.current, 'A')}",
+                             f"melts after {q(g.t_min, 's') if g.t_min > 0 else '—'} and before "
+                             f"{q(g.t_max, 's') if math.isfinite(g.t_max) else '—'}"))
+    # Identical parts draw one line, labelled once: "Q1–Q4 θJA steady".
+    same: dict[tuple, list[Any]] = {}
+    for lim in tc.limits:
+        key = (lim.kind, lim.label[len(lim.element):], lim.basis,
+               tuple((round(i, 6), t) for i, t in lim.points))
+        same.setdefault(key, []).append(lim)
+    drawn = []
+    for (kind, rest, basis, _), group in same.items():
+        lim = group[0]
+        drawn.append((kind, refs_text([g.element for g in group]) + rest))
+        for run in clip_polyline([(x(i), y(t)) for i, t in lim.points], box):
+            svg.el("polyline", points=" ".join(f"{_n(a)},{_n(b)}" for a, b in run),
+                   class_=f"tc-limit k-{kind}")
+        chart.values.append((drawn[-1][1], basis))
+    placed: list[tuple[float, float]] = []
+    for k, mk in enumerate(tc.marks, 1):
+        css = "m-load" if mk.load else "m-fault"
+        xm = min(max(x(mk.current), x0), x1)
+        if mk.duration is None:
+            svg.line(xm, bottom, xm, top, f"tc-mark {css} ever")
+            ym = top + 10
+        else:
+            ym = y(mk.duration)
+            svg.line(xm, bottom, xm, ym, f"tc-mark {css}")
+            svg.el("circle", cx=float(xm), cy=float(ym), r=4.0, class_=f"tc-dot {css}")
+        # the number beside its event, moved down clear of the numbers already placed
+        ny = max(ym - 5, top + FONT)
+        while any(abs(xm - px) < 14 and abs(ny - py) < FONT + 2 for px, py in placed):
+            ny += FONT + 2
+        placed.append((xm, ny))
+        svg.text(xm + 5, ny, str(k), f"tc-num {css}")
+        chart.values.append((f"{k}: {mk.name}", f"{q(mk.current, 'A')}, "
+                             + ("for ever" if mk.duration is None else f"for {q(mk.duration, 's')}")))
+    # the legend: the numbered events, then each line's kind
+    ly = top + 4
+    svg.text(lx, ly + 8, "events", "col-head")
+    for k, mk in enumerate(tc.marks, 1):
+        ly += FONT + 5
+        when = "for ever" if mk.duration is None else q(mk.duration, "s")
+        svg.text(lx, ly + 8, _ellipsis(f"{k}  {mk.name}: {q(mk.current, 'A')}, {when}", W - lx - 4),
+                 "tc-legend " + ("m-load" if mk.load else "m-fault"))
+    ly += FONT + 12
+    svg.text(lx, ly + 8, "limits", "col-head")
+    keys = [(f"tc-limit k-{kind}", f"{label} ({_KIND_WORDS[kind]})") for kind, label in drawn]
+    keys += [("tc-gate", f"{who} the standard's gates (melts within)")
+             for who in dict.fromkeys(g.element for g in tc.gates)]
+    for css, text in keys:
+        ly += FONT + 5
+        if ly > H - 8:
+            break
+        svg.line(lx, ly + 4, lx + 22, ly + 4, css)
+        svg.text(lx + 28, ly + 8, _ellipsis(text, W - lx - 32), "tc-legend")
+    chart.svg = svg.markup()
+    return chart
+
+
 __all__ = ["Chart", "charts_for", "voltage_ladder", "trip_window", "junction_temperature", "spread",
-           "ladder_data", "trip_rows", "tj_curves", "Svg", "text_width"]
+           "ladder_data", "trip_rows", "tj_curves", "Svg", "text_width", "time_current_chart"]
