@@ -24,6 +24,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..netlist import Component
 from .values import SIGNAL_OHMS, ModelProblem  # one threshold for "carries the pack current"
+from .events import CHARGER_SOURCE_R, SWITCH_ON_R, terminal_network
 from .network import Network, NetworkError
 from ..records import record
 
@@ -42,10 +43,8 @@ DEFAULT_SUPPLY_C = (22e-9, 1e-6)
 #: typical]: below it a reversed charger overloads the pin, above it the charger- and
 #: load-detection currents of the pin shift its thresholds.
 DEFAULT_SENSE_R = (300.0, 4000.0)
-# Source resistance of a charger in the stress cases: small against every signal path, so the
-# charger holds its open-circuit voltage across them [derived].
-_CHARGER_R = 0.01
-_CHANNEL_ON = 1e-3
+# The charger's source resistance and an on switch in the stress cases are events.py's, whose
+# reversed-charger event is one of the cases.
 _NOISE = 1e-12
 
 
@@ -132,13 +131,14 @@ def sense_resistor(m: "DesignModel") -> SenseResistor | None:
             return None
         terminal = (set(_two_pins(r)) - {sense}).pop()
         resistance = r.part.value * (1 - r.part.tol / 100)
-    ch, sv = m.design.charger, m.stack_voltage
+    rev = m.event("charger-reversed")
     voltage = current = power = None
-    if ch is not None and ch.reverse_polarity.value == "possible" and sv is not None:
-        # Reversed, the charger's open-circuit voltage adds to the stack's [practice: docs/references.md];
-        # the pin itself is clamped near the protector's rails, so nearly all of it lies across
-        # the resistor.
-        voltage = ch.open_circuit_max + sv.max
+    if rev is not None and rev.voltage is not None:
+        # Reversed, the charger's open-circuit voltage adds to the stack's across the off
+        # discharge switches (the charger-reversed event) [practice: docs/references.md]; the pin
+        # itself is clamped near the protector's rails, so nearly all of it lies across the
+        # resistor.
+        voltage = rev.voltage
         if resistance:
             current = voltage / resistance
             power = voltage * current
@@ -161,14 +161,7 @@ def scenarios(m: "DesignModel") -> list[tuple[str, Any]]:
     pos, neg = m.terminals
 
     def solve(case: str, volts: float, off: set[str], extra=None) -> None:
-        states = {ch.name: ch.role not in off for ch in m.channels}
-        net = m.network({ch.name: _CHANNEL_ON for ch in m.channels}, cell_emf=volts,
-                        cell_r=stack.part.internal_resistance.nominal, temp=25.0,
-                        switches_on=states, load=None)
-        for d in m.netlist.of_kind("diode"):
-            a, k = d.pins.get("anode"), d.pins.get("cathode")
-            if a and k and a != k:
-                net.add_diode(d.refdes, a, k, v_forward=d.part.forward_voltage)
+        net = terminal_network(m, volts, off)
         if extra is not None:
             extra(net)
         try:
@@ -180,19 +173,18 @@ def scenarios(m: "DesignModel") -> list[tuple[str, Any]]:
     ch = m.design.charger
     if ch is not None and pos != neg:
         def charger(net: Network) -> None:
-            net.add_source("(charger)", pos, neg, ch.open_circuit_max, _CHARGER_R)
+            net.add_source("(charger)", pos, neg, ch.open_circuit_max, CHARGER_SOURCE_R)
         solve("a charger at its open-circuit voltage with the charge switches off and the cells "
               "at the over-discharge detection minimum", cv.min, {"charge"}, charger)
-        if ch.reverse_polarity.value == "possible":
-            def reversed_charger(net: Network) -> None:
-                net.add_source("(charger)", neg, pos, ch.open_circuit_max, _CHARGER_R)
-            solve("a charger connected reversed with the discharge switches off", cv.max,
-                  {"discharge"}, reversed_charger)
+        reversed_charger = m.charger_reversed_solution  # the charger-reversed event's solve
+        if reversed_charger is not None:
+            out.append(("a charger connected reversed with the discharge switches off",
+                        reversed_charger[1]))
     bal = _balance_switches(m)
     if bal:
         def balancing(net: Network) -> None:
             for name, a, b in bal:
-                net.add_resistor(name, a, b, _CHANNEL_ON)
+                net.add_resistor(name, a, b, SWITCH_ON_R)
         solve("balancing every cell at the overcharge detection maximum", cv.max, set(), balancing)
     return out
 
