@@ -204,8 +204,8 @@ def dissipation_at(m: "DesignModel", h: HeatCase, temp: float) -> float:
 class ConductorLoad:
     """The highest current a trace or wire carries while the protection permits it.
 
-    ``share`` is its current per ampere at the pack terminals, from the network solve at the
-    corner of the over-current trip maximum; ``current`` is that share of ``basis_current``.
+    ``share`` is its current per ampere at the pack terminals in the ``permitted`` event (the
+    current the protection permits for ever); ``current`` is that share of ``basis_current``.
     ``sense_share`` is the fraction of the protector's sense resistance the conductor makes up
     (0 when it is not between the ground and sense pins), at 25 °C, typical values.
     """
@@ -222,24 +222,23 @@ class ConductorLoad:
 
 def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
     parts = m.netlist.of_kind("trace", "wire")
-    t = m.overcurrent_trip
-    if not parts or t is None or m.stack is None or not math.isfinite(t.max):
+    t, permitted = m.overcurrent_trip, m.event("permitted")
+    if (not parts or t is None or permitted is None or m.stack is None
+            or not (math.isfinite(permitted.current) and permitted.current > 0)):
         return ()
-    basis, basis_current = "over-current trip max", t.max
+    basis, basis_current = "permitted current", permitted.current
     ch = m.design.charger
     if ch is not None and ch.current > basis_current:
         basis, basis_current = "charger current", ch.current
     cell = m.stack.part
-    sol, _, _ = m.solve_path(t.at_max.rds, t.at_max.ambient, "min",
-                            corner_value(cell.internal_resistance, "min"))
     typ_sense = t.at_typ.sense_resistance
     out = []
     for c in parts:
         a, b = c.pins.get("1"), c.pins.get("2")
-        if sol is None or not a or not b or a == b:
+        if not a or not b or a == b:
             continue
-        i_load = abs(sol.current("(load)"))
-        share = abs(sol.current(c.refdes)) / i_load if i_load else 0.0
+        # a conductor outside the pack's current is not among the event's elements
+        share = permitted.element_current.get(c.refdes, 0.0) / permitted.current
         sense_share = 0.0
         if math.isfinite(typ_sense) and typ_sense > 0:
             without = _sense_with_ideal(m, t.at_typ.rds, c, IDEAL, cell.internal_resistance.nominal)

@@ -19,11 +19,10 @@ Volts, amperes, ohms, farads, watts.
 
 from __future__ import annotations
 
-import math
 from typing import TYPE_CHECKING, Any
 
 from ..netlist import Component
-from .values import SIGNAL_OHMS, ModelProblem  # one threshold for "carries the pack current"
+from .values import ModelProblem
 from .events import CHARGER_SOURCE_R, SWITCH_ON_R, terminal_network
 from .network import Network, NetworkError
 from ..records import record
@@ -229,21 +228,21 @@ def capacitor_stress(m: "DesignModel") -> tuple[Stress, ...]:
 
 
 def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
-    """Highest dissipation of each resistor: the stress cases, and the power path at the trip.
+    """Highest dissipation of each resistor: the stress cases, and the power path in the
+    ``permitted`` event.
 
-    In the power path the highest sustained current is just below the over-current trip maximum,
-    which the protection never cuts off; each resistor takes its share of it (from the solve at
-    the trip maximum's corner) at its highest value.
+    In the power path the highest sustained current is just below the over-current trip, which
+    the protection never cuts off (the permitted event); each resistor dissipates what that event
+    says, at the event's own corner: a shunt that sets the current does so at the resistance it
+    dissipates at (V²/R), not at the opposite end of its tolerance.
     """
     cases = m.support_scenarios
-    path_share = _path_shares(m)
-    t = m.overcurrent_trip
+    permitted = m.event("permitted")
     out = []
     for c in m.netlist.of_kind("resistor"):
         if _two_pins(c) is None:
             continue
         r_typ = m.part_resistance(c, 25.0, "typ")
-        r_high = m.part_resistance(c, 25.0, "max")
         worst: tuple[float, str] | None = None
         for case, sol in cases:
             i = sol.currents.get(c.refdes)
@@ -252,33 +251,10 @@ def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
             watts = i * i * r_typ
             if worst is None or watts > worst[0]:
                 worst = (watts, case)
-        share = path_share.get(c.refdes, 0.0)
-        if t is not None and share > 0 and math.isfinite(t.max):
-            watts = (share * t.max) ** 2 * r_high
-            if worst is None or watts > worst[0]:
-                worst = (watts, f"the load just below the over-current trip maximum "
-                                f"({t.max:.3g} A)")
+        watts = permitted.dissipation.get(c.refdes) if permitted is not None else None
+        if watts is not None and (worst is None or watts > worst[0]):
+            worst = (watts, f"the current the protection permits for ever "
+                            f"({permitted.current:.3g} A, the permitted event)")
         if worst is not None and worst[0] > _NOISE:
             out.append(Stress(c, worst[0], worst[1], c.part.power))
     return tuple(out)
-
-
-def _path_shares(m: "DesignModel") -> dict[str, float]:
-    """Amperes through each resistor per ampere of load, at the trip maximum's corner."""
-    t, stack = m.overcurrent_trip, m.stack
-    if t is None or stack is None:
-        return {}
-    emf = m.cell_limits.nominal if m.cell_limits else 3.6
-    net = m.network(t.at_max.rds, cell_emf=emf, cell_r=stack.part.internal_resistance.nominal,
-                    temp=t.at_max.ambient, corner="min")
-    try:
-        sol = net.solve(ground=stack.bottom)
-    except NetworkError:
-        return {}
-    i_load = abs(sol.current("(load)"))
-    if not i_load:
-        return {}
-    # Only the path's own resistors carry load current; a divider's current is set by the stack
-    # voltage, not by the load, and is counted in the stress cases instead.
-    return {c.refdes: abs(sol.currents.get(c.refdes, 0.0)) / i_load
-            for c in m.netlist.of_kind("resistor") if c.part.value <= SIGNAL_OHMS}
