@@ -9,7 +9,8 @@ Layers, each importing only those above it in this list:
 * ``path`` — the power-path solver: the network at a stated corner, solved, cached;
 * ``limits`` — the limits a design is judged by (rule options after overrides, part ratings);
 * ``events`` — events in time (continuous and peak load, the permitted current, the gap overload,
-  the hard short), each at its stated corner with its figures;
+  the hard short, the reversed charger, the turn-off spike), each at its stated corner with its
+  figures;
 * ``stress``, ``support``, ``storage`` — the worst cases built on the path and the events;
 * ``design`` — ``DesignModel``, the facade rules read (``ctx.model``);
 * ``vector``, ``yield_`` — the yield run: the same functions in vector form (imports numpy).
