@@ -369,18 +369,22 @@ def test_trip_window_example_design() -> None:
     labels = texts(charts(report(EXAMPLE))["trip"])
     for text in ("U1 over-current trip", "1.79–7.78 A, typ 3.67 A", "U1 short-circuit trip",
                  "continuous load", "1.2 A", "peak load, 40 ms", "1.6 A", "Q1 FET id_max",
-                 "prospective short circuit", "118 A", "current, A (log scale)"):
+                 "hard short", "118 A", "current, A (log scale)",
+                 # the permitted event: the current the rules judge the ratings by
+                 # (docs/references.md "Events in time"; the issue's own calculator, about 5.49 A)
+                 "permitted for ever, -20 °C", "5.51 A"):
         assert text in labels, text
 
 
 def test_trip_window_names_a_short_circuit_off_the_scale() -> None:
-    # A prospective short circuit over 20 times the largest other current would squeeze the
-    # window to a sliver: it is named at the edge, not drawn.
-    win = SimpleNamespace(min=2.0, max=6.0, typ=3.0, at_max=SimpleNamespace(share={}))
+    # A hard short over 20 times the largest other current would squeeze the window to a sliver:
+    # it is named at the edge, not drawn.
+    win = SimpleNamespace(min=2.0, max=6.0, typ=3.0)
+    events = {"hard-short": SimpleNamespace(current=900.0)}
     model = SimpleNamespace(
         overcurrent_trip=win, short_circuit_trip=None, protector=SimpleNamespace(refdes="U1"),
         design=SimpleNamespace(load=SimpleNamespace(continuous=1.0, peak=None)), stack=None,
-        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), prospective_short_circuit=900.0,
+        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), event=events.get,
         limits=Limits())
     chart = trip_window(model)
     assert "900 A, off scale →" in texts(ET.fromstring(chart.svg))
