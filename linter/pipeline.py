@@ -376,8 +376,11 @@ def policy_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
     if policy is None:
         return findings
     from .policy import check_policy  # only a project with a policy pays for its models
+    model = run.result.model
     found, held = check_policy(policy, lambda limit: run.context(limit.rule, limit.severity),
-                               run.result.figures, run.netlist, bool(run.netlist.problems))
+                               run.result.figures, run.netlist, bool(run.netlist.problems),
+                               lambda: _from_model(run.result, run.doc, lambda: model.events, ())
+                               if model is not None else ())
     run.result.skipped.extend(held)
     return findings + found
 

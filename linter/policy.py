@@ -17,6 +17,15 @@ A team names its policy file in its config (``policy = "team-policy.yaml"`` unde
         part: {name: OR-FUSE-5A}
         banned: true
         severity: warning
+      - id: short-under-200a
+        figure: hard-short.current          # an event's figure: <event>.<current|duration|i2t|voltage>
+        max: 200 A
+
+A figure is a key of the design's figures, or a figure of one of its events in time
+(docs/rules-api.md, "Events"), named ``<event>.<what>`` with ``what`` one of ``current``,
+``duration``, ``i2t`` and ``voltage`` (:data:`EVENT_FIGURES`): ``gap-overload.i2t``,
+``charger-reversed.voltage``. A design without that event, or an event without that figure (an
+event that lasts for ever has no duration), has nothing to bound.
 
 The file is read by the same strict loader as designs (no aliases, tags or merge keys; size and
 depth limits), checked by the pydantic model :class:`PolicyFile` (the JSON Schema
@@ -42,11 +51,19 @@ from pydantic import BaseModel, Field, StrictFloat, StrictInt, StrictStr, WithJs
 
 from .api import Figure, Finding, RuleContext, Severity
 from .figures import DECLARED, KeyFigure
+from .model.events import EVENT_NAMES
 from .loader import Document, InputError, load_file
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
 from .schema import PART_KINDS, Strict, Toleranced, drop_titles, quantity_of
 from .validate import validate
 from .records import record
+
+#: The figures of an event a policy may bound, by what they are called after the event's name
+#: (``hard-short.current``), with their units: the ``Event``'s attributes of the same names.
+EVENT_QUANTITIES = {"current": "A", "duration": "s", "i2t": "A²s", "voltage": "V"}
+#: Every event figure a policy may name, with its unit.
+EVENT_FIGURES = {f"{event}.{what}": unit for event in EVENT_NAMES
+                 for what, unit in EVENT_QUANTITIES.items()}
 
 POLICY_FORMAT = "packwarden-policy/1"
 RULE_PREFIX = "policy/"
@@ -76,8 +93,10 @@ class LimitSpec(Strict):
 
     id: Annotated[str, WithJsonSchema({"type": "string", "pattern": LIMIT_ID.pattern})] = Field(
         description="stable id; findings carry the rule id policy/<id>")
-    figure: Annotated[str, WithJsonSchema({"type": "string", "enum": list(DECLARED)})] | None = Field(
-        default=None, description="a key of the design's figures, e.g. trip_current_max")
+    figure: Annotated[str, WithJsonSchema({"type": "string", "enum": [*DECLARED, *EVENT_FIGURES]})] | None = Field(
+        default=None, description="a key of the design's figures, e.g. trip_current_max, or an "
+                                  "event's figure, <event>.<current|duration|i2t|voltage>, e.g. "
+                                  "hard-short.current")
     part: PartSelector | None = Field(default=None, description="the parts this limit applies to")
     parameter: str | None = Field(default=None, description="a part parameter, e.g. vds_max or "
                                                             "voltage.charge (needs part.kind)")
@@ -202,12 +221,15 @@ def _limit(doc: Document, where: tuple, spec: LimitSpec) -> Limit:
             if key in raw:
                 raise fail(key, f"'{key}' belongs to part limits; a figure limit gives 'min' "
                                 f"and/or 'max'", on_key=True)
-        if spec.figure not in DECLARED:
-            close = difflib.get_close_matches(spec.figure, list(DECLARED), n=1)
+        known = [*DECLARED, *EVENT_FIGURES]
+        if spec.figure not in known:
+            close = difflib.get_close_matches(spec.figure, known, n=1)
             raise fail("figure", f"unknown figure '{spec.figure}'" +
                        (f" (did you mean '{close[0]}'?)" if close else
-                        f"; known figures: {', '.join(DECLARED)}"))
-        unit = DECLARED[spec.figure].unit
+                        f"; known figures: {', '.join(DECLARED)}, or an event's "
+                        f"<event>.<{'|'.join(EVENT_QUANTITIES)}> with the events "
+                        f"{', '.join(EVENT_NAMES)}"))
+        unit = DECLARED[spec.figure].unit if spec.figure in DECLARED else EVENT_FIGURES[spec.figure]
         low, high = _bounds(doc, where, spec, raw, unit, f"figure {spec.figure}")
         return Limit(**common, unit=unit, figure=spec.figure, low=low, high=high)
 
@@ -345,10 +367,12 @@ def parameter_unit(kind: str, dotted: tuple[str, ...]) -> str:
 # --- checking a design --------------------------------------------------------------------------
 
 def check_policy(policy: Policy, ctx_for, figures: dict[str, KeyFigure], netlist: Any,
-                 held_back: bool = False) -> tuple[list[Finding], list[str]]:
+                 held_back: bool = False, events: Any = ()) -> tuple[list[Finding], list[str]]:
     """Findings of every limit on one design, and the limits held back.
 
-    ``ctx_for(limit)`` makes the :class:`RuleContext` a limit reports through. Figure limits are
+    ``ctx_for(limit)`` makes the :class:`RuleContext` a limit reports through; ``events`` are the
+    design's events in time (``DesignModel.events``), which event figures are read from, or a
+    callable that gives them (asked only when a limit names one). Figure limits are
     electrical and, like electrical rules, wait while the netlist has integrity errors
     (``held_back``): a figure computed from a misspelt part is not worth bounding.
     """
@@ -358,6 +382,15 @@ def check_policy(policy: Policy, ctx_for, figures: dict[str, KeyFigure], netlist
         if limit.figure is not None:
             if held_back:
                 skipped.append(limit.rule)
+                continue
+            if limit.figure in EVENT_FIGURES:
+                events = events() if callable(events) else events
+                found = _event_figure(limit.figure, events)
+                if found is None:
+                    continue  # no such event, or it has no such figure: nothing to bound
+                name, value = found
+                findings.extend(_bound_findings(limit, ctx_for(limit), name, value,
+                                                ("protector",), netlist))
                 continue
             findings.extend(_figure_findings(limit, ctx_for(limit), figures, netlist))
         else:
@@ -382,15 +415,31 @@ def _anchor(kinds: tuple[str, ...], netlist: Any) -> tuple[tuple, str | None]:
     return ("components",), None
 
 
+def _event_figure(name: str, events: Any) -> tuple[str, Any] | None:
+    """(name, value) of event figure ``name`` (``hard-short.current``) among ``events``, or None."""
+    event_name, what = name.rsplit(".", 1)
+    event = next((e for e in events if e.name == event_name), None)
+    value = getattr(event, what) if event is not None else None
+    return None if value is None else (name, value)
+
+
 def _figure_findings(limit: Limit, ctx: RuleContext, figures: dict[str, KeyFigure],
                      netlist: Any) -> Iterable[Finding]:
-    name, unit = limit.figure, limit.unit
+    name = limit.figure
     if name not in figures:
         return  # the design has no such figure (no short-circuit detection, say): nothing to bound
-    path, element = _anchor(DECLARED[name].element, netlist)
     figure = figures[name]
-    value = figure.value
-    if not figure.known:
+    value = figure.value if figure.known else None
+    yield from _bound_findings(limit, ctx, name, value, DECLARED[name].element, netlist)
+
+
+def _bound_findings(limit: Limit, ctx: RuleContext, name: str, value: Any,
+                    kinds: tuple[str, ...], netlist: Any) -> Iterable[Finding]:
+    """The findings of ``limit`` on a figure's ``value`` (None or not finite: it could not be
+    computed), located at the design's first component of ``kinds``."""
+    unit = limit.unit
+    path, element = _anchor(kinds, netlist)
+    if value is None or not math.isfinite(value):
         yield ctx.finding(f"{name} could not be computed for this design, so the policy limit on "
                           f"it cannot be checked", path=path, element=element, key="unknown",
                           hint=_hint(limit))

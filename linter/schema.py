@@ -627,7 +627,7 @@ class CellCurrents(Strict):
 
     discharge: PositiveAmps = Field(description=(
         "maximum continuous discharge current per cell, in amperes; times the cells in parallel, "
-        "the over-current trip maximum must not exceed it (trip-current-window)"))
+        "the current the protection permits for ever must not exceed it (trip-current-window)"))
     charge: PositiveAmps = Field(description=(
         "maximum charge current per cell, in amperes; times the cells in parallel, the charger "
         "current must not exceed it (charge-conditions)"))
@@ -960,7 +960,7 @@ class FetCommon(Packaged):
         "[practice]"))
     id_max: PositiveAmps = Field(description=(
         "continuous drain current rating I_D per channel, in amperes; each channel's share of "
-        "the over-current trip maximum must not exceed it (trip-current-window)"))
+        "the current the protection permits for ever must not exceed it (trip-current-window)"))
     id_pulse_max: PositiveAmps | None = Field(default=None, description=(
         "pulsed drain current rating I_DM per channel, in amperes; a hard short's channel current "
         "must stay within it until the protection turns it off (short-circuit-stress)"))

@@ -18,12 +18,14 @@ class Options(RuleOptions):
       summary="traces and wires carry the highest current the protection permits",
       severity=Severity.error, options=Options, example=Example(
           bad="T1: {kind: trace, width: 0.3 mm, copper_weight: 1 oz, length: 20 mm, pins: [FUSED, P+]}"
-              "   # 1.0 A for 10 K against a 7.78 A trip max",
+              "   # 1.0 A for 10 K against the 5.51 A the protection permits",
           good="T1: {kind: trace, width: 5 mm, copper_weight: 2 oz, length: 20 mm, pins: [FUSED, P+]}"))
 def check(ctx, options):
-    """Traces and wires are components of the power path: the protection lets any current up to
-    its over-current trip maximum flow for as long as it likes, so every conductor must carry that
-    current, as it divides through the path, within a temperature rise. Traces are rated by the
+    """Traces and wires are components of the power path: the protection lets any current just
+    below its over-current trip flow for as long as it likes (the ``permitted`` event: with the
+    switches as the sense resistance, the self-heated current, below the unheated trip maximum),
+    so every conductor must carry that current, as it divides through the path, within a
+    temperature rise. Traces are rated by the
     IPC-2221 conductor formula I = k·ΔT^0.44·A^0.725 (k 0.048 outer, 0.024 inner, A in mil²);
     wires by their rated current. A trace between the protector's ground and sense pins also adds
     its copper resistance (IEC 60028 resistivity with its temperature coefficient) to the sense

@@ -1,13 +1,13 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 from packwarden.model import FUSE_DERATING
-from packwarden.model.fuse import ADIABATIC_TIME, melt_limit, ptc_hold_current
+from packwarden.model.fuse import ADIABATIC_TIME, melt_limit, ptc_hold_current, pulse_i2t_fraction
 
 
 class Options(RuleOptions):
     derating: float = Field(FUSE_DERATING, gt=0, le=1, description=(
         "fraction of the fuse rating it may carry continuously [practice: 75 % at 25 °C]"))
-    i2t_margin: float = Field(0.48, gt=0, le=1, description=(
+    i2t_margin: float = Field(pulse_i2t_fraction(100), gt=0, le=1, description=(
         "fraction of the melting I²t a protected event may let through [practice: 48 % for 100 pulses]"))
 
 

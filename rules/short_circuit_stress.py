@@ -31,15 +31,15 @@ def check(ctx, options):
     high), is judged against it instead; without it the error stands and states that energy. The
     fuse's side of the short is secondary-protection's."""
     m = ctx.model
-    pulse = m.short_circuit_pulse
+    pulse = m.event("hard-short")
     if pulse is None:
         return
     seen = set()
     for ch in m.channels:
-        ich = pulse.channel_current.get(ch.name, 0.0)
+        ich = pulse.current_through(ch.name)
         path = _part_path(m, ch.package)
         limit = ch.part.id_pulse_max
-        i2t = pulse.i2t(ch.name)
+        i2t = pulse.i2t_through(ch.name)
         figures = [Figure("hard-short current", pulse.current, "A"),
                    Figure("channel current", ich, "A"), Figure("duration", pulse.duration, "s"),
                    Figure("I²t", i2t, "A²s")]

@@ -14,8 +14,10 @@ def check(ctx, options):
     pins (the resistance is the path's transresistance, from a nodal solve, either way). Over
     detection tolerance, part spread, gate drive (cell voltage) and ambient, with self-heating
     from the load, it spans a window. A load just below
-    the trip is never cut off, so the window's maximum must stay within what every element carries
-    continuously: the cells' discharge rating and each FET channel's id_max as the current divides.
+    the trip is never cut off, so the current the protection permits for ever (the ``permitted``
+    event: the trip maximum's corner, with the switches heated by that current where they are the
+    sense resistance) must stay within what every element carries continuously: the cells'
+    discharge rating and each FET channel's id_max as the current divides.
     Its minimum must clear every load that lasts longer than the shortest over-current delay, else
     the product cuts out in normal use. A hard short must exceed the short-circuit trip maximum,
     or it is caught only by the slower over-current path."""
@@ -33,29 +35,36 @@ def check(ctx, options):
             element=p.refdes, key="no-sense",
             hint="connect ground and sense across the switch FETs (or a shunt) in the power path")
         return
-    def assumed(op):
-        notes = [n for n in op.assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n]
+    def assumed(assumptions):
+        notes = [n for n in assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n
+                 or "lower bound" in n]
         return f" (assumed: {'; '.join(notes)})" if notes else ""
 
     cell = stack.part
     cell_limit = stack.discharge_rating
-    if t.max > cell_limit:
+    permitted = m.event("permitted")
+    ever = permitted.current if permitted is not None else None
+    held = (f" (the permitted event, at {fq(permitted.ambient, '°C')} ambient)"
+            if permitted is not None else "")
+    notes = assumed(permitted.assumptions) if permitted is not None else ""
+    if ever is not None and ever > cell_limit:
         yield ctx.finding(
-            f"over-current trip max {fq(t.max, 'A')} exceeds the cells' discharge rating "
+            f"the protection permits {fq(ever, 'A')} for ever, above the cells' discharge rating "
             f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
-            f"just below the trip is never cut off{assumed(t.at_max)}",
+            f"just below the trip is never cut off{held}{notes}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
-            key="max-vs-cell", figures=window + [Figure("cell limit", cell_limit, "A")],
-            hint=_resistance_hint(t, t.max / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
+            key="max-vs-cell", figures=window + [Figure("permitted current", ever, "A"),
+                                                 Figure("cell limit", cell_limit, "A")],
+            hint=_resistance_hint(t, ever / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
     # FET channels: current divides across parallel packages as their resistances do
     for ch in m.channels:
-        if ch.role is None:
+        if ch.role is None or permitted is None:
             continue
-        ich = _channel_current(m, t, ch.name)
+        ich = permitted.current_through(ch.name)
         if ich > ch.part.id_max:
             yield ctx.finding(
-                f"{ch.name} carries {fq(ich, 'A')} at the over-current trip max, above its id_max "
-                f"{fq(ch.part.id_max, 'A')}{assumed(t.at_max)}",
+                f"{ch.name} carries {fq(ich, 'A')} for ever at the permitted current "
+                f"{fq(ever, 'A')}, above its id_max {fq(ch.part.id_max, 'A')}{held}{notes}",
                 path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
                 figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
@@ -73,7 +82,7 @@ def check(ctx, options):
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
                 f"the pack may cut out in normal use (at {t.at_min.ambient:.0f} °C ambient, "
                 f"{fq(t.at_min.vgs, 'V')} gate drive, highest "
-                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min)}",
+                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min.assumptions)}",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
                 figures=window + [Figure(what, current, "A")],
                 hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
@@ -85,11 +94,6 @@ def check(ctx, options):
             path=ppath, element=p.refdes, key="short-circuit",
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
-
-
-def _channel_current(m, t, name):
-    # the share each channel takes of the pack current, at the low-resistance corner
-    return t.at_max.share.get(name, 0.0) * t.max
 
 
 def _shunts(m):

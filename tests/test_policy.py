@@ -22,7 +22,7 @@ from packwarden.cli import app
 from packwarden.engine import lint, load_registry
 from packwarden.loader import InputError
 from packwarden.figures import DECLARED
-from packwarden.policy import load_policy, parameter_unit, policy_json_schema
+from packwarden.policy import EVENT_FIGURES, load_policy, parameter_unit, policy_json_schema
 from packwarden.report import RenderOptions, formatter, load_formats
 
 REPO = Path(__file__).resolve().parent.parent
@@ -452,7 +452,7 @@ def test_the_example_team_policy_is_valid() -> None:
     assert [lim.id for lim in policy.limits] == ["beacon-trip-max", "junction-100", "fet-vds-20",
                                                  "cell-charge-window", "no-small-fet"]
     assert policy_json_schema()["definitions"]["LimitSpec"]["properties"]["figure"]["anyOf"][0][
-        "enum"] == list(DECLARED)
+        "enum"] == [*DECLARED, *EVENT_FIGURES]
 
 
 def test_load_policy_raises_the_first_mistake(tmp_path: Path) -> None:

@@ -15,6 +15,7 @@ from packwarden import montecarlo  # noqa: E402
 from packwarden.engine import lint  # noqa: E402
 from packwarden.model.values import Span  # noqa: E402
 from packwarden.model.yield_ import DEFAULT_SEED, draw, run_yield, wilson_interval  # noqa: E402
+from packwarden.testing import lint_variant  # noqa: E402
 
 REPO = Path(__file__).resolve().parents[1]
 
@@ -179,6 +180,9 @@ def test_uniform_builds_of_each_example_stay_inside_its_worst_case(name):
     t = m.overcurrent_trip
     assert t.min <= r.figures["trip_current_hot"]["min"] * (1 + 1e-9)
     assert r.figures["trip_current_cold"]["max"] <= t.max * (1 + 1e-9)
+    # the permitted event bounds every build's current permitted for ever, which the cell rating
+    # is judged by in the rule and in the yield run alike
+    assert r.figures["permitted_current"]["max"] <= m.event("permitted").current * (1 + 1e-6)
     [cont] = [h for h in m.switch_heat if h.case == "continuous"][:1]
     assert r.figures["junction_temperature_continuous"]["max"] <= cont.tj + 0.02
 
@@ -299,3 +303,19 @@ def test_numpy_is_imported_only_for_yield():
             "lint(['example_designs/orchard-probe.yaml']); print('numpy' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=REPO)
     assert out.stdout.strip() == "False", out.stderr
+
+
+def test_the_cell_rating_is_judged_by_the_self_heated_permitted_current(tmp_path):
+    # The Orchard probe's switches are its sense resistance: the current it permits for ever
+    # settles below the unheated trip maximum as they heat (docs/references.md "Events in time";
+    # the issue's own calculator: about 5.49 A against 7.78 A). With its cells rated 6 A, between
+    # the two, no build fails the rating, as the rule passes it (tests/rules/
+    # test_permitted_ratings.py), though many builds' unheated trip maximum lies above 6 A.
+    run = lint_variant(tmp_path, REPO / "example_designs/orchard-probe.yaml",
+                       REPO / "example_designs/parts/orchard-parts.yaml",
+                       lib_replace=[("max_current: {discharge: 10 A", "max_current: {discharge: 6 A")])
+    m = run.designs[0].model
+    r = run_yield(m, 20_000, seed=5, distribution="uniform")
+    assert r.figures["permitted_current"]["max"] <= m.event("permitted").current * (1 + 1e-6)
+    assert r.figures["trip_current_cold"]["max"] > 6.0
+    assert _check(r, "trip-current-window", "permitted for ever").failures == 0

@@ -9,8 +9,9 @@ Layers, each importing only those above it in this list:
 * ``path`` — the power-path solver: the network at a stated corner, solved, cached;
 * ``limits`` — the limits a design is judged by (rule options after overrides, part ratings);
 * ``events``, ``short`` — events in time (continuous and peak load, the permitted current, the gap
-  overload, the hard short, the weakest short, the switch-on inrush, storage), each at its stated
-  corner with its figures; ``short`` solves the hard short with the gate drive it leaves each switch;
+  overload, the hard short, the weakest short, the switch-on inrush, the reversed charger, the
+  turn-off spike, storage), each at its stated corner with its figures; ``short`` solves the hard
+  short with the gate drive it leaves each switch;
 * ``stress``, ``support``, ``storage`` — the worst cases built on the path and the events;
 * ``design`` — ``DesignModel``, the facade rules read (``ctx.model``);
 * ``vector``, ``yield_`` — the yield run: the same functions in vector form (imports numpy).

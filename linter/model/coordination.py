@@ -93,11 +93,16 @@ class TimeCurrent:
     notes: tuple[str, ...]
 
 
+#: Events the chart leaves out: storage's microamperes over months say nothing of which part acts
+#: first in a fault (the storage-drain rule judges them).
+OFF_CHART = ("storage",)
+
+
 def time_current(m: "DesignModel") -> TimeCurrent:
     """The coordination of a design; empty parts where the design lacks them."""
     notes: list[str] = []
     marks = tuple(Mark(e.name, e.current, e.duration, e.detection is None) for e in m.events
-                  if e.current > 0)
+                  if e.current > 0 and e.name not in OFF_CHART)
     limits: list[Limit] = []
     gates: list[GateBar] = []
     for f in m.netlist.of_kind("fuse", "ptc"):

@@ -303,6 +303,12 @@ class DesignModel:
         return (onset.solution, onset.rds) if onset is not None else (None, {})
 
     @cached_property
+    def charger_reversed_solution(self) -> tuple[Any, Any] | None:
+        """(network, solution) of a charger connected reversed, the discharge switches off
+        (events.charger_reversed_solution); None where it cannot be reversed."""
+        return events.charger_reversed_solution(self)
+
+    @cached_property
     def prospective_short_circuit(self) -> float | None:
         """Highest current a hard short across the pack terminals can draw, amperes: the onset of
         the short at the lowest ambient (:attr:`short_onset`)."""
@@ -319,9 +325,10 @@ class DesignModel:
             return cases
         if role == "discharge":
             cases.append(("discharge switch off under load: the stack voltage", sv.max))
-            if ch is not None and ch.reverse_polarity.value == "possible":
+            rev = self.event("charger-reversed")
+            if rev is not None and rev.voltage is not None:
                 cases.append(("charger connected reversed: its open-circuit voltage plus the "
-                              "stack voltage", ch.open_circuit_max + sv.max))
+                              "stack voltage", rev.voltage))
         elif role == "charge" and ch is not None:
             cases.append(("charge switch off with the charger connected: its open-circuit "
                           "voltage minus the lowest stack voltage", ch.open_circuit_max - sv.min))
@@ -344,7 +351,8 @@ class DesignModel:
     @cached_property
     def events(self) -> tuple:
         """The design's events in time, each at its stated corner (events.Event; docs/rules-api.md,
-        "Events"): continuous-load, peak-load, permitted, gap-overload, hard-short."""
+        "Events"): continuous-load, peak-load, permitted, gap-overload, hard-short,
+        charger-reversed, turn-off-spike."""
         return events.design_events(self)
 
     def event(self, name: str):

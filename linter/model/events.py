@@ -17,6 +17,9 @@ The events of this layer (see docs/rules-api.md, "Events"):
 * ``weakest-short`` — the weakest short the protection must still catch, until it ends it (or
   for ever, when no detection surely does);
 * ``switch-on-inrush`` — the charging pulse of the load's capacitance when the switches close;
+* ``charger-reversed`` — a charger connected the wrong way round, the discharge switches off;
+* ``turn-off-spike`` — a discharge switch interrupting the hard short through the wiring's
+  inductance;
 * ``storage`` — the pack on the shelf: its drains before and after the over-discharge cut-off.
 
 Units are SI: amperes, ohms, volts, watts, seconds, °C.
@@ -30,22 +33,26 @@ from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from . import inrush, thermal
-from .network import NetworkError
+from .network import NetworkError, Source
 from .ocv import HOURS_PER_MONTH
 from .values import SIGNAL_OHMS, ModelProblem, corner_value, spread_low
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
     from .path import OperatingPoint
+    from .topology import SwitchChannel
 
 __all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "design_events", "pulse_i2t", "PermittedPoint",
            "permitted_point", "ShortCircuitPulse", "short_circuit_pulse", "InrushEvent",
            "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths",
-           "WeakestShort", "weakest_short", "SECONDS_PER_MONTH"]
+           "WeakestShort", "weakest_short", "SECONDS_PER_MONTH", "CHARGER_SOURCE_R",
+           "SWITCH_ON_R", "terminal_network", "charger_reversed_solution",
+           "DEFAULT_TURN_OFF_TIME", "TurnOffSpike", "turn_off_spike"]
 
 #: The events this layer computes, in the order a report lists them.
 EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short",
-               "weakest-short", "switch-on-inrush", "storage")
+               "weakest-short", "switch-on-inrush", "charger-reversed", "turn-off-spike",
+               "storage")
 #: The events that are external short circuits across the pack terminals: a cell meets them in its
 #: safety standard's external short-circuit test (IEC 62133-2), not as a rated pulse.
 SHORT_EVENTS = ("hard-short", "weakest-short")
@@ -319,6 +326,8 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
     inrush_event = _switch_on_inrush(m)
     if inrush_event is not None:
         out.append(inrush_event)
+    out += _charger_reversed(m)
+    out += _turn_off_spike(m, out)
     out.extend(_storage(m))
     return tuple(out)
 
@@ -784,3 +793,177 @@ def _storage(m: "DesignModel") -> list[Event]:
     return [Event("storage", words, b.temperature, first.drain_current,
                   b.duration * SECONDS_PER_MONTH, currents, {}, None, None, b.assumptions,
                   figures=figures)]
+
+# --- the reversed charger ----------------------------------------------------------------------
+
+#: Source resistance of a charger in the networks that ask what voltage each part sees: small
+#: against every signal path, so the charger holds its open-circuit voltage across them; its
+#: current limit is not modelled, so a current through a part that conducts is an upper bound
+#: [derived].
+CHARGER_SOURCE_R = 0.01
+#: An on switch in those networks: they ask which way current goes and what each part sees, not
+#: how hot the switches run [derived].
+SWITCH_ON_R = 1e-3
+#: Below this a branch's current is the solver's rounding, not conduction, amperes [derived].
+_CONDUCTS = 1e-9
+
+
+def terminal_network(m: "DesignModel", volts: float, off: set[str]) -> Any:
+    """The power path with every resistor and diode of the netlist, each cell a source of
+    ``volts`` (nominal internal resistance), the switches of the roles in ``off`` off, nothing on
+    the terminals: the network of the support-network stress cases and of the reversed charger."""
+    states = {ch.name: ch.role not in off for ch in m.channels}
+    net = m.network({ch.name: SWITCH_ON_R for ch in m.channels}, cell_emf=volts,
+                    cell_r=m.stack.part.internal_resistance.nominal, temp=25.0,
+                    switches_on=states, load=None)
+    for d in m.netlist.of_kind("diode"):
+        a, k = d.pins.get("anode"), d.pins.get("cathode")
+        if a and k and a != k:
+            net.add_diode(d.refdes, a, k, v_forward=d.part.forward_voltage)
+    return net
+
+
+def charger_reversed_solution(m: "DesignModel") -> tuple[Any, Any] | None:
+    """(network, solution) of a charger connected reversed at its open-circuit maximum, the cells
+    at the overcharge detection maximum, the discharge switches off; None where the design says
+    the charger cannot be reversed (or gives none)."""
+    ch, cv, p = m.design.charger, m.cell_voltage, m.protector
+    pos, neg = m.terminals
+    if (ch is None or ch.reverse_polarity.value != "possible" or cv is None or p is None
+            or m.stack is None or pos == neg):
+        return None
+    net = terminal_network(m, cv.max, {"discharge"})
+    net.add_source("(charger)", neg, pos, ch.open_circuit_max, CHARGER_SOURCE_R)
+    try:
+        return net, net.solve(ground=m.stack.bottom)
+    except NetworkError as exc:
+        m.problems.append(ModelProblem("network", f"reversed charger: {exc}"))
+        return None
+
+
+def _charger_reversed(m: "DesignModel") -> list[Event]:
+    """The reversed charger: the voltage across the off discharge switches (open-circuit voltage
+    plus the stack, less what drops across parts that conduct) and the current through whatever
+    conducts (body diodes, diodes, resistors: the charger's current), each part's V·I."""
+    solved = m.charger_reversed_solution
+    off = m.channels_of("discharge")
+    if solved is None or not off:
+        return []
+    net, sol = solved
+    package = {ch.name: ch.package for ch in m.channels}
+    volts = [abs(v) for c in off if (v := sol.voltage_between(c.drain, c.source)) is not None]
+    currents: dict[str, float] = {}
+    power: dict[str, float] = {}
+    for br in net.branches:
+        if isinstance(br, Source) or br.name not in sol.currents:
+            continue  # the cells and the charger drive it
+        i, v = sol.current(br.name), sol.voltage_between(br.a, br.b)
+        if abs(i) <= _CONDUCTS or v is None:
+            continue
+        currents[br.name] = abs(i)
+        key = package.get(br.name, br.name)
+        power[key] = power.get(key, 0.0) + abs(v * i)
+    ch, sv = m.design.charger, m.stack_voltage
+    current = abs(sol.current("(charger)"))
+    if current <= _CONDUCTS:
+        current, conducts = 0.0, "nothing conducts: the off discharge switches hold it"
+    else:
+        conducts = "a stiff charger (its current limit not modelled) through what conducts"
+    words = (f"a charger connected reversed at its open-circuit maximum "
+             f"{ch.open_circuit_max:.4g} V in series with the stack at the overcharge detection "
+             f"maximum {sv.max:.4g} V, the discharge switches off, 25 °C, nominal values; "
+             f"{conducts}")
+    return [Event("charger-reversed", words, 25.0, current, None, currents, power,
+                  max(volts) if volts else None, None)]
+
+
+# --- the turn-off spike ------------------------------------------------------------------------
+
+#: Turn-off time of a protection FET when its part gives none, seconds. Protector gate outputs
+#: pull down through some kilohms into a few nanofarads of gate charge, so the drain current
+#: falls over roughly a microsecond [practice]; a faster edge gives a larger spike, so give the
+#: part's own figure (or measure it) when the margin is small.
+DEFAULT_TURN_OFF_TIME = 1e-6
+
+
+@record(frozen=True)
+class TurnOffSpike:
+    """The voltage a discharge switch sees when it interrupts a short through wiring inductance.
+
+    V = V_stack + L·di/dt, with di/dt the current interrupted over the switch's turn-off time (a
+    linear fall [practice]: the real edge is not linear, but its average slope sets the energy
+    the inductance must get rid of). The current is the short's highest at a physical corner,
+    its onset at the lowest ambient (``DesignModel.prospective_short_circuit``): the short as it
+    goes on at 25 °C draws less, a colder one more, and the onset bounds them all.
+    """
+
+    channel: str
+    inductance: float
+    current: float
+    turn_off_time: float
+    time_assumed: bool
+    stack: float
+
+    @property
+    def di_dt(self) -> float:
+        return self.current / self.turn_off_time
+
+    @property
+    def spike(self) -> float:
+        return self.inductance * self.di_dt
+
+    @property
+    def total(self) -> float:
+        return self.stack + self.spike
+
+    def describe(self) -> str:
+        assumed = (f", turn-off time assumed {self.turn_off_time * 1e6:.3g} µs [practice]"
+                   if self.time_assumed else "")
+        return (f"turning off a short circuit: the stack voltage {self.stack:.3g} V plus the "
+                f"wiring spike L·di/dt = {self.inductance * 1e9:.3g} nH × {self.current:.3g} A / "
+                f"{self.turn_off_time * 1e6:.3g} µs = {self.spike:.3g} V{assumed}")
+
+
+def turn_off_spike(m: "DesignModel", ch: "SwitchChannel",
+                   hard: Event | None = None) -> TurnOffSpike | None:
+    """The turn-off spike of discharge switch ``ch`` interrupting the hard-short event (``hard``,
+    else the design's), or None without wiring inductance or a hard short."""
+    inductance = m.design.pack.wiring_inductance
+    if inductance is None or ch.role != "discharge" or m.stack_voltage is None:
+        return None
+    hard = hard if hard is not None else m.event("hard-short")
+    if hard is None:
+        return None
+    t_off = getattr(ch.part, "turn_off_time", None)
+    assumed = t_off is None
+    current = m.prospective_short_circuit or hard.current
+    return TurnOffSpike(ch.name, inductance, current,
+                        DEFAULT_TURN_OFF_TIME if assumed else t_off, assumed, m.stack_voltage.max)
+
+
+def _turn_off_spike(m: "DesignModel", done: list[Event]) -> list[Event]:
+    """The worst discharge switch's turn-off spike (:class:`TurnOffSpike`: the onset's current,
+    shared across the channels as in the hard short). Each discharge package dissipates the
+    channel's current times the voltage across it averaged over the fall, ½·V·I (a current
+    falling linearly at a constant voltage [derived]), for the turn-off time."""
+    hard = next((e for e in done if e.name == "hard-short"), None)
+    if hard is None:
+        return []
+    spikes = [(ch, s) for ch in m.channels_of("discharge")
+              if (s := turn_off_spike(m, ch, hard)) is not None]
+    if not spikes:
+        return []
+    currents: dict[str, float] = {}
+    power: dict[str, float] = {}
+    for ch, s in spikes:
+        i = hard.current_through(ch.name) * s.current / hard.current  # the onset's share
+        currents[ch.name] = i
+        power[ch.package] = power.get(ch.package, 0.0) + 0.5 * s.total * i
+    ch, worst = max(spikes, key=lambda cs: cs[1].total)
+    words = (f"{ch.name} interrupting the hard short ({worst.current:.4g} A) through the wiring "
+             f"inductance {worst.inductance * 1e9:.3g} nH in {worst.turn_off_time * 1e6:.3g} µs: "
+             f"the stack at its highest {worst.stack:.4g} V plus L·di/dt")
+    notes = ((f"turn-off time assumed {DEFAULT_TURN_OFF_TIME * 1e6:g} µs [practice]",)
+             if any(s.time_assumed for _, s in spikes) else ())
+    return [Event("turn-off-spike", words, hard.ambient, worst.current, worst.turn_off_time,
+                  currents, power, worst.total, hard.detection, notes)]

@@ -20,7 +20,7 @@ from ..records import record
 __all__ = [
     "Gate", "GateSet", "Melt", "MeltVerdict",
     "IEC60127_2_SHEET3", "IEC60127_2_SHEET5", "IEC60127_2_QUICK", "UL248_14", "GATE_SETS",
-    "pulse_i2t", "melt_verdict", "pulse_i2t_fraction", "pulse_i2t_ok",
+    "pulse_i2t", "melt_verdict", "pulse_i2t_fraction",
     "CONTINUOUS_DERATING", "max_continuous_current", "linear_ambient_factor",
     "ADIABATIC_TIME", "gates_for", "pre_arcing_time", "MeltLimit", "melt_limit",
     "PTC_HOLD_REFERENCE", "PTC_HOLD_PER_KELVIN", "HoldCurrent", "ptc_hold_current",
@@ -198,13 +198,6 @@ def pulse_i2t_fraction(pulses: float) -> float:
         return f1
     s = (math.log10(pulses) - math.log10(n0)) / (math.log10(n1) - math.log10(n0))
     return f0 + s * (f1 - f0)
-
-
-def pulse_i2t_ok(pulse_i2t_value: float, melting_i2t: float, pulses: float) -> bool:
-    """Whether a repeated pulse keeps within :func:`pulse_i2t_fraction` of the melting I²t."""
-    if not melting_i2t > 0.0:
-        raise ValueError(f"melting_i2t must be > 0, got {melting_i2t}")
-    return pulse_i2t_value <= pulse_i2t_fraction(pulses) * melting_i2t
 
 
 #: Continuous current at 25 °C as a fraction of the rating [practice; docs/references.md "Fuses"].

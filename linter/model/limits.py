@@ -13,7 +13,7 @@ from typing import Any, Mapping
 
 from ..records import record
 from . import copper
-from .fuse import CONTINUOUS_DERATING
+from .fuse import CONTINUOUS_DERATING, max_continuous_current
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
            "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL"]
@@ -88,7 +88,7 @@ class Limits:
 
     def fuse_current(self, fuse: Any) -> float:
         """The continuous current a fuse part may carry: its rating, derated."""
-        return fuse.rated_current * self.fuse_derating
+        return max_continuous_current(fuse.rated_current, base_factor=self.fuse_derating)
 
     def trace_capacity(self, trace: Any) -> copper.ConductorRating:
         """The IPC-2221 rating of a trace part at the allowed rise (ValueError off the chart)."""

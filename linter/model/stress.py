@@ -14,7 +14,8 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from . import thermal
-from .events import ShortCircuitPulse, permitted_point, pulse_i2t, short_circuit_pulse
+from .events import (DEFAULT_TURN_OFF_TIME, ShortCircuitPulse, TurnOffSpike, permitted_point,
+                     pulse_i2t, short_circuit_pulse, turn_off_spike)
 from .network import NetworkError
 from .values import IDEAL, corner_value
 from ..records import record
@@ -22,7 +23,6 @@ from ..records import record
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
     from .path import OperatingPoint
-    from .topology import SwitchChannel
 
 __all__ = [
     "HeatCase", "switch_heat", "permitted_current_heat",
@@ -34,12 +34,6 @@ __all__ = [
     "DEFAULT_CHARGE_TEMPERATURE", "charge_temperature",
 ]
 
-
-#: Turn-off time of a protection FET when its part gives none, seconds. Protector gate outputs
-#: pull down through some kilohms into a few nanofarads of gate charge, so the drain current
-#: falls over roughly a microsecond [practice]; a faster edge gives a larger spike, so give the
-#: part's own figure (or measure it) when the margin is small.
-DEFAULT_TURN_OFF_TIME = 1e-6
 
 #: Auto-retry period assumed when a protector with ``release_on: [auto_retry]`` gives no
 #: ``retry_period``, seconds. Auto-recovering protectors retry every 0.1 s to a few seconds
@@ -201,57 +195,8 @@ def dissipation_at(m: "DesignModel", h: HeatCase, temp: float) -> float:
 # The short-circuit pulse (ShortCircuitPulse, short_circuit_pulse, pulse_i2t) lives in events.py,
 # the layer above: it is the hard-short event; the names stay importable from here.
 
-# --- turn-off spike -----------------------------------------------------------------------------
-
-@record(frozen=True)
-class TurnOffSpike:
-    """The voltage a discharge switch sees when it interrupts a short through wiring inductance.
-
-    V = V_stack + L·di/dt, with di/dt the prospective short-circuit current over the switch's
-    turn-off time (a linear fall [practice]: the real edge is not linear, but its average slope
-    sets the energy the inductance must get rid of).
-    """
-
-    channel: str
-    inductance: float
-    current: float
-    turn_off_time: float
-    time_assumed: bool
-    stack: float
-
-    @property
-    def di_dt(self) -> float:
-        return self.current / self.turn_off_time
-
-    @property
-    def spike(self) -> float:
-        return self.inductance * self.di_dt
-
-    @property
-    def total(self) -> float:
-        return self.stack + self.spike
-
-    def describe(self) -> str:
-        assumed = (f", turn-off time assumed {self.turn_off_time * 1e6:.3g} µs [practice]"
-                   if self.time_assumed else "")
-        return (f"turning off a short circuit: the stack voltage {self.stack:.3g} V plus the "
-                f"wiring spike L·di/dt = {self.inductance * 1e9:.3g} nH × {self.current:.3g} A / "
-                f"{self.turn_off_time * 1e6:.3g} µs = {self.spike:.3g} V{assumed}")
-
-
-def turn_off_spike(m: "DesignModel", ch: "SwitchChannel") -> TurnOffSpike | None:
-    """The turn-off spike of a discharge switch, or None without wiring inductance or a short."""
-    inductance = m.design.pack.wiring_inductance
-    if inductance is None or ch.role != "discharge" or m.stack_voltage is None:
-        return None
-    psc = m.prospective_short_circuit
-    if psc is None:
-        return None
-    t_off = getattr(ch.part, "turn_off_time", None)
-    assumed = t_off is None
-    return TurnOffSpike(ch.name, inductance, psc, DEFAULT_TURN_OFF_TIME if assumed else t_off,
-                        assumed, m.stack_voltage.max)
-
+# The turn-off spike (DEFAULT_TURN_OFF_TIME, TurnOffSpike, turn_off_spike) lives in events.py too:
+# it is the turn-off-spike event; the names stay importable from here.
 
 # --- conductors -------------------------------------------------------------------------------
 
@@ -259,8 +204,8 @@ def turn_off_spike(m: "DesignModel", ch: "SwitchChannel") -> TurnOffSpike | None
 class ConductorLoad:
     """The highest current a trace or wire carries while the protection permits it.
 
-    ``share`` is its current per ampere at the pack terminals, from the network solve at the
-    corner of the over-current trip maximum; ``current`` is that share of ``basis_current``.
+    ``share`` is its current per ampere at the pack terminals in the ``permitted`` event (the
+    current the protection permits for ever); ``current`` is that share of ``basis_current``.
     ``sense_share`` is the fraction of the protector's sense resistance the conductor makes up
     (0 when it is not between the ground and sense pins), at 25 °C, typical values.
     """
@@ -277,24 +222,23 @@ class ConductorLoad:
 
 def conductor_loads(m: "DesignModel") -> tuple[ConductorLoad, ...]:
     parts = m.netlist.of_kind("trace", "wire")
-    t = m.overcurrent_trip
-    if not parts or t is None or m.stack is None or not math.isfinite(t.max):
+    t, permitted = m.overcurrent_trip, m.event("permitted")
+    if (not parts or t is None or permitted is None or m.stack is None
+            or not (math.isfinite(permitted.current) and permitted.current > 0)):
         return ()
-    basis, basis_current = "over-current trip max", t.max
+    basis, basis_current = "permitted current", permitted.current
     ch = m.design.charger
     if ch is not None and ch.current > basis_current:
         basis, basis_current = "charger current", ch.current
     cell = m.stack.part
-    sol, _, _ = m.solve_path(t.at_max.rds, t.at_max.ambient, "min",
-                            corner_value(cell.internal_resistance, "min"))
     typ_sense = t.at_typ.sense_resistance
     out = []
     for c in parts:
         a, b = c.pins.get("1"), c.pins.get("2")
-        if sol is None or not a or not b or a == b:
+        if not a or not b or a == b:
             continue
-        i_load = abs(sol.current("(load)"))
-        share = abs(sol.current(c.refdes)) / i_load if i_load else 0.0
+        # a conductor outside the pack's current is not among the event's elements
+        share = permitted.element_current.get(c.refdes, 0.0) / permitted.current
         sense_share = 0.0
         if math.isfinite(typ_sense) and typ_sense > 0:
             without = _sense_with_ideal(m, t.at_typ.rds, c, IDEAL, cell.internal_resistance.nominal)

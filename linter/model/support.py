@@ -19,11 +19,11 @@ Volts, amperes, ohms, farads, watts.
 
 from __future__ import annotations
 
-import math
 from typing import TYPE_CHECKING, Any
 
 from ..netlist import Component
-from .values import SIGNAL_OHMS, ModelProblem  # one threshold for "carries the pack current"
+from .values import ModelProblem
+from .events import CHARGER_SOURCE_R, SWITCH_ON_R, terminal_network
 from .network import Network, NetworkError
 from ..records import record
 
@@ -42,10 +42,8 @@ DEFAULT_SUPPLY_C = (22e-9, 1e-6)
 #: typical]: below it a reversed charger overloads the pin, above it the charger- and
 #: load-detection currents of the pin shift its thresholds.
 DEFAULT_SENSE_R = (300.0, 4000.0)
-# Source resistance of a charger in the stress cases: small against every signal path, so the
-# charger holds its open-circuit voltage across them [derived].
-_CHARGER_R = 0.01
-_CHANNEL_ON = 1e-3
+# The charger's source resistance and an on switch in the stress cases are events.py's, whose
+# reversed-charger event is one of the cases.
 _NOISE = 1e-12
 
 
@@ -132,13 +130,14 @@ def sense_resistor(m: "DesignModel") -> SenseResistor | None:
             return None
         terminal = (set(_two_pins(r)) - {sense}).pop()
         resistance = r.part.value * (1 - r.part.tol / 100)
-    ch, sv = m.design.charger, m.stack_voltage
+    rev = m.event("charger-reversed")
     voltage = current = power = None
-    if ch is not None and ch.reverse_polarity.value == "possible" and sv is not None:
-        # Reversed, the charger's open-circuit voltage adds to the stack's [practice: docs/references.md];
-        # the pin itself is clamped near the protector's rails, so nearly all of it lies across
-        # the resistor.
-        voltage = ch.open_circuit_max + sv.max
+    if rev is not None and rev.voltage is not None:
+        # Reversed, the charger's open-circuit voltage adds to the stack's across the off
+        # discharge switches (the charger-reversed event) [practice: docs/references.md]; the pin
+        # itself is clamped near the protector's rails, so nearly all of it lies across the
+        # resistor.
+        voltage = rev.voltage
         if resistance:
             current = voltage / resistance
             power = voltage * current
@@ -161,14 +160,7 @@ def scenarios(m: "DesignModel") -> list[tuple[str, Any]]:
     pos, neg = m.terminals
 
     def solve(case: str, volts: float, off: set[str], extra=None) -> None:
-        states = {ch.name: ch.role not in off for ch in m.channels}
-        net = m.network({ch.name: _CHANNEL_ON for ch in m.channels}, cell_emf=volts,
-                        cell_r=stack.part.internal_resistance.nominal, temp=25.0,
-                        switches_on=states, load=None)
-        for d in m.netlist.of_kind("diode"):
-            a, k = d.pins.get("anode"), d.pins.get("cathode")
-            if a and k and a != k:
-                net.add_diode(d.refdes, a, k, v_forward=d.part.forward_voltage)
+        net = terminal_network(m, volts, off)
         if extra is not None:
             extra(net)
         try:
@@ -180,19 +172,18 @@ def scenarios(m: "DesignModel") -> list[tuple[str, Any]]:
     ch = m.design.charger
     if ch is not None and pos != neg:
         def charger(net: Network) -> None:
-            net.add_source("(charger)", pos, neg, ch.open_circuit_max, _CHARGER_R)
+            net.add_source("(charger)", pos, neg, ch.open_circuit_max, CHARGER_SOURCE_R)
         solve("a charger at its open-circuit voltage with the charge switches off and the cells "
               "at the over-discharge detection minimum", cv.min, {"charge"}, charger)
-        if ch.reverse_polarity.value == "possible":
-            def reversed_charger(net: Network) -> None:
-                net.add_source("(charger)", neg, pos, ch.open_circuit_max, _CHARGER_R)
-            solve("a charger connected reversed with the discharge switches off", cv.max,
-                  {"discharge"}, reversed_charger)
+        reversed_charger = m.charger_reversed_solution  # the charger-reversed event's solve
+        if reversed_charger is not None:
+            out.append(("a charger connected reversed with the discharge switches off",
+                        reversed_charger[1]))
     bal = _balance_switches(m)
     if bal:
         def balancing(net: Network) -> None:
             for name, a, b in bal:
-                net.add_resistor(name, a, b, _CHANNEL_ON)
+                net.add_resistor(name, a, b, SWITCH_ON_R)
         solve("balancing every cell at the overcharge detection maximum", cv.max, set(), balancing)
     return out
 
@@ -237,21 +228,21 @@ def capacitor_stress(m: "DesignModel") -> tuple[Stress, ...]:
 
 
 def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
-    """Highest dissipation of each resistor: the stress cases, and the power path at the trip.
+    """Highest dissipation of each resistor: the stress cases, and the power path in the
+    ``permitted`` event.
 
-    In the power path the highest sustained current is just below the over-current trip maximum,
-    which the protection never cuts off; each resistor takes its share of it (from the solve at
-    the trip maximum's corner) at its highest value.
+    In the power path the highest sustained current is just below the over-current trip, which
+    the protection never cuts off (the permitted event); each resistor dissipates what that event
+    says, at the event's own corner: a shunt that sets the current does so at the resistance it
+    dissipates at (V²/R), not at the opposite end of its tolerance.
     """
     cases = m.support_scenarios
-    path_share = _path_shares(m)
-    t = m.overcurrent_trip
+    permitted = m.event("permitted")
     out = []
     for c in m.netlist.of_kind("resistor"):
         if _two_pins(c) is None:
             continue
         r_typ = m.part_resistance(c, 25.0, "typ")
-        r_high = m.part_resistance(c, 25.0, "max")
         worst: tuple[float, str] | None = None
         for case, sol in cases:
             i = sol.currents.get(c.refdes)
@@ -260,33 +251,10 @@ def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
             watts = i * i * r_typ
             if worst is None or watts > worst[0]:
                 worst = (watts, case)
-        share = path_share.get(c.refdes, 0.0)
-        if t is not None and share > 0 and math.isfinite(t.max):
-            watts = (share * t.max) ** 2 * r_high
-            if worst is None or watts > worst[0]:
-                worst = (watts, f"the load just below the over-current trip maximum "
-                                f"({t.max:.3g} A)")
+        watts = permitted.dissipation.get(c.refdes) if permitted is not None else None
+        if watts is not None and (worst is None or watts > worst[0]):
+            worst = (watts, f"the current the protection permits for ever "
+                            f"({permitted.current:.3g} A, the permitted event)")
         if worst is not None and worst[0] > _NOISE:
             out.append(Stress(c, worst[0], worst[1], c.part.power))
     return tuple(out)
-
-
-def _path_shares(m: "DesignModel") -> dict[str, float]:
-    """Amperes through each resistor per ampere of load, at the trip maximum's corner."""
-    t, stack = m.overcurrent_trip, m.stack
-    if t is None or stack is None:
-        return {}
-    emf = m.cell_limits.nominal if m.cell_limits else 3.6
-    net = m.network(t.at_max.rds, cell_emf=emf, cell_r=stack.part.internal_resistance.nominal,
-                    temp=t.at_max.ambient, corner="min")
-    try:
-        sol = net.solve(ground=stack.bottom)
-    except NetworkError:
-        return {}
-    i_load = abs(sol.current("(load)"))
-    if not i_load:
-        return {}
-    # Only the path's own resistors carry load current; a divider's current is set by the stack
-    # voltage, not by the load, and is counted in the stress cases instead.
-    return {c.refdes: abs(sol.currents.get(c.refdes, 0.0)) / i_load
-            for c in m.netlist.of_kind("resistor") if c.part.value <= SIGNAL_OHMS}

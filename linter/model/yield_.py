@@ -365,7 +365,7 @@ class _Run:
         cont = m.design.load.continuous
         switches = {ch.name for ch in m.channels}
         batch = max(1000, _BATCH_ELEMENTS // max(1, len(self.path.kept)) ** 2)
-        hot_trip, cold_trip = np.empty(samples), np.empty(samples)
+        hot_trip, cold_trip, permitted = np.empty(samples), np.empty(samples), np.empty(samples)
         tj_cont, tj_trip = np.empty(samples), np.empty(samples)
         fail_cont, fail_trip = np.zeros(samples, bool), np.zeros(samples, bool)
         for lo in range(0, samples, batch):
@@ -389,6 +389,11 @@ class _Run:
                            {ch.package: np.full(nb, a.min) for ch in m.channels})
             rs_cold, _, _ = self.solve(cold, rds, nb)
             cold_trip[sl] = self.v_det[sl] / rs_cold
+            # The permitted event's point (events.permitted_point): there, with the switches at
+            # the junction temperature the current just below the trip causes.
+            rs_ever, _, _ = self.heated(sl, nb, cold, self.vgs_high, a.min, lambda rs: v_det / rs,
+                                        permitted=True)
+            permitted[sl] = v_det / rs_ever
 
         limits = m.limits
         rating = stack.discharge_rating
@@ -400,9 +405,9 @@ class _Run:
         checks = [
             check("trip-current-window", f"nuisance over-current trip at the continuous load "
                   f"({cont:g} A)", hot_cond, hot_trip < cont),
-            check("trip-current-window", f"over-current trip above the cells' discharge rating "
-                  f"({rating:g} A)", f"{a.min:g} °C ambient, highest gate drive",
-                  cold_trip > rating),
+            check("trip-current-window", f"current permitted for ever above the cells' "
+                  f"discharge rating ({rating:g} A)", f"{a.min:g} °C ambient, highest gate drive, "
+                  f"switches heated by that current", permitted > rating),
             check("switch-temperature", f"switch junction above its limit at the continuous load "
                   f"({cont:g} A)", tj_cond, fail_cont),
             check("switch-temperature", "switch junction above its limit just below the "
@@ -435,6 +440,7 @@ class _Run:
             f"{c.refdes}.internal_resistance" for c in stack.cells}
         held = tuple(t for t in declared_tolerances(m) if t not in covered)
         figures = {"trip_current_hot": spread_of(hot_trip), "trip_current_cold": spread_of(cold_trip),
+                   "permitted_current": spread_of(permitted),
                    "junction_temperature_continuous": spread_of(tj_cont),
                    "junction_temperature_below_trip": spread_of(tj_trip)}
         if self.charger is not None:

@@ -460,8 +460,7 @@ def _window_text(low: float, typ: float, high: float) -> str:
 
 
 def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
-    """Rows of the trip chart, the prospective short circuit row (kept apart: it may be off scale),
-    and notes."""
+    """Rows of the trip chart, the hard short's row (kept apart: it may be off scale), and notes."""
     rows: list[Row] = []
     notes: list[str] = []
     limits = model.limits  # the fuse derating and trace rise the rules judge by
@@ -475,6 +474,11 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
     if sc is not None and _finite_pos(sc.min) and _finite_pos(sc.max):
         rows.append(Row(f"{p.refdes} short-circuit trip", "band", sc.min, sc.max, sc.typ,
                         _window_text(sc.min, sc.typ, sc.max), "r-short"))
+    # The current the protection permits for ever, which the rules judge the ratings by.
+    permitted = model.event("permitted")
+    if permitted is not None and _finite_pos(permitted.current):
+        rows.append(Row(f"permitted for ever, {permitted.ambient:g} °C", "mark", permitted.current,
+                        permitted.current, None, q(permitted.current, "A"), "r-permitted"))
     load = model.design.load
     if _finite_pos(load.continuous):
         rows.append(Row("continuous load", "mark", load.continuous, load.continuous, None,
@@ -489,8 +493,9 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
         rows.append(Row(f"cell discharge max, {stack.parallel}P × {q(per, 'A')}", "rating", total, total,
                         None, q(total, "A"), "r-rating"))
     # FETs: the pack current at which the most loaded channel of a package reaches its id_max,
-    # from how current divides at the low-resistance corner (as the trip-window rule reads it).
-    shares = t.at_max.share if t is not None else {}
+    # from how the permitted current divides (as the trip-window rule judges it).
+    shares = ({c.name: permitted.current_through(c.name) / permitted.current
+               for c in model.channels} if permitted is not None and permitted.current > 0 else {})
     # Packages with the same limit are one row: a bank of identical pairs reads as one rating.
     fets: dict[tuple[float, float], list[str]] = {}
     for pkg in sorted({c.package for c in model.channels}):
@@ -524,10 +529,11 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
                 continue
             rows.append(Row(f"{f.refdes} trace, IPC-2221 at ΔT {limits.trace_rise:g} K", "rating", cap, cap,
                             None, q(cap, "A"), "r-rating"))
-    psc = model.prospective_short_circuit
+    hard = model.event("hard-short")
     psc_row = None
-    if _finite_pos(psc):
-        psc_row = Row("prospective short circuit", "rating", psc, psc, None, q(psc, "A"), "r-psc")
+    if hard is not None and _finite_pos(hard.current):
+        psc_row = Row("hard short", "rating", hard.current, hard.current, None,
+                      q(hard.current, "A"), "r-psc")
     return rows, psc_row, notes
 
 
@@ -603,7 +609,7 @@ def trip_window(model: Any) -> Chart:
         svg.text(label_w, yc + 4, _ellipsis(psc.label, label_w - 8), "row-label", anchor="end")
         svg.text(x1, yc + 4, f"{psc.text}, off scale →", "row-value off-scale", anchor="end")
         chart.values.append((psc.label, f"{psc.text} (off scale)"))
-        chart.notes.append(f"prospective short circuit {psc.text} lies beyond the axis")
+        chart.notes.append(f"hard short {psc.text} lies beyond the axis")
     chart.svg = svg.markup()
     return chart
 

@@ -131,13 +131,6 @@ def test_pulse_fraction_points():
     assert fuse.pulse_i2t_fraction(1e4) > fuse.pulse_i2t_fraction(5e4)
 
 
-def test_pulse_ok_uses_the_fraction():
-    # The 0.864 A²s vector pulse against an invented fuse of 2.0 A²s melting I²t.
-    pulse = fuse.pulse_i2t(40.0, 540e-6)
-    assert fuse.pulse_i2t_ok(pulse, 2.0, 100)             # 0.864 ≤ 0.96
-    assert not fuse.pulse_i2t_ok(pulse, 2.0, 100_000)     # 0.864 > 0.44
-
-
 def test_continuous_derating():
     # Run a fuse at ≤ 75 % of its rating at 25 °C [practice].
     assert fuse.max_continuous_current(2.0) == pytest.approx(1.5)

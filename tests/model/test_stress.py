@@ -245,8 +245,9 @@ def test_turn_off_spike_is_l_di_dt_and_is_derated_only_in_the_margin_rule(tmp_pa
 
 def _trace_design(layer: str, width: str, weight: str) -> dict:
     # A trace between the cells and the fuse, outside the sense stretch, so it carries the whole
-    # over-current trip maximum: 165 mV / (2 × 3 mΩ) = 27.5 A at the 25 °C cold end.
-    return dict(rds="3 mΩ", fuse_a="T",
+    # current the protection permits for ever: 165 mV / (2 × 3 mΩ) = 27.5 A at the 25 °C cold end
+    # (a hot ratio of 1.0 keeps R_DS(on) flat, so the switches' heat does not lower it).
+    return dict(rds="3 mΩ", fuse_a="T", ratio="1.0",
                 extra=f"  T1: {{kind: trace, width: {width}, copper_weight: {weight}, "
                       f"length: 10 mm, layer: {layer}, pins: [B+, T]}}\n")
 

@@ -107,14 +107,17 @@ def test_bleed_resistor_power_when_balancing(tmp_path):
 
 
 def test_shunt_power_just_below_the_trip(tmp_path):
-    # The shunt carries the whole pack current; just below the trip maximum (55 mV over the
-    # shunt at −1 %, 37.04 A) it dissipates I²R with R at +1 %: 37.04² × 1.515 mΩ = 2.08 W
-    # [derived: P = I²R].
+    # The shunt carries the whole pack current and sets it: just below the trip (55 mV over the
+    # shunt) the current is V/R and the shunt dissipates V²/R at the one resistance it has
+    # [published: Joule heating, P = V²/R], highest at its lowest, −1 %: 0.055² / 1.485 mΩ =
+    # 2.04 W at 37.04 A. (Not 37.04 A at −1 % heating a shunt at +1 %: one part cannot be at both
+    # ends of its tolerance.)
     m = _model(tmp_path, *RIDGE)
     stress = {s.component.refdes: s for s in m.resistor_stress}
-    i = 0.055 / (0.0015 * 0.99)
-    assert m.overcurrent_trip.max == pytest.approx(i, rel=1e-6)
-    assert stress["RSH"].value == pytest.approx(i * i * 0.0015 * 1.01, rel=1e-6)
+    r_low = 0.0015 * 0.99
+    assert m.event("permitted").current == pytest.approx(0.055 / r_low, rel=1e-6)
+    assert stress["RSH"].value == pytest.approx(0.055 ** 2 / r_low, rel=1e-6)
+    assert "permitted" in stress["RSH"].case
     # the divider is voltage-driven: its worst is the stack at overcharge detection, V²/R
     assert stress["R21"].value == pytest.approx((17.2 * 1e6 / 1.15e6) ** 2 / 1e6, rel=1e-4)
 

@@ -303,7 +303,7 @@ def test_ladder_draws_the_bands_in_voltage_order_with_the_charger_clear_of_detec
     tops = [rects[k][0] for k in order]
     assert tops == sorted(tops)
     # The gap a reviewer looks for: the charger's highest 4.221 V sits below the overcharge
-    # detection's lowest 4.275 V [practice: REFERENCES "Single-cell protector", detection
+    # detection's lowest 4.275 V [practice: docs/references.md "Single-cell protector", detection
     # 4.25-4.35 V for 4.2 V cells, above the charger]; on the chart it is visible daylight.
     assert rects["charger"][0] - rects["overcharge-detect"][1] > 5
 
@@ -329,13 +329,13 @@ def _tick_x(svg: ET.Element) -> dict[float, float]:
 
 def test_trip_window_worked_example(tmp_path: Path) -> None:
     # Trip current = detection voltage / (2 × R_DS(on) per FET): 150 mV / (2 × 25 mΩ) = 3 A
-    # [practice: REFERENCES "Single-cell protector", worked example]. Short circuit: 500 mV over
+    # [practice: docs/references.md "Single-cell protector", worked example]. Short circuit: 500 mV over
     # the same 50 mΩ = 10 A [derived, same formula].
     svg = charts(report(worked(tmp_path, rds="25 mΩ", load="1.2 A")))["trip"]
     labels = texts(svg)
     assert "3 A" in labels  # no tolerance given: the window is a single current
     assert "10 A" in labels
-    # Fuse derated to 75 % of its 12 A rating = 9 A [practice: REFERENCES "Fuses", derating].
+    # Fuse derated to 75 % of its 12 A rating = 9 A [practice: docs/references.md "Fuses", derating].
     assert "F1 fuse derated, 75 % of 12 A" in labels and "9 A" in labels
     assert "cell discharge max, 1P × 10 A" in labels
     # Where the 3 A typ marker sits on the log axis: log-interpolated between the 2 and 5 A ticks
@@ -349,7 +349,7 @@ def test_trip_window_worked_example(tmp_path: Path) -> None:
 
 def test_trip_window_with_two_pairs_in_parallel(tmp_path: Path) -> None:
     # Two identical pairs in parallel halve the resistance and double the trip current to 6 A
-    # [practice: REFERENCES worked example]; each channel carries half, so the pair's 10 A id_max
+    # [practice: docs/references.md "Single-cell protector", worked example]; each channel carries half, so the pair's 10 A id_max
     # is reached at 20 A of pack current [derived].
     svg = charts(report(worked(tmp_path, rds="25 mΩ", load="1.2 A", pairs=2)))["trip"]
     labels = texts(svg)
@@ -359,7 +359,7 @@ def test_trip_window_with_two_pairs_in_parallel(tmp_path: Path) -> None:
 
 def test_trip_window_shows_a_trace_at_its_ipc2221_rating(tmp_path: Path) -> None:
     # A 100 mil outer trace of 1 oz copper carries 4.70 A for a 10 K rise
-    # [derived: REFERENCES "Conductor current capacity — IPC-2221", I = k·ΔT^0.44·A^0.725].
+    # [derived: docs/references.md "Conductor current capacity — IPC-2221", I = k·ΔT^0.44·A^0.725].
     trace = "  T1: {kind: trace, width: 2.54 mm, length: 20 mm, copper_weight: 1 oz, pins: [P+, PAD]}\n"
     labels = texts(charts(report(worked(tmp_path, rds="25 mΩ", load="1.2 A", extra=trace)))["trip"])
     assert "T1 trace, IPC-2221 at ΔT 10 K" in labels and "4.7 A" in labels
@@ -369,18 +369,22 @@ def test_trip_window_example_design() -> None:
     labels = texts(charts(report(EXAMPLE))["trip"])
     for text in ("U1 over-current trip", "1.79–7.78 A, typ 3.67 A", "U1 short-circuit trip",
                  "continuous load", "1.2 A", "peak load, 40 ms", "1.6 A", "Q1 FET id_max",
-                 "prospective short circuit", "110 A", "current, A (log scale)"):
+                 "hard short", "92.1 A", "current, A (log scale)",
+                 # the permitted event: the current the rules judge the ratings by
+                 # (docs/references.md "Events in time"; the issue's own calculator, about 5.49 A)
+                 "permitted for ever, -20 °C", "5.51 A"):
         assert text in labels, text
 
 
 def test_trip_window_names_a_short_circuit_off_the_scale() -> None:
-    # A prospective short circuit over 20 times the largest other current would squeeze the
-    # window to a sliver: it is named at the edge, not drawn.
-    win = SimpleNamespace(min=2.0, max=6.0, typ=3.0, at_max=SimpleNamespace(share={}))
+    # A hard short over 20 times the largest other current would squeeze the window to a sliver:
+    # it is named at the edge, not drawn.
+    win = SimpleNamespace(min=2.0, max=6.0, typ=3.0)
+    events = {"hard-short": SimpleNamespace(current=900.0)}
     model = SimpleNamespace(
         overcurrent_trip=win, short_circuit_trip=None, protector=SimpleNamespace(refdes="U1"),
         design=SimpleNamespace(load=SimpleNamespace(continuous=1.0, peak=None)), stack=None,
-        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), prospective_short_circuit=900.0,
+        channels=(), netlist=SimpleNamespace(of_kind=lambda *k: []), event=events.get,
         limits=Limits())
     chart = trip_window(model)
     assert "900 A, off scale →" in texts(ET.fromstring(chart.svg))
@@ -391,7 +395,7 @@ def test_trip_window_names_a_short_circuit_off_the_scale() -> None:
 
 def test_junction_temperature_worked_example(tmp_path: Path) -> None:
     # 2 A through two 22 mΩ channels → 0.176 W; at 120 K/W and 60 °C ambient T_J = 81.1 °C
-    # [derived: REFERENCES "MOSFETs", T_J = T_A + P·R_θJA]. The on-resistance is flat here, so
+    # [derived: docs/references.md "MOSFETs", T_J = T_A + P·R_θJA]. The on-resistance is flat here, so
     # the worst and typical cases agree.
     html = report(worked(tmp_path, rds="22 mΩ", load="2 A"))
     svg = charts(html)["tj"]
