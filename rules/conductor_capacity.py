@@ -18,7 +18,7 @@ class Options(RuleOptions):
       summary="traces and wires carry the highest current the protection permits",
       severity=Severity.error, options=Options, example=Example(
           bad="T1: {kind: trace, width: 0.3 mm, copper_weight: 1 oz, length: 20 mm, pins: [FUSED, P+]}"
-              "   # 1.0 A for 10 K against a 7.78 A trip max",
+              "   # 1.0 A for 10 K against a 7.72 A trip max",
           good="T1: {kind: trace, width: 5 mm, copper_weight: 2 oz, length: 20 mm, pins: [FUSED, P+]}"))
 def check(ctx, options):
     """Traces and wires are components of the power path: the protection lets any current up to
