@@ -290,6 +290,7 @@ parts:
     vgs_max: 12 V
     vgs_th: {min: 0.5 V, max: 1.0 V}
     rds_on:
+      - {vgs: 1.8 V, typ: 38 mΩ, max: 52 mΩ}
       - {vgs: 2.5 V, typ: 25 mΩ, max: 32 mΩ}
       - {vgs: 3.7 V, typ: 20 mΩ, max: 26 mΩ}
       - {vgs: 4.5 V, typ: 18 mΩ, max: 23 mΩ}

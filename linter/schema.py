@@ -808,8 +808,13 @@ class Protector(Packaged):
     gate_drive: Literal["cell"] | PositiveVolts = Field(default="cell", description=(
         "'cell' when the gate outputs swing between ground and supply, so the drive is the cell "
         "voltage (the stack voltage for a multi-cell protector); or a fixed drive in volts, e.g. "
-        "'12 V' from a charge pump; it sets the switches' on-resistance and is checked against "
-        "their vgs_max and vgs_th"))
+        "'12 V' from a gate driver, at most the stack voltage unless gate_drive_boosted; it "
+        "sets the switches' on-resistance and is checked against their vgs_max and vgs_th"))
+    gate_drive_boosted: bool = Field(default=False, description=(
+        "true when the gate driver makes its fixed gate_drive from a charge pump or a bootstrap "
+        "and holds it when the stack falls below it; false (the default): the drive comes from "
+        "the stack, so it is at most the stack voltage, and at the lowest stack voltage the "
+        "protector allows it is min(gate_drive, that voltage)"))
     supply_filter: SupplyFilter | None = Field(default=None, description=(
         "the maker's recommended supply filter: {r: {min, max}, c: {min, max}}"))
 
@@ -953,8 +958,9 @@ class FetCommon(Packaged):
         "cell, or the FET is not fully on near the end of discharge (switch-voltage-margin)"))
     rds_on: list[RdsOnPoint] = Field(min_length=1, max_length=20, description=(
         "on-resistance table at 25 °C, one row per gate voltage the data sheet gives: a list of "
-        "{vgs, typ, max}, 1-20 rows; interpolated to the gate drive, extrapolated below the "
-        "lowest row with a note"))
+        "{vgs, typ, max}, 1-20 rows; interpolated to the gate drive; below the lowest row it "
+        "rises as 1/(V_GS - V_th) through that row (V_th at the corner, its max for the highest "
+        "resistance), and any figure resting on that is flagged (on-resistance-in-table)"))
     rds_on_hot_ratio: HotRatio | None = Field(default=None, description=(
         "rise of R_DS(on) with junction temperature, {at, ratio}; when absent, 1.5 at 125 °C "
         "[practice]"))

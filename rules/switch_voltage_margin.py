@@ -32,7 +32,8 @@ def check(ctx, options):
             f"{m.protector.refdes}: {why}",
             path=ch.path + ("pins",), element=ch.package, key=f"drive-{ch.name}",
             hint="use a p-channel FET on the positive rail or an n-channel FET on the negative "
-                 "rail, or a protector with a gate driver (give its drive as gate_drive: 12 V)")
+                 "rail, or a protector with a gate driver (give its drive as gate_drive: 12 V, and "
+                 "gate_drive_boosted: true when a charge pump or bootstrap holds it above the stack)")
     for ch in m.channels:
         if ch.role is None:
             continue

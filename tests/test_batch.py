@@ -66,7 +66,7 @@ def batch(tmp_path_factory: pytest.TempPathFactory) -> dict:
             path.write_bytes(text.encode("utf-8", errors="surrogateescape"))
             broken[str(path)] = message
         else:
-            load = 0.5 + (i % 9) / 10  # 0.5 .. 1.3 A, all below the 1.79 A trip minimum
+            load = 0.5 + (i % 9) / 10  # 0.5 .. 1.3 A, all below the 1.62 A trip minimum
             text = (EXAMPLE.replace("name: Orchard soil probe,", f"name: Probe {i:04d},")
                     .replace("  continuous: 1.2 A", f"  continuous: {load:.1f} A"))
             path.write_text(text, encoding="utf-8")

@@ -15,7 +15,7 @@ PACKAGES = (("linter", "packwarden"), ("rules", "packwarden_rules"))
 MODEL_LAYERS = [
     {"values"},
     {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush", "pulse"},
-    {"topology"},
+    {"topology", "gate"},
     {"path"},
     {"limits"},
     {"events", "short"},

@@ -254,8 +254,8 @@ async def test_hover_shows_a_switch_s_figures_and_a_part_s_ratings(
         return result.contents.value
 
     on_refdes = await hover_at(line.index("Q1") + 1)
-    # the trip window the command line prints for this design ("over-current trip 1.79 A–7.78 A
-    # (typ 3.67 A)" in its figures line)
+    # the trip window the command line prints for this design ("over-current trip 1.62 A–7.72 A
+    # (typ 3.62 A)" in its figures line)
     figures = next(ln for ln in cli_output(design).splitlines() if ": figures: " in ln)
     trip = figures.split("over-current trip ")[1].split(";")[0]
     assert "over-current trip: " + trip.replace("–", " to ") in on_refdes

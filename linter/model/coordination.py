@@ -213,12 +213,38 @@ def _steady_fet_limits(m: "DesignModel") -> list[Limit]:
             continue
         r = sum(shares[ch.name] ** 2 * m.channel_rds(ch, gd.min, part.tj_max, "max")[0]
                 for ch in chans)
-        current = math.sqrt((part.tj_max - hot) / part.theta_ja / r)
+        current = _at_tj_max(m, package, part.tj_max,
+                             math.sqrt((part.tj_max - hot) / part.theta_ja / r))
         out.append(Limit(package, "fet", f"{package} θJA steady at {hot:g} °C",
                          ((current, DURATIONS[0]), (current, DURATIONS[-1])),
                          f"tj_max {part.tj_max:g} °C at {hot:g} °C ambient through θJA "
                          f"{part.theta_ja:g} K/W, steady: safe for any duration below it"))
     return out
+
+
+def _at_tj_max(m: "DesignModel", package: str, tj_max: float, guess: float) -> float:
+    """The pack current whose self-heated steady state (the model's own operating point: each
+    channel at its own V_GS, at the highest ambient and resistance) holds ``package`` at tj_max,
+    found by bisection from ``guess`` (the balance with every channel at the lowest drive, which
+    the channels' own lower drives can only lower) [published: bisection]."""
+    gd, hot = m.gate_drive, m.ambient.max
+    lo, hi = 0.0, guess
+    for _ in range(60):  # the guess was low: widen until the junction passes tj_max
+        if m.operating_point(hi, hot, gd.min, "max").tj[package] >= tj_max - TJ_MATCH:
+            break
+        lo, hi = hi, hi * 2.0
+    while hi - lo > 1e-4 * hi:
+        mid = 0.5 * (lo + hi)
+        op = m.operating_point(mid, hot, gd.min, "max")
+        if op.tj[package] < tj_max - TJ_MATCH or (not op.runaway and op.tj[package] < tj_max):
+            lo = mid
+        else:
+            hi = mid
+    return lo
+
+
+#: How close to tj_max a steady state counts as reaching it, K.
+TJ_MATCH = 0.01
 
 
 def _share(m: "DesignModel", element: str) -> float | None:

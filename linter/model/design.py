@@ -138,17 +138,24 @@ class DesignModel:
 
     @cached_property
     def gate_drive(self) -> Span | None:
-        """Gate-source drive of the switches when on."""
+        """Gate-source drive of the switches when on: the cell (or stack) voltage with
+        ``gate_drive: cell``; a fixed drive capped by the stack voltage unless the part says its
+        driver is boosted (``gate_drive_boosted``)."""
         p = self.protector
         if p is None:
             return None
         drive = p.part.gate_drive
-        if drive != "cell":
+        if drive != "cell" and p.part.gate_drive_boosted:
             return Span.exactly(float(drive))
         cv = self.cell_voltage
         if cv is None or self.stack is None:
-            return None
-        return cv.scaled(self.stack.series) if p.part.cells > 1 else cv
+            return None if drive == "cell" else Span.exactly(float(drive))
+        supply = cv.scaled(self.stack.series) if p.part.cells > 1 else cv
+        # A driver fed from the stack cannot drive above its own supply [derived]: the fixed
+        # drive is capped by the stack at each end.
+        if drive == "cell":
+            return supply
+        return Span(*(min(float(drive), v) for v in (supply.min, supply.typ, supply.max)))
 
 
     @cached_property
@@ -243,10 +250,12 @@ class DesignModel:
         gd, cont = self.gate_drive, self.design.load.continuous
         if gd is None or not self.channels:
             return None
-        a = self.ambient
-        at_min = self.operating_point(cont, a.max, gd.min, "max", self_heating=True)
-        at_max = self.operating_point(0.0, a.min, gd.max, "min", self_heating=False)
-        at_typ = self.operating_point(0.0, 25.0, gd.typ, "typ", self_heating=False)
+        a, d = self.ambient, Span.of(detect)
+        # Each channel's drive at the trip current itself (gate.py): the detection voltage is
+        # what lifts a low-side charge switch's source.
+        at_min = self.path.operating_point(cont, a.max, gd.min, "max", True, d.min)
+        at_max = self.path.operating_point(0.0, a.min, gd.max, "min", False, d.max)
+        at_typ = self.path.operating_point(0.0, 25.0, gd.typ, "typ", False, d.typ)
         if not min(at_min.sense_resistance, at_max.sense_resistance,
                    at_typ.sense_resistance) > 0.0:
             p = self.protector

@@ -32,7 +32,7 @@ from dataclasses import field
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
-from . import inrush, thermal
+from . import gate, inrush, thermal
 from .network import NetworkError, Source
 from .ocv import HOURS_PER_MONTH
 from .values import SIGNAL_OHMS, ModelProblem, corner_value, spread_low
@@ -140,6 +140,7 @@ class PermittedPoint:
     assumptions: tuple[str, ...]
     solution: Any = None
     unheated: float = math.nan  # the current with the switches at the ambient, A
+    channel_vgs: dict = field(default_factory=dict)  # channel name -> V_GS (gate.py)
 
 
 def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
@@ -155,10 +156,11 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
     state = None
     unheated = math.nan
     previous: dict[str, tuple[float, float]] = {}
+    vg = {ch.name: vgs for ch in m.channels}
     for _ in range(thermal.TRIP_ITERATIONS):
         rds, notes = {}, []
         for ch in m.channels:
-            rds[ch.name], n = m.channel_rds(ch, vgs, tj[ch.package], corner)
+            rds[ch.name], n = m.channel_rds(ch, vg[ch.name], tj[ch.package], corner)
             notes += [x for x in n if x not in notes]
         sol, sense, _path = m.solve_path(rds, ambient, corner, cell_r)
         if sol is None or not math.isfinite(sense) or sense <= 0:
@@ -172,10 +174,13 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
         power = {pk: 0.0 for pk in packages}
         for ch in m.channels:
             power[ch.package] += ich[ch.name] ** 2 * rds[ch.name]
-        state = (current, rds, ich, power, sol)
+        state = (current, rds, ich, power, sol, vg)
+        # Each channel's drive at this current (gate.py), iterated with the temperatures.
+        vg = gate.channel_vgs(vgs, gate.lift_per_ampere(m.topology, m.high_side, sol),
+                              [ch.name for ch in m.channels], current)
         target = {pk: ambient + power[pk] * packages[pk].theta_ja for pk in packages}
         delta = max(abs(target[pk] - tj[pk]) for pk in packages)
-        if delta < thermal.TJ_TOLERANCE:
+        if delta < thermal.TJ_TOLERANCE and gate.settled(state[5], vg):
             tj = target
             break
         # With the FETs as the sense resistance, P = V²/R falls as T_J rises and the plain
@@ -190,8 +195,10 @@ def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
             break
     else:
         runaway = True
-    current, rds, ich, power, sol = state
-    return PermittedPoint(current, rds, ich, power, tj, runaway, tuple(notes), sol, unheated)
+    current, rds, ich, power, sol, vg = state
+    said = gate.describe(vgs, vg)
+    return PermittedPoint(current, rds, ich, power, tj, runaway,
+                          tuple(notes) + ((said,) if said else ()), sol, unheated, vg)
 
 
 # --- the hard short ----------------------------------------------------------------------------

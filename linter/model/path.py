@@ -18,9 +18,9 @@ from typing import Any
 from ..kinds import KINDS
 from ..netlist import Component
 from ..records import record
-from . import thermal
+from . import gate, thermal
 from .network import Network, NetworkError, Switch
-from .rdson import DEFAULT_HOT_RATIO, rds_on
+from .rdson import DEFAULT_HOT_RATIO, rds_on, threshold_at
 from .topology import SwitchChannel, Topology
 from .values import (IDEAL, PROBE_LOAD, SIGNAL_OHMS, Corner, ModelProblem, corner_value,
                      memo_key)
@@ -54,6 +54,8 @@ class OperatingPoint:
     #: The network solution the point's currents come from (probe load): the events read the
     #: current of every other part of the path from it instead of solving again.
     solution: Any = field(default=None, compare=False, repr=False)
+    #: Each channel's own gate-source voltage (gate.py): ``vgs`` is the protector's drive.
+    channel_vgs: dict = field(default_factory=dict, compare=False)
 
 
 class PowerPath:
@@ -145,6 +147,9 @@ class PowerPath:
                                     channel=ch.channel, ohms_on=ohms, on=on)
 
     def channel_rds(self, ch: SwitchChannel, vgs: float, tj: float, corner: str) -> tuple[float, tuple[str, ...]]:
+        """(ohms, assumptions) of a channel at a gate drive; below the table the triode form
+        through the lowest row, and near or below the threshold a large finite resistance
+        (rdson.OFF_RATIO times that row: an off switch), never negative or infinite."""
         part = ch.part
         hot = part.rds_on_hot_ratio
         key = ("rds", id(part), memo_key(vgs), memo_key(tj), corner)
@@ -153,57 +158,56 @@ class PowerPath:
             ratio, at = (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO
             # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
             points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
-            try:
-                res = rds_on(points, vgs, tj, ratio, at, corner)
-                hit = (res.value, res.assumptions, None)
-            except ValueError as exc:
-                # One table row and a gate drive below it: no slope to extrapolate. Use the row,
-                # and say loudly that this understates the resistance, rather than stop the review.
-                row = min(points)
-                res = rds_on([row], row[0], tj, ratio, at, corner)
-                hit = (res.value, res.assumptions, (exc, row))
-            self._memo[key] = hit
-        value, notes, failed = hit
-        if failed is not None:
-            exc, row = failed
-            return value, notes + (
-                f"{ch.package}: {exc}; the {row[0]:g} V row is used and understates R_DS(on) — "
-                f"add a second rds_on row",)
+            t = part.vgs_th
+            res = rds_on(points, vgs, tj, ratio, at, corner, threshold_at((t.min, t.typ, t.max), corner))
+            hit = self._memo[key] = (res.value, res.assumptions)
+        value, notes = hit
         if hot is None:
             notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
                              f"[practice: 1.4-1.6 for 20 V parts]",)
         return value, notes
 
     def operating_point(self, current: float, ambient: float, vgs: float, corner: str,
-                        self_heating: bool = True) -> OperatingPoint:
+                        self_heating: bool = True, detect: float | None = None) -> OperatingPoint:
         """Steady state of the path carrying ``current``, switches on, at ``corner`` (typ|max|min).
 
+        Each channel's gate sees the drive ``vgs`` less its source's lift (gate.py) at
+        ``current``, or, with ``detect`` (volts across the sense pins), at the current that
+        sets up that voltage: the trip current, where the sense resistance is judged.
         The trip windows and the switch heat ask for the same points (the continuous load at
         the highest ambient and lowest drive, for one); each is computed once.
         """
-        key = ("op", memo_key(current), memo_key(ambient), memo_key(vgs), corner, self_heating)
+        key = ("op", memo_key(current), memo_key(ambient), memo_key(vgs), corner, self_heating,
+               detect)
         hit = self._memo.get(key)
         if hit is None:
             before = len(self.problems)
-            op = self._operating_point(current, ambient, vgs, corner, self_heating)
+            op = self._operating_point(current, ambient, vgs, corner, self_heating, detect)
             hit = self._memo[key] = (op, self.problems[before:])
         else:
             self.problems.extend(hit[1])  # as a fresh computation would have recorded them
         return hit[0]
 
     def _operating_point(self, current: float, ambient: float, vgs: float, corner: str,
-                         self_heating: bool) -> OperatingPoint:
+                         self_heating: bool, detect: float | None = None) -> OperatingPoint:
         packages = {ch.package: ch.part for ch in self.topology.channels}
         tj = {p: ambient for p in packages}
         cell = self.topology.stack.part if self.topology.stack else None
         cell_r = corner_value(cell.internal_resistance, corner) if cell else IDEAL
         converged, runaway = True, False
+        if detect is not None and self_heating:
+            # The switches sit where the load heats them; the current then rises to the trip too
+            # briefly to heat them further, and only each channel's drive follows it.
+            heat = self.operating_point(current, ambient, vgs, corner, True)
+            tj, converged, runaway, self_heating = dict(heat.tj), heat.converged, heat.runaway, False
         notes: list[str] = []
         previous: dict[str, tuple[float, float]] = {}
+        names = [ch.name for ch in self.topology.channels]
+        vg = gate.channel_vgs(vgs, {}, names, 0.0)
         for _ in range(thermal.LOAD_ITERATIONS):
             rds, notes, seen = {}, [], set()
             for ch in self.topology.channels:
-                rds[ch.name], n = self.channel_rds(ch, vgs, tj[ch.package], corner)
+                rds[ch.name], n = self.channel_rds(ch, vg[ch.name], tj[ch.package], corner)
                 for x in n:
                     if x not in seen:
                         seen.add(x)
@@ -216,14 +220,20 @@ class PowerPath:
             power = {p: 0.0 for p in packages}
             for ch in self.topology.channels:
                 power[ch.package] += ich[ch.name] ** 2 * rds[ch.name]
+            at = current if detect is None else (detect / sense if 0.0 < sense < math.inf else 0.0)
+            lift = gate.lift_per_ampere(self.topology, self.high_side, sol) if at else {}
+            held, vg = vg, gate.channel_vgs(vgs, lift, names, at)
             if not self_heating:
-                break
+                if gate.settled(held, vg):
+                    break
+                continue
             new = {p: ambient + power[p] * packages[p].theta_ja for p in packages}
             if any(new[p] > packages[p].tj_max for p in packages):
-                tj, converged, runaway = new, False, True
+                # Less drive only adds heat: runaway stands, with the drives this solve gives.
+                tj, converged, runaway, held = new, False, True, vg
                 break
             delta = max((abs(new[p] - tj[p]) for p in packages), default=0.0)
-            if delta < thermal.TJ_TOLERANCE:
+            if delta < thermal.TJ_TOLERANCE and gate.settled(held, vg):
                 tj = new
                 break
             # P = I²·R rises with T_J, so iterates from the ambient climb towards the lowest
@@ -236,8 +246,11 @@ class PowerPath:
             tj = step
         else:
             converged = False
+        said = gate.describe(vgs, held)
+        if said is not None:
+            notes.append(said)
         return OperatingPoint(current, ambient, vgs, corner, rds, ich, share, tj, power, sense, path_r,
-                              converged, runaway, tuple(notes), sol)
+                              converged, runaway, tuple(notes), sol, held)
 
     def solve(self, rds: dict[str, float], temp: float, corner: Corner,
               cell_r: float) -> tuple[Any, float, float]:

@@ -15,7 +15,8 @@ from typing import Iterable, Literal, Optional, Sequence
 
 from ..records import record
 
-__all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor", "DEFAULT_HOT_RATIO"]
+__all__ = ["RdsOnResult", "Corner", "Point", "rds_on", "temperature_factor", "DEFAULT_HOT_RATIO",
+           "OFF_RATIO", "threshold_at", "below_table"]
 
 Corner = Literal["typ", "max", "min"]
 #: One data sheet row: (V_GS, typ, max), typ or max None where the sheet leaves it blank.
@@ -26,6 +27,11 @@ TABLE_TEMP = 25.0
 #: R_DS(on) at 125 °C over its 25 °C value where a part gives no ratio, and that temperature
 #: [practice: 1.4-1.6 for 20 V parts, docs/references.md "MOSFETs"].
 DEFAULT_HOT_RATIO = (1.5, 125.0)
+#: A channel at or just above its threshold is off: its resistance is taken as this many times the
+#: lowest row's, large and finite, so a solver that drives the gate down (a collapsing short) sees
+#: a switch that stops conducting rather than a division by zero [derived: the triode form below
+#: reaches this ratio 1/1000 of the row's overdrive above the threshold].
+OFF_RATIO = 1000.0
 
 
 @record(frozen=True)
@@ -33,13 +39,18 @@ class RdsOnResult:
     """On-resistance in ohms, what had to be assumed to get it, and whether data was stretched.
 
     ``extrapolated`` is true when the gate voltage lies below the lowest tabulated one or the
-    junction temperature lies outside 25 °C..``hot_at``: the number then rests on a straight line
-    beyond the data sheet's own points.
+    junction temperature lies outside 25 °C..``hot_at``: the number then rests on a model beyond
+    the data sheet's own points. ``below_table`` is true for the first of these (the gate drive
+    the table does not reach), ``below_threshold`` when the drive does not lift the channel
+    clear of its threshold: the value is then :data:`OFF_RATIO` times the lowest row's, an off
+    switch.
     """
 
     value: float
     assumptions: tuple[str, ...]
     extrapolated: bool
+    below_table: bool = False
+    below_threshold: bool = False
 
 
 @record(frozen=True)
@@ -60,7 +71,8 @@ class _Filled:
 
 
 def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
-           hot_at: float = 125.0, corner: Corner = "typ") -> RdsOnResult:
+           hot_at: float = 125.0, corner: Corner = "typ",
+           vth: Optional[float] = None) -> RdsOnResult:
     """R_DS(on) at gate drive ``vgs`` and junction temperature ``tj`` for a corner.
 
     ``points`` are ``(vgs, typ, max)`` rows at 25 °C with ``typ`` or ``max`` possibly None.
@@ -69,9 +81,10 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
 
     Gate voltage: linear between rows. Above the highest row the highest row's value is kept: more
     gate drive never raises R_DS(on) of an enhancement MOSFET [practice], so holding the last value
-    errs high, never low. Below the lowest row the line through the two lowest rows is continued,
-    never clamped, because clamping would understate the resistance; a single row cannot be
-    continued and raises ValueError (an invented slope would be worse than no answer).
+    errs high, never low. Below the lowest row the channel follows the triode form
+    R ∝ 1/(V_GS − V_th) through the lowest row (:func:`below_table`), with ``vth`` the gate
+    threshold at this corner (:func:`threshold_at`; the ``max`` corner takes V_th max); a line
+    through two rows would understate the rise near the threshold.
 
     Missing corners: typ and max given -> min = typ - (max - typ), a symmetric spread; only max ->
     typ = max and min = max; only typ -> max = typ and min = typ. Each substitution used is listed
@@ -85,6 +98,7 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
     extrapolated = False
 
     lowest, highest = rows[0], rows[-1]
+    below = below_threshold = False
     exact = next((r for r in rows if r.vgs == vgs), None)
     if exact is not None:
         used = (exact,)
@@ -96,25 +110,10 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
             f"V_GS {vgs:g} V above the highest tabulated {highest.vgs:g} V: value held at "
             f"{highest.vgs:g} V (more gate drive never raises R_DS(on); this errs high)")
     elif vgs < lowest.vgs:
-        if len(rows) < 2:
-            raise ValueError(
-                f"V_GS {vgs:g} V is below the only tabulated gate voltage {lowest.vgs:g} V; a "
-                f"second row is needed to extrapolate, and clamping would understate R_DS(on)")
-        second = rows[1]
-        used = (lowest, second)
-        base = _line(lowest.vgs, lowest.corner(corner), second.vgs, second.corner(corner), vgs)
-        extrapolated = True
-        assumptions.append(
-            f"V_GS {vgs:g} V below the lowest tabulated {lowest.vgs:g} V: extrapolated linearly "
-            f"from the {lowest.vgs:g} V and {second.vgs:g} V rows; near the threshold voltage "
-            f"R_DS(on) rises faster than a line, so this may still understate it")
-        if base < lowest.corner(corner):
-            # The table's two lowest rows slope the wrong way; continuing them would make less
-            # gate drive look better, the one direction that must never happen.
-            base = lowest.corner(corner)
-            assumptions.append(
-                f"the two lowest rows fall with falling V_GS; value held at the {lowest.vgs:g} V "
-                f"row instead of continuing that slope")
+        used = (lowest,)
+        base, note, below_threshold = below_table(lowest.vgs, lowest.corner(corner), vgs, vth)
+        extrapolated = below = True
+        assumptions.append(note)
     else:
         i = next(k for k in range(1, len(rows)) if rows[k].vgs > vgs)
         lo, hi = rows[i - 1], rows[i]
@@ -136,7 +135,49 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
     value = base * factor
     if not value > 0.0:
         raise ValueError(f"R_DS(on) came out as {value!r} Ω; check the table and temperature")
-    return RdsOnResult(value, tuple(assumptions), extrapolated)
+    return RdsOnResult(value, tuple(assumptions), extrapolated, below, below_threshold)
+
+
+def threshold_at(vgs_th: Sequence[Optional[float]], corner: str) -> Optional[float]:
+    """The gate threshold magnitude at a corner from the data sheet's (min, typ, max), any of them
+    None: ``max`` the highest given, ``min`` the lowest, ``typ`` the typical or else the middle of
+    the two (p-channel sheets print V_GS(th) negative; a magnitude either way)."""
+    given = sorted(abs(v) for v in vgs_th if v is not None)
+    if not given:
+        return None
+    if corner == "max":
+        return given[-1]
+    if corner == "min":
+        return given[0]
+    typ = vgs_th[1] if len(vgs_th) > 1 else None
+    return abs(typ) if typ is not None else (given[0] + given[-1]) / 2
+
+
+def below_table(v_low: float, r_low: float, vgs: float,
+                vth: Optional[float]) -> tuple[float, str, bool]:
+    """R_DS(on) at ``vgs`` below the lowest tabulated gate voltage ``v_low`` (where it is
+    ``r_low``): (ohms, the assumption in words, whether the channel is off).
+
+    In the linear (triode) region at small V_DS the channel resistance is
+    R_DS = 1/(k·(V_GS − V_th)) [published: Sedra & Smith, Microelectronic Circuits, MOSFET
+    triode region; from memory]. Through the lowest row: R = r_low·(v_low − V_th)/(V_GS − V_th).
+    Taking the whole of r_low as channel resistance is the highest value this form allows: the
+    package and drift resistance, which do not rise, would only dilute the rise. At or within
+    (v_low − V_th)/OFF_RATIO of the threshold the channel is off and the value is
+    ``OFF_RATIO × r_low``: finite, never negative, and no lower than the curve just above it.
+    Without a threshold the form is taken with V_th = 0 (R ∝ 1/V_GS), and said.
+    """
+    t = 0.0 if vth is None else vth
+    unknown = " (no gate threshold given: taken as 0 V, which understates the rise)" if vth is None else ""
+    if v_low <= t or (vgs - t) * OFF_RATIO <= v_low - t:
+        return r_low * OFF_RATIO, (
+            f"V_GS {vgs:g} V is not clear of the gate threshold {t:g} V{unknown}: the channel is "
+            f"off; its resistance is taken as {OFF_RATIO:g} × the {v_low:g} V row"), True
+    value = r_low * (v_low - t) / (vgs - t)
+    return value, (
+        f"V_GS {vgs:g} V below the lowest tabulated {v_low:g} V: R_DS(on) extrapolated as "
+        f"1/(V_GS − V_th) with V_th {t:g} V{unknown} through the {v_low:g} V row, "
+        f"{value / r_low:.3g} × that row"), False
 
 
 def temperature_factor(tj: float, hot_ratio: float, hot_at: float = 125.0) -> float:

@@ -11,6 +11,7 @@ Units are SI: amperes, ohms, volts, watts, joules, seconds, °C.
 from __future__ import annotations
 
 import math
+from dataclasses import field
 from typing import TYPE_CHECKING, Any
 
 from . import thermal
@@ -77,6 +78,11 @@ class HeatCase:
     runaway: bool
     duration: float | None = None  # of the peak, s
     assumptions: tuple[str, ...] = ()
+    channel_vgs: dict = field(default_factory=dict)  # channel name -> V_GS where it is not vgs
+
+    def vgs_of(self, channel: str) -> float:
+        """The gate-source voltage of one channel in this case (gate.py)."""
+        return self.channel_vgs.get(channel, self.vgs)
 
 
 def _cases_of(op: "OperatingPoint", m: "DesignModel", case: str, duration: float | None,
@@ -93,16 +99,18 @@ def _cases_of(op: "OperatingPoint", m: "DesignModel", case: str, duration: float
             # reviewer "runs too hot" from "runs away"; the currents divide as they did, since
             # the shares barely move with temperature.
             def p_at(t: float, chans=chans, ich=ich) -> float:
-                return sum(ich[ch.name] ** 2 * m.channel_rds(ch, op.vgs, t, op.corner)[0]
-                           for ch in chans)
+                return sum(ich[ch.name] ** 2 * m.channel_rds(
+                    ch, op.channel_vgs.get(ch.name, op.vgs), t, op.corner)[0] for ch in chans)
             res = thermal.junction_temperature(op.ambient, p_at, part.theta_ja,
                                                part.tj_max + thermal.RUNAWAY_MARGIN)
             if res.converged:
                 tj, power, runaway = res.tj, res.power, False
-                rds = {ch.name: m.channel_rds(ch, op.vgs, tj, op.corner)[0] for ch in chans}
+                rds = {ch.name: m.channel_rds(ch, op.channel_vgs.get(ch.name, op.vgs), tj,
+                                              op.corner)[0] for ch in chans}
         out.append(HeatCase(
             case, package, part, op.current, ich, rds, power, tj, op.ambient, op.vgs, op.corner,
-            runaway, duration, tuple(op.assumptions) + extra))
+            runaway, duration, tuple(op.assumptions) + extra,
+            {ch.name: op.channel_vgs[ch.name] for ch in chans if ch.name in op.channel_vgs}))
     return out
 
 
@@ -168,7 +176,8 @@ def _permitted_at(m: "DesignModel", vdet: float, ambient: float, vgs: float,
             "permitted", pk, packages[pk], pt.current,
             {ch.name: pt.channel_current[ch.name] for ch in chans},
             {ch.name: pt.rds[ch.name] for ch in chans}, pt.power[pk], pt.tj[pk], ambient, vgs,
-            corner, pt.runaway, None, pt.assumptions + extra))
+            corner, pt.runaway, None, pt.assumptions + extra,
+            {ch.name: pt.channel_vgs[ch.name] for ch in chans if ch.name in pt.channel_vgs}))
     return out
 
 
@@ -181,9 +190,10 @@ def dissipation_at(m: "DesignModel", h: HeatCase, temp: float) -> float:
     """
     chans = [ch for ch in m.channels if ch.package == h.package]
     if h.case != "permitted":
-        return sum(h.channel_current[ch.name] ** 2 * m.channel_rds(ch, h.vgs, temp, h.corner)[0]
-                   for ch in chans)
-    rds = {ch.name: m.channel_rds(ch, h.vgs, temp, h.corner)[0] for ch in m.channels}
+        return sum(h.channel_current[ch.name] ** 2 * m.channel_rds(ch, h.vgs_of(ch.name), temp,
+                                                                   h.corner)[0] for ch in chans)
+    # Other packages' channels keep the protector's drive: their V_GS is not in this case.
+    rds = {ch.name: m.channel_rds(ch, h.vgs_of(ch.name), temp, h.corner)[0] for ch in m.channels}
     sol, sense, _ = m.solve_path(rds, h.ambient, h.corner, _cell_r(m, h.corner))
     if sol is None or not math.isfinite(sense) or sense <= 0:
         return h.power

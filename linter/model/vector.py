@@ -21,21 +21,23 @@ from typing import Callable, Mapping, Sequence
 import numpy as np
 
 from .network import Network, NetworkError
-from .rdson import TABLE_TEMP, Point
+from .rdson import OFF_RATIO, TABLE_TEMP, Point
 from .thermal import SECANT_MIN_FALL
 
 __all__ = ["rds_on", "temperature_factor", "accelerated_step", "LinearPath"]
 
 
-def rds_on(points: Sequence[Point], vgs: np.ndarray, spread: np.ndarray) -> np.ndarray:
+def rds_on(points: Sequence[Point], vgs: np.ndarray, spread: np.ndarray,
+           vth: tuple = (None, None, None)) -> np.ndarray:
     """R_DS(on) at 25 °C for a batch of builds, each at its own gate drive and place in the spread.
 
     ``spread`` is -1 at the part's minimum, 0 at typ, +1 at max (and beyond ±1 in normal tails),
     linear between; at -1, 0 and +1 it is the scalar ``rds_on`` at the ``min``, ``typ`` and
-    ``max`` corner: linear in V_GS between rows, held above the highest row, the line through the
-    two lowest rows continued below the lowest (never below that row's value), a missing typ or
-    max filled as the scalar fills it. Where typ - (max - typ) is not positive the scalar has no
-    minimum; here the minimum is then typ / 2, as ``values.spread_low`` floors it.
+    ``max`` corner: linear in V_GS between rows, held above the highest row, the triode form
+    1/(V_GS - V_th) through the lowest row below it (``vth``: the threshold at the min, typ and
+    max corner, rdson.threshold_at), an off switch at the threshold, a missing typ or max filled
+    as the scalar fills it. Where typ - (max - typ) is not positive the scalar has no minimum;
+    here the minimum is then typ / 2, as ``values.spread_low`` floors it.
     """
     rows = []
     for v, typ, mx in points:
@@ -50,15 +52,20 @@ def rds_on(points: Sequence[Point], vgs: np.ndarray, spread: np.ndarray) -> np.n
     rows.sort()
     xs = np.array([r[0] for r in rows])
 
-    def column(i: int) -> np.ndarray:
+    def column(i: int, t: float | None) -> np.ndarray:
         ys = np.array([r[i] for r in rows])
         out = np.interp(vgs, xs, ys)
-        if len(rows) > 1:
-            slope = (ys[1] - ys[0]) / (xs[1] - xs[0])
-            out = np.where(vgs < xs[0], np.maximum(ys[0] + slope * (vgs - xs[0]), ys[0]), out)
-        return out
+        t = 0.0 if t is None else t
+        head = xs[0] - t  # the lowest row's overdrive, as rdson.below_table
+        over = vgs - t
+        if head <= 0:
+            below = np.full_like(out, ys[0] * OFF_RATIO)
+        else:
+            below = np.where(over * OFF_RATIO <= head, ys[0] * OFF_RATIO,
+                             ys[0] * head / np.maximum(over, head / OFF_RATIO))
+        return np.where(vgs < xs[0], below, out)
 
-    typ, mx, low = column(1), column(2), column(3)
+    typ, mx, low = column(1, vth[1]), column(2, vth[2]), column(3, vth[0])
     base = np.where(spread >= 0, typ + spread * (mx - typ), typ + spread * (typ - low))
     return np.maximum(base, 1e-9)
 

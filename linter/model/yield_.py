@@ -35,9 +35,9 @@ import numpy as np
 
 from ..records import record
 from ..schema import Toleranced
-from . import thermal, vector
+from . import gate, thermal, vector
 from .network import NetworkError
-from .rdson import DEFAULT_HOT_RATIO
+from .rdson import DEFAULT_HOT_RATIO, threshold_at
 from .values import SIGNAL_OHMS, Span, corner_value
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -196,6 +196,9 @@ class _Run:
         pos, neg = m.terminals
         keep = {self.s_net, self.g_net, pos, neg}
         keep.update(n for ch in m.channels for n in (ch.drain, ch.source))
+        # Each channel's source lift off its drive's rail (gate.py), read from the same solves.
+        self.lifts = gate.lift_nets(m.topology, m.high_side)
+        keep.update(n for pair in self.lifts.values() for n in pair)
         try:
             self.path = vector.LinearPath.from_network(net, stack.bottom, sorted(keep))
         except NetworkError as exc:
@@ -212,13 +215,18 @@ class _Run:
         self.od = self.draw(f"{p.refdes}.overdischarge.detect", part.overdischarge.detect)
         self.oc = self.draw(f"{p.refdes}.overcharge.detect", part.overcharge.detect)
         self.cell_drive = part.gate_drive == "cell"
-        if self.cell_drive:
-            # The gate swings with the cell voltage: from the over-discharge detection to the
-            # overcharge detection of this build, as DesignModel.gate_drive.
-            k = stack.series if part.cells > 1 else 1
-            self.vgs_low, self.vgs_high = self.od * k, self.oc * k
-        else:
-            self.vgs_low = self.vgs_high = np.full(samples, float(part.gate_drive))
+        # The gate swings with the cell voltage: from the over-discharge detection to the
+        # overcharge detection of this build, as DesignModel.gate_drive; a fixed drive is capped
+        # by that stack voltage unless its driver is boosted.
+        k = stack.series if part.cells > 1 else 1
+        self.vgs_low, self.vgs_high = self.od * k, self.oc * k
+        if not self.cell_drive:
+            fixed = np.full(samples, float(part.gate_drive))
+            if part.gate_drive_boosted:
+                self.vgs_low = self.vgs_high = fixed
+            else:
+                self.vgs_low = np.minimum(fixed, self.vgs_low)
+                self.vgs_high = np.minimum(fixed, self.vgs_high)
         self.fixed: dict[str, np.ndarray] = {}
         for c in stack.cells:
             t = c.part.internal_resistance
@@ -244,6 +252,7 @@ class _Run:
                 self.by_ambient.append(c)
         self.spread: dict[str, np.ndarray] = {}
         self.tables: dict[str, tuple] = {}
+        self.thresholds: dict[str, tuple] = {}
         for ch in m.channels:
             # One draw per channel places it in its part's spread at every gate drive and
             # temperature: -1 at the minimum, 0 at typ, +1 at max.
@@ -251,6 +260,9 @@ class _Run:
             hot = ch.part.rds_on_hot_ratio
             self.tables[ch.name] = ([(r.vgs, r.typ, r.max) for r in ch.part.rds_on],
                                     (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO)
+            t = ch.part.vgs_th
+            self.thresholds[ch.name] = tuple(threshold_at((t.min, t.typ, t.max), c)
+                                             for c in ("min", "typ", "max"))
         ch = m.design.charger
         self.charger = (self.draw("charger.voltage", ch.voltage) / stack.series
                         if ch is not None else None)
@@ -270,11 +282,17 @@ class _Run:
             out[c.refdes] = self.m.part_resistance(c, temp, "typ")
         return out
 
-    def rds_base(self, sl: slice, vgs: np.ndarray) -> dict:
-        """Each channel's 25 °C on-resistance for the builds of ``sl``, at its drive and place in
-        the spread (vector.rds_on, as path.channel_rds reads the table)."""
-        return {name: vector.rds_on(points, vgs[sl], self.spread[name][sl])
+    def rds_base(self, sl: slice, vgs: dict) -> dict:
+        """Each channel's 25 °C on-resistance for the builds of ``sl``, at its own drive (channel
+        name -> the batch's V_GS) and place in the spread (vector.rds_on, as path.channel_rds
+        reads the table)."""
+        return {name: vector.rds_on(points, vgs[name], self.spread[name][sl], self.thresholds[name])
                 for name, (points, _) in self.tables.items()}
+
+    def channel_vgs(self, drive: np.ndarray, lift: dict, amps: np.ndarray) -> dict:
+        """Each channel's V_GS at ``amps`` pack current: the drive less its source's lift, as
+        gate.channel_vgs."""
+        return {name: drive - lift[name] * amps if name in lift else drive for name in self.tables}
 
     def rds(self, base: dict, tj: dict) -> dict:
         """The channels' on-resistance at their junction temperatures (× the temperature factor
@@ -283,25 +301,34 @@ class _Run:
         return {name: b * vector.temperature_factor(tj[package[name]], *self.tables[name][1])
                 for name, b in base.items()}
 
-    def solve(self, fixed: tuple, rds: dict, nb: int) -> tuple[np.ndarray, dict, np.ndarray]:
-        """(sense resistance, channel current shares, load current) of the path with the probe
-        load, as PowerPath.solve reads them."""
+    def solve(self, fixed: tuple, rds: dict, nb: int) -> tuple[np.ndarray, dict, np.ndarray, dict]:
+        """(sense resistance, channel current shares, load current, each channel's source lift
+        per ampere) of the path with the probe load, as PowerPath.solve and
+        gate.lift_per_ampere read them."""
         v, current = self.path.solve(rds, nb, fixed)
         i_load = np.abs(current("(load)"))
         sense = np.abs(self.path.voltage(v, self.s_net) - self.path.voltage(v, self.g_net)) / i_load
         sense = np.where(np.isfinite(sense), sense, np.inf)
         share = {name: np.abs(current(name)) / i_load for name in rds}
-        return sense, share, i_load
+        lift = {}
+        for name, (a, b) in self.lifts.items():
+            dv = self.path.voltage(v, a) - self.path.voltage(v, b)
+            lift[name] = np.where((dv > 0) & (i_load > 0), dv / np.where(i_load > 0, i_load, 1.0), 0.0)
+        return sense, share, i_load, lift
+
+    def settled(self, old: dict, new: dict) -> np.ndarray:
+        """Builds whose channel drives all moved by less than gate.VGS_TOLERANCE."""
+        return np.all([np.abs(new[k] - old[k]) < gate.VGS_TOLERANCE for k in new], axis=0)
 
     def heated(self, sl: slice, nb: int, fixed: tuple, vgs: np.ndarray, ambient: float,
                current_of: Callable[[np.ndarray], np.ndarray], permitted: bool):
         """The self-heated steady state of each build: (sense resistance, hottest junction,
-        junction over its limit or runaway).
+        junction over its limit or runaway, each package's junction temperature).
 
         ``permitted`` False: a fixed current, as PowerPath.operating_point (plain and secant
         steps held at tj_max; past tj_max is runaway). True: the current just below the trip,
         as stress.permitted_current_heat (damped steps; runaway past tj_max + a margin or
-        without convergence).
+        without convergence). Each channel's V_GS is taken at that current (gate.py).
         """
         m = self.m
         packages = sorted({ch.package for ch in m.channels})
@@ -312,30 +339,34 @@ class _Run:
         previous: dict | None = None
         iterations = thermal.TRIP_ITERATIONS if permitted else thermal.LOAD_ITERATIONS
         sense = np.full(nb, np.inf)
-        base = self.rds_base(sl, vgs)
+        drive = vgs[sl]
+        vg = self.channel_vgs(drive, {}, 0.0)
         for _ in range(iterations):
-            rds = self.rds(base, tj)
-            rs, share, _ = self.solve(fixed, rds, nb)
+            rds = self.rds(self.rds_base(sl, vg), tj)
+            rs, share, _, lift = self.solve(fixed, rds, nb)
             sense = np.where(done, sense, rs)
             amps = current_of(rs)
+            new_vg = self.channel_vgs(drive, lift, amps)
+            vg_settled = self.settled(vg, new_vg)
             power = {pk: np.zeros(nb) for pk in packages}
             for ch in m.channels:
                 power[ch.package] += (share[ch.name] * amps) ** 2 * rds[ch.name]
             target = {pk: ambient + power[pk] * parts[pk].theta_ja for pk in packages}
             if permitted:
                 delta = np.max([np.abs(target[pk] - tj[pk]) for pk in packages], axis=0)
-                settled = ~done & (delta < thermal.TJ_TOLERANCE)
+                settled = ~done & (delta < thermal.TJ_TOLERANCE) & vg_settled
                 over = np.zeros(nb, bool)
             else:
                 over = ~done & np.any([target[pk] > parts[pk].tj_max for pk in packages], axis=0)
                 delta = np.max([np.abs(target[pk] - tj[pk]) for pk in packages], axis=0)
-                settled = ~done & ~over & (delta < thermal.TJ_TOLERANCE)
+                settled = ~done & ~over & (delta < thermal.TJ_TOLERANCE) & vg_settled
             # A build that settles or runs away keeps the last target, as the scalar loop does.
             ending = settled | over
             for pk in packages:
                 tj[pk] = np.where(ending, target[pk], tj[pk])
             runaway |= over
             done |= ending
+            vg = {k: np.where(done, vg[k], new_vg[k]) for k in vg}
             if done.all():
                 break
             damping = thermal.TRIP_DAMPING if permitted else 1.0
@@ -357,7 +388,24 @@ class _Run:
         limits = m.limits
         fails = runaway | np.any([tj[pk] > limits.junction_ceiling(parts[pk])
                                   for pk in packages], axis=0)
-        return sense, hottest, fails
+        return sense, hottest, fails, tj
+
+    def unheated(self, sl: slice, nb: int, fixed: tuple, vgs: np.ndarray, tj: dict,
+                 v_det: np.ndarray) -> np.ndarray:
+        """The sense resistance of each build with the switches held at ``tj`` (package -> °C),
+        each channel's drive at the trip current, as PowerPath.operating_point with ``detect``."""
+        drive = vgs[sl]
+        vg = self.channel_vgs(drive, {}, 0.0)
+        sense, done = np.full(nb, np.inf), np.zeros(nb, bool)
+        for _ in range(thermal.LOAD_ITERATIONS):
+            rs, _, _, lift = self.solve(fixed, self.rds(self.rds_base(sl, vg), tj), nb)
+            sense = np.where(done, sense, rs)
+            new_vg = self.channel_vgs(drive, lift, v_det / rs)
+            done |= self.settled(vg, new_vg)
+            vg = {k: np.where(done, vg[k], new_vg[k]) for k in vg}
+            if done.all():
+                break
+        return sense
 
     def result(self) -> YieldResult:
         m, samples, stack = self.m, self.samples, self.m.stack
@@ -372,27 +420,27 @@ class _Run:
             sl = slice(lo, min(samples, lo + batch))
             nb = sl.stop - sl.start
             hot = self.path.stamp(self.parts(sl, a.max), nb, skip=switches)
-            # The trip minimum's point: the highest ambient, the lowest drive, heated by the load.
-            rs_hot, tj_cont[sl], fail_cont[sl] = self.heated(
-                sl, nb, hot, self.vgs_low, a.max, lambda rs: np.full(nb, cont), permitted=False)
-            hot_trip[sl] = self.v_det[sl] / rs_hot
-            # Just below the trip, at both ends of the build's drive; the hotter kept.
             v_det = self.v_det[sl]
-            _, t_lo, f_lo = self.heated(sl, nb, hot, self.vgs_low, a.max, lambda rs: v_det / rs,
+            # The continuous load's heat at the highest ambient and lowest drive.
+            _, tj_cont[sl], fail_cont[sl], tj_load = self.heated(
+                sl, nb, hot, self.vgs_low, a.max, lambda rs: np.full(nb, cont), permitted=False)
+            # The trip minimum's point: the switches as the load heats them, each channel's
+            # drive at the trip current.
+            hot_trip[sl] = v_det / self.unheated(sl, nb, hot, self.vgs_low, tj_load, v_det)
+            # Just below the trip, at both ends of the build's drive; the hotter kept.
+            _, t_lo, f_lo, _ = self.heated(sl, nb, hot, self.vgs_low, a.max, lambda rs: v_det / rs,
                                         permitted=True)
-            _, t_hi, f_hi = self.heated(sl, nb, hot, self.vgs_high, a.max, lambda rs: v_det / rs,
+            _, t_hi, f_hi, _ = self.heated(sl, nb, hot, self.vgs_high, a.max, lambda rs: v_det / rs,
                                         permitted=True)
             tj_trip[sl], fail_trip[sl] = np.maximum(t_lo, t_hi), f_lo | f_hi
             # The trip maximum's point: the lowest ambient, the highest drive, no heating.
             cold = self.path.stamp(self.parts(sl, a.min), nb, skip=switches)
-            rds = self.rds(self.rds_base(sl, self.vgs_high),
-                           {ch.package: np.full(nb, a.min) for ch in m.channels})
-            rs_cold, _, _ = self.solve(cold, rds, nb)
-            cold_trip[sl] = self.v_det[sl] / rs_cold
+            cold_trip[sl] = v_det / self.unheated(
+                sl, nb, cold, self.vgs_high, {ch.package: np.full(nb, a.min) for ch in m.channels}, v_det)
             # The permitted event's point (events.permitted_point): there, with the switches at
             # the junction temperature the current just below the trip causes.
-            rs_ever, _, _ = self.heated(sl, nb, cold, self.vgs_high, a.min, lambda rs: v_det / rs,
-                                        permitted=True)
+            rs_ever, _, _, _ = self.heated(sl, nb, cold, self.vgs_high, a.min,
+                                           lambda rs: v_det / rs, permitted=True)
             permitted[sl] = v_det / rs_ever
 
         limits = m.limits
@@ -446,6 +494,7 @@ class _Run:
         if self.charger is not None:
             figures["charger_voltage_per_cell"] = spread_of(self.charger)
         notes = () if self.cell_drive else (
-            f"gate drive fixed at {float(m.protector.part.gate_drive):g} V",)
+            f"gate drive fixed at {float(m.protector.part.gate_drive):g} V"
+            + ("" if m.protector.part.gate_drive_boosted else ", at most the stack voltage"),)
         return YieldResult(samples, self.seed, self.distribution, tuple(checks), sampled, held,
                            figures, notes)

@@ -32,20 +32,96 @@ def test_above_highest_point_is_held_and_said():
     assert not r.extrapolated
 
 
-def test_below_lowest_point_extrapolates_never_clamps():
-    # [derived] line through (2.5 V, 29 mΩ) and (3.7 V, 24 mΩ) continued to 1.9 V: 31.5 mΩ.
-    r = rds_on(TABLE, 1.9, 25.0, 1.5)
-    assert r.value == pytest.approx(31.5 * MOHM)
-    assert r.value > 29 * MOHM
-    assert r.extrapolated
-    assert any("extrapolated" in a for a in r.assumptions)
+# A FET tabulated only at 4.5 V and 10 V, threshold 1.2-2.0 V (an invented 30 V pair), and the
+# drive of one NMC cell at its over-discharge cut-off, 2.5 V - 50 mV [practice, docs/references.md
+# "Single-cell protector"].
+HIGH_VTH = [(4.5, 14 * MOHM, 18 * MOHM), (10.0, 10 * MOHM, 13 * MOHM)]
+CUTOFF = 2.45
 
 
-def test_single_point_below_its_gate_voltage_raises():
-    with pytest.raises(ValueError, match="second row"):
-        rds_on([(4.5, 22 * MOHM, None)], 2.5, 25.0, 1.5)
-    # At or above its gate voltage the single point is usable.
+def _triode_current(vgs, vt, vds, k=1.0):
+    """Drain current in the triode region, I_D = k·((V_GS − V_t)·V_DS − V_DS²/2)
+    [published: Sedra & Smith, Microelectronic Circuits, MOSFET triode region; from memory]."""
+    return k * ((vgs - vt) * vds - vds * vds / 2)
+
+
+@pytest.mark.parametrize("vgs", [CUTOFF, 2.8, 3.5, 4.2])
+def test_below_the_table_follows_the_triode_region(vgs):
+    # R_DS = V_DS / I_D at a small V_DS, taken from the textbook equation itself, relative to the
+    # lowest row: the channel resistance at V_GS over that at 4.5 V with V_t = V_th max, 2.0 V.
+    vds = 1e-6
+    ratio = _triode_current(4.5, 2.0, vds) / _triode_current(vgs, 2.0, vds)
+    r = rds_on(HIGH_VTH, vgs, 25.0, 1.5, corner="max", vth=2.0)
+    assert r.value == pytest.approx(18 * MOHM * ratio, rel=1e-5)
+    assert r.extrapolated and r.below_table and not r.below_threshold
+    assert any("1/(V_GS − V_th)" in a for a in r.assumptions)
+
+
+def test_the_old_straight_line_was_optimistic_at_the_cut_off():
+    # The line through the two rows continued to 2.45 V gives 18 + (18 − 13)/(10 − 4.5)·2.05
+    # = 19.9 mΩ [derived]; the triode region gives 18 mΩ × (4.5 − 2.0)/(2.45 − 2.0) = 100 mΩ
+    # [derived from Sedra & Smith's triode equation, from memory], five times more.
+    r = rds_on(HIGH_VTH, CUTOFF, 25.0, 1.5, corner="max", vth=2.0).value
+    assert r == pytest.approx(0.1, rel=1e-9)
+    assert r > 5 * (18 + 5 / 5.5 * 2.05) * MOHM
+
+
+def test_the_triode_form_against_ngspice():
+    # An independent simulator: ngspice's level-1 (Shichman-Hodges) NMOS, V_TO 2.0 V, at
+    # V_DS = 0.1 mV; the ratio of its drain currents is the ratio of the channel resistances.
+    from tests.model import spice
+    drives = [4.5, CUTOFF, 3.0, 4.0]
+    lines = ["* triode", ".model nch nmos level=1 vto=2.0 kp=2.0 lambda=0"]
+    for i, v in enumerate(drives):
+        lines += [f"M{i} d{i} g{i} 0 0 nch w=1 l=1", f"VG{i} g{i} 0 {v}", f"VD{i} d{i} 0 1e-4"]
+    lines += [".control", "set numdgt=15", "op", "print all", "quit 0", ".endc", ".end", ""]
+    values = spice.run_op("\n".join(lines))
+    current = {v: abs(values[f"vd{i}#branch"]) for i, v in enumerate(drives)}
+    for v in drives[1:]:
+        r = rds_on(HIGH_VTH, v, 25.0, 1.5, corner="max", vth=2.0).value
+        assert r == pytest.approx(18 * MOHM * current[4.5] / current[v], rel=1e-3)
+
+
+@pytest.mark.parametrize("corner, vth", [("max", 2.0), ("typ", 1.6), ("min", 1.2)])
+def test_each_corner_takes_its_own_threshold(corner, vth):
+    # rdson.threshold_at reads V_th at the corner: min 1.2 V, typ the middle 1.6 V, max 2.0 V.
+    from packwarden.model.rdson import threshold_at
+    assert threshold_at((1.2, None, 2.0), corner) == pytest.approx(vth)
+    row = {"max": 18, "typ": 14, "min": 10}[corner] * MOHM
+    got = rds_on(HIGH_VTH, 3.0, 25.0, 1.5, corner=corner, vth=vth).value
+    assert got == pytest.approx(row * _triode_current(4.5, vth, 1e-6) / _triode_current(3.0, vth, 1e-6),
+                                rel=1e-5)
+
+
+@pytest.mark.parametrize("vgs", [2.0025, 2.0, 1.9, 1.0, 0.0, -3.0])
+def test_at_and_below_the_threshold_the_channel_is_off_large_and_finite(vgs):
+    # A solver that pulls a gate down (a collapsing short) must get an off switch, never a
+    # division by zero or a negative resistance: OFF_RATIO × the lowest row.
+    from packwarden.model.rdson import OFF_RATIO
+    r = rds_on(HIGH_VTH, vgs, 25.0, 1.5, corner="max", vth=2.0)
+    assert r.below_threshold and r.value == pytest.approx(18 * MOHM * OFF_RATIO)
+    assert any("off" in a for a in r.assumptions)
+
+
+def test_across_the_threshold_less_drive_never_lowers_resistance():
+    values = [rds_on(HIGH_VTH, 1.5 + 0.0005 * i, 25.0, 1.5, corner="max", vth=2.0).value
+              for i in range(6000)]
+    assert all(a >= b for a, b in zip(values, values[1:]))
+    assert all(0 < v < 1e3 for v in values)
+
+
+def test_a_single_row_extrapolates_by_the_same_form():
+    # One row is enough for the triode form: 22 mΩ at 4.5 V, V_th 1.0 V, at 2.5 V:
+    # 22 mΩ × 3.5 / 1.5 = 51.3 mΩ [derived from the triode equation above].
+    r = rds_on([(4.5, 22 * MOHM, None)], 2.5, 25.0, 1.5, vth=1.0)
+    assert r.value == pytest.approx(22 * MOHM * 3.5 / 1.5)
     assert rds_on([(4.5, 22 * MOHM, None)], 4.5, 25.0, 1.5).value == pytest.approx(22 * MOHM)
+
+
+def test_without_a_threshold_the_form_is_said_to_understate():
+    r = rds_on(TABLE, 1.9, 25.0, 1.5)
+    assert r.value == pytest.approx(29 * MOHM * 2.5 / 1.9)   # V_th taken as 0 V
+    assert any("understates" in a for a in r.assumptions)
 
 
 def test_wrong_way_slope_is_not_continued_downward():
@@ -143,10 +219,17 @@ def test_less_gate_drive_never_lowers_resistance(points, a, b, tj):
                 >= rds_on(points, hi, tj, 1.5, corner=corner).value * (1 - 1e-12))
 
 
-@given(points=physical_tables(), vgs=st.floats(0.5, 12.0), tj=st.floats(-40.0, 175.0))
-def test_corners_are_ordered(points, vgs, tj):
-    mn, ty, mx = (rds_on(points, vgs, tj, 1.5, corner=c).value for c in ("min", "typ", "max"))
-    assert mn <= ty * (1 + 1e-12) and ty <= mx * (1 + 1e-12)
+@given(points=physical_tables(), vgs=st.floats(0.5, 12.0), tj=st.floats(-40.0, 175.0),
+       th=st.lists(st.floats(0.2, 2.0), min_size=3, max_size=3))
+def test_corners_are_ordered(points, vgs, tj, th):
+    # With each corner's own threshold (min <= typ <= max) as well as without one.
+    from packwarden.model.rdson import threshold_at
+    th = tuple(sorted(th))
+    for vt in ((None, None, None), th):
+        mn, ty, mx = (rds_on(points, vgs, tj, 1.5, corner=c,
+                             vth=None if vt[0] is None else threshold_at(vt, c)).value
+                      for c in ("min", "typ", "max"))
+        assert mn <= ty * (1 + 1e-12) and ty <= mx * (1 + 1e-12)
 
 
 @given(points=physical_tables(), t1=st.floats(-40.0, 175.0), t2=st.floats(-40.0, 175.0),

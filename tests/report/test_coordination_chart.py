@@ -58,7 +58,7 @@ def test_the_chart_shows_the_models_windows_and_limits() -> None:
     chart = time_current_chart(m)
     values = dict(chart.values)
     # the over-current detection as the trip window and the protector's delay give it
-    assert values["over-current detection"] == "trips 1.79–7.78 A after 5–15 ms"
+    assert values["over-current detection"] == "trips 1.62–7.72 A after 5–15 ms"
     tc = time_current(m)
     assert {lim.kind for lim in tc.limits} == {"fuse", "fet"}
     assert [mk.name for mk in tc.marks] == [e.name for e in m.events

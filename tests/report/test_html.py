@@ -135,6 +135,7 @@ FET = """\
     vgs_max: 12 V
     vgs_th: {{min: 0.5 V, max: 1.0 V}}
     rds_on:
+      - {{vgs: 1.8 V, typ: {rds}, max: {rds}}}
       - {{vgs: 2.5 V, typ: {rds}, max: {rds}}}
       - {{vgs: 4.5 V, typ: {rds}, max: {rds}}}
     rds_on_hot_ratio: {{at: 125 °C, ratio: 1.0}}
@@ -168,7 +169,7 @@ def test_example_report_has_title_counts_figures_and_cautions() -> None:
     assert str(escape(CAUTION)) in html
     assert "not that the design is safe" in html
     # key figures as the model computes them, formatted with units
-    assert "<tr><th>over-current trip</th><td>1.79 A</td><td>3.67 A</td><td>7.78 A</td></tr>" in html
+    assert "<tr><th>over-current trip</th><td>1.62 A</td><td>3.62 A</td><td>7.72 A</td></tr>" in html
     assert "<tr><th>prospective short circuit</th><td></td><td>110 A</td><td></td></tr>" in html
     assert set(charts(html)) == {"ladder", "trip", "tj", "tc"}
 
@@ -186,8 +187,8 @@ def test_findings_table_shows_every_field(tmp_path: Path) -> None:
     assert len(rows) == 2  # two trip-current-window findings (min below continuous and peak load)
     first = rows[0]
     for part in ('<span class="badge sev-error">error</span>', "trip-current-window", "<td>U1</td>",
-                 "<code>10:15</code>", "load.continuous", "over-current trip min 1.58 A is below the "
-                 "continuous load 2.5 A", "switches with ≤ 27 mΩ per channel", "<li>trip min = 1.58 A</li>"):
+                 "<code>10:15</code>", "load.continuous", "over-current trip min 1.4 A is below the "
+                 "continuous load 2.5 A", "switches with ≤ 28.5 mΩ per channel", "<li>trip min = 1.4 A</li>"):
         assert part in first, part
     assert ">2</b> errors" in html
 
@@ -367,12 +368,12 @@ def test_trip_window_shows_a_trace_at_its_ipc2221_rating(tmp_path: Path) -> None
 
 def test_trip_window_example_design() -> None:
     labels = texts(charts(report(EXAMPLE))["trip"])
-    for text in ("U1 over-current trip", "1.79–7.78 A, typ 3.67 A", "U1 short-circuit trip",
+    for text in ("U1 over-current trip", "1.62–7.72 A, typ 3.62 A", "U1 short-circuit trip",
                  "continuous load", "1.2 A", "peak load, 40 ms", "1.6 A", "Q1 FET id_max",
                  "hard short", "92.1 A", "current, A (log scale)",
                  # the permitted event: the current the rules judge the ratings by
-                 # (docs/references.md "Events in time"; the issue's own calculator, about 5.49 A)
-                 "permitted for ever, -20 °C", "5.51 A"):
+                 # (docs/references.md "Events in time"; an independent calculator gave about 5.49 A)
+                 "permitted for ever, -20 °C", "5.47 A"):
         assert text in labels, text
 
 
@@ -425,9 +426,9 @@ def test_junction_temperature_example_marks_the_trip_min_corner() -> None:
     svg = charts(html)["tj"]
     rings = [c for c in svg.iter("circle") if has_class(c, "corner")]
     assert len(rings) == 1
-    # The model's trip-min operating point: 55 °C ambient, 2.45 V gate drive, 64.0 °C junction.
-    assert "<tr><th>Q1 at the trip-min corner (55 °C, 2.45 V gate drive)</th><td>64.0 °C</td></tr>" in html
-    assert "Q1 worst 64.0 °C" in texts(svg)
+    # The model's trip-min operating point: 55 °C ambient, 2.45 V gate drive, 64.8 °C junction.
+    assert "<tr><th>Q1 at the trip-min corner (55 °C, 2.45 V gate drive)</th><td>64.8 °C</td></tr>" in html
+    assert "Q1 worst 64.8 °C" in texts(svg)
 
 
 # --- layout -----------------------------------------------------------------------------------
