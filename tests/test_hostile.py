@@ -250,7 +250,10 @@ def test_a_file_over_the_size_limit(tmp_path, monkeypatch, registry):
     import packwarden.loader as loader
     repo = make_repo(tmp_path / "repo")
     big = repo / "big.yaml"
-    big.write_text(GOOD.read_text(encoding="utf-8") + "#" * 2000 + "\n", encoding="utf-8")
+    # padded past the good design's own library, so the limit leaves that library readable
+    library = GOOD.parent / "parts" / "orchard-parts.yaml"
+    padding = library.stat().st_size + 2000
+    big.write_text(GOOD.read_text(encoding="utf-8") + "#" * padding + "\n", encoding="utf-8")
     size = big.stat().st_size
     monkeypatch.setattr(loader, "MAX_BYTES", size - 1)  # the good design stays below it
     monkeypatch.chdir(repo)

@@ -73,11 +73,15 @@ def test_event_limits_fire_on_the_example(repo: Path) -> None:
           - {id: ever, figure: permitted.duration, max: 1 s}
         """)
     found = {f.rule: f for f in policy_findings(lint(["designs/probe.yaml"]))}
-    # the gap overload is about 12 A²s: above 10, below 13
+    # the gap overload is about 11.4 A²s: above 10, below 13
     assert "policy/gap-i2t" in found and "policy/gap-i2t-loose" not in found
     gap = found["policy/gap-i2t"]
     assert gap.figures[0].name == "gap-overload.i2t"
-    assert gap.figures[0].value == pytest.approx(0.6 / 0.0212 * (0.6 / 0.0212) * 0.015, rel=0.01)
+    # 600 mV over the pair at -20 °C, Q1.1 at 4.325 V and Q1.2 at 4.325 - 0.6 = 3.725 V (worked
+    # by hand in tests/model/test_gate.py): (14 - 0.625/0.8 + 14 - 0.025/0.8) mΩ × (1 - 0.44 × 0.45)
+    # = 21.80 mΩ, 27.52 A for 15 ms
+    sense = (14 - 0.625 / 0.8 + 14 - 0.025 / 0.8) * (1 - 0.44 * 0.45) * 1e-3
+    assert gap.figures[0].value == pytest.approx((0.6 / sense) ** 2 * 0.015, rel=0.01)
     assert gap.element == "U1" and gap.severity.value == "error"
     # 5.5 V + 4.325 V = 9.825 V across the off discharge switch, above 9.8 V
     assert found["policy/reversed-15v"].figures[0].value == pytest.approx(9.825, rel=1e-6)
