@@ -32,7 +32,7 @@ from dataclasses import field
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
-from . import gate, inrush, thermal
+from . import gate, inrush, short, thermal
 from .network import NetworkError, Source
 from .ocv import HOURS_PER_MONTH
 from .values import SIGNAL_OHMS, ModelProblem, corner_value, spread_low
@@ -660,13 +660,6 @@ def _hard_short(m: "DesignModel", pulse: ShortCircuitPulse, vmax: float | None) 
 
 # --- the weakest short -------------------------------------------------------------------------
 
-# Gate drive that follows the sagging cells settles to within this, volts [derived: the fixed
-# point contracts fast, three or four solves on the examples; a millivolt is far inside any
-# detection's tolerance].
-_SAG_TOLERANCE = 1e-3
-_SAG_ITERATIONS = 20
-
-
 @record(frozen=True)
 class WeakestShort:
     """The weakest short the protection must still catch, solved at its corner.
@@ -691,51 +684,35 @@ class WeakestShort:
     path_resistance: float  # stack to terminals, Ω
     solution: Any
     assumptions: tuple[str, ...]
+    short: Any = None  # the short.HardShort solve: each channel's drive, conduction and watts
 
 
 def weakest_short(m: "DesignModel") -> WeakestShort | None:
-    """The weakest short at its corner (see :class:`WeakestShort`), from the path's own solver;
-    None without a protector, a stack or switches."""
+    """The weakest short at its corner (see :class:`WeakestShort`), from the hard short's own
+    solve (:func:`short.hard_short`: each switch with the drive the short leaves it, a starved
+    one through its body diode) at that corner; None without a protector, a stack or switches."""
     p, stack, gd = m.protector, m.stack, m.gate_drive
     if p is None or stack is None or gd is None or not m.channels:
         return None
     limits = m.limits
     emf = p.part.overdischarge.detect.low
     cell_r = corner_value(stack.part.internal_resistance, "max") * limits.cell_ageing
-    ambient, vgs = m.ambient.min, gd.min
-    # With the drive taken from the cells, the gate sees the stack as the short leaves it, below
-    # its open-circuit voltage: solved until the drive and the current agree.
-    follows = p.part.gate_drive == "cell"
-    per_cell = 1.0 / stack.series if p.part.cells <= 1 else 1.0
-    sol, notes, rds, drive = None, [], {}, vgs
-    for _ in range(_SAG_ITERATIONS if follows else 1):
-        rds, notes, drive = {}, [], vgs
-        for ch in m.channels:
-            rds[ch.name], n = m.channel_rds(ch, vgs, ambient, "max")
-            notes += [x for x in n if x not in notes]
-        net = m.network(rds, cell_emf=emf, cell_r=cell_r, temp=ambient, corner="max",
-                        load=limits.fault_resistance)
-        try:
-            sol = net.solve(ground=stack.bottom)
-        except NetworkError as exc:
-            m.problems.append(ModelProblem("network", str(exc)))
-            return None
-        sag = sol.voltage_between(stack.top, stack.bottom)
-        if not follows or sag is None or abs(abs(sag) * per_cell - vgs) < _SAG_TOLERANCE:
-            break
-        vgs = abs(sag) * per_cell
-    else:
-        notes.append(f"the gate drive did not settle with the sagging cells: {drive:.3g} V "
-                     f"taken, {vgs:.3g} V next")
-    current = abs(sol.current("(load)"))
-    ich = {ch.name: abs(sol.current(ch.name)) for ch in m.channels}
+    ambient = m.ambient.min
+    hs = short.hard_short(m, ambient, "max", emf=emf, cell_r=cell_r,
+                          load=limits.fault_resistance, drive_before=gd.min)
+    if hs is None:
+        return None
+    sol = hs.solution
+    current = hs.current
     pos, neg = m.terminals
     vs = sol.voltage_between(stack.top, stack.bottom)
     vt = sol.voltage_between(pos, neg)
     path_r = abs(abs(vs) - abs(vt)) / current if current > 0 and None not in (vs, vt) else math.nan
     stack_r = stack.series * cell_r / stack.parallel
+    vgs = min(c.vgs for c in hs.channels.values())
     return WeakestShort(current, emf, cell_r, limits.cell_ageing, limits.fault_resistance,
-                        ambient, drive, rds, ich, stack_r, path_r, sol, tuple(notes))
+                        ambient, vgs, hs.rds, hs.channel_current, stack_r, path_r, sol,
+                        hs.assumptions, hs)
 
 
 def _weakest_short(m: "DesignModel") -> list[Event]:
@@ -752,21 +729,27 @@ def _weakest_short(m: "DesignModel") -> list[Event]:
         detection, duration = "over-current", p.part.overcurrent.delay.high
     else:
         detection, duration = None, None
-    currents, power = _figures(m, ws.current, ws.channel_current, ws.rds, ws.solution,
+    currents, power = _figures(m, ws.current, ws.channel_current, {}, ws.solution,
                                ws.ambient, "max")
+    power.update(ws.short.package_power)  # channels and body diodes as the solve has them
     series = m.stack.series
     ends = (f"for the longest {detection} delay" if detection else
             "for ever: no detection surely trips")
+    drive = (f"the fixed gate drive {ws.vgs:.3g} V" if ws.short.drive == "fixed" else
+             f"the gates following the sagging cells ({ws.short.describe_drive()})")
     words = (f"weakest short to catch: {ws.fault * 1e3:.3g} mΩ across the pack terminals, the "
              f"stack at the over-discharge detection minimum ({ws.cell_emf:.4g} V per cell), "
              f"lowest ambient {ws.ambient:g} °C, cells at {ws.ageing:g} × their maximum internal "
-             f"resistance ({ws.cell_r * 1e3:.3g} mΩ each), gate drive {ws.vgs:.3g} V, every part "
+             f"resistance ({ws.cell_r * 1e3:.3g} mΩ each), {drive}, every part "
              f"at its highest resistance, {ends}")
     figures = {"fault resistance": ws.fault, "cell resistance": ws.cell_r,
                "stack resistance": ws.stack_resistance, "path resistance": ws.path_resistance,
                "stack voltage": ws.cell_emf * series, "gate drive": ws.vgs}
+    chans = ws.short.channels
     return [Event("weakest-short", words, ws.ambient, ws.current, duration, currents, power,
-                  ws.cell_emf * series, detection, ws.assumptions, figures=figures)]
+                  ws.cell_emf * series, detection, ws.assumptions,
+                  {n: c.vgs for n, c in chans.items()}, {n: c.conducts for n, c in chans.items()},
+                  {n: c.power for n, c in chans.items()}, figures=figures)]
 
 
 # --- storage -----------------------------------------------------------------------------------

@@ -216,7 +216,8 @@ def _gate_sources(m: "DesignModel", sol: Any, supply: float | None) -> dict[str,
 
 
 def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
-               held: bool = False) -> HardShort | None:
+               held: bool = False, *, emf: float | None = None, cell_r: float | None = None,
+               load: float = IDEAL, drive_before: float | None = None) -> HardShort | None:
     """The hard short at one temperature (``ambient``: cells, switches and path alike) and one
     corner of every part's spread, the highest cell voltage driving it.
 
@@ -226,17 +227,23 @@ def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
     (the instant it begins: the supply filter and the gates' charge still hold it), otherwise the
     collapsed cell voltage. Solved to a fixed point of the drives. None without a cell stack,
     protector, gate drive or switches.
+
+    The same solve takes a weaker short (the weakest-short event): ``emf`` per cell (default the
+    highest), ``cell_r`` per cell (default the part's at ``corner``), ``load`` the fault's
+    resistance across the terminals (default a bolted short) and ``drive_before`` the gate drive
+    before the short (default the highest).
     """
     p, gd, stack = m.protector, m.gate_drive, m.stack
     if p is None or gd is None or stack is None or m.cell_voltage is None or not m.channels:
         return None
     fixed = p.part.gate_drive != "cell"
     drive = "fixed" if fixed else "held" if held else "collapsed"
-    emf = m.cell_voltage.max
-    cell_r = corner_value(stack.part.internal_resistance, corner)
+    emf = m.cell_voltage.max if emf is None else emf
+    cell_r = corner_value(stack.part.internal_resistance, corner) if cell_r is None else cell_r
+    initial = gd.max if drive_before is None else drive_before
     knees = {ch.name: (BODY_DIODE_V_FORWARD, DEFAULT_DIODE_R_ON) for ch in m.channels}
     thresholds = {ch.name: threshold(ch, corner) for ch in m.channels}
-    vgs = {ch.name: gd.max for ch in m.channels}  # the short begins with the drive it had
+    vgs = {ch.name: initial for ch in m.channels}  # the short begins with the drive it had
     # A channel's residual, target − V_GS, falls as its V_GS rises where the current takes drive
     # away (the discharge switch). Near the threshold that fall is steep, and plain or secant
     # steps swing between a starved and a conducting channel; once a residual changes sign the
@@ -258,7 +265,7 @@ def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
             on[ch.name] = r is not None
             rds[ch.name] = r if r is not None else 1.0
         net = m.network(rds, cell_emf=emf, cell_r=cell_r, temp=ambient, corner=corner,
-                        load=IDEAL).with_switch_states(on).with_body_diodes(knees)
+                        load=load).with_switch_states(on).with_body_diodes(knees)
         try:
             sol = net.solve(ground=stack.bottom)
         except NetworkError as exc:
@@ -268,7 +275,7 @@ def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
         if fixed:
             converged = True
             break
-        target = _gate_sources(m, sol, gd.max if held else None)
+        target = _gate_sources(m, sol, initial if held else None)
         residual = {k: target[k] - vgs[k] for k in vgs}
         if max(abs(r) for r in residual.values()) < VGS_TOLERANCE:
             converged = True
