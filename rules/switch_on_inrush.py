@@ -56,7 +56,8 @@ def check(ctx, options):
         yield ctx.finding(
             f"{start} into {fq(ev.capacitance, 'F')} draws {fq(at.peak, 'A')} through a "
             f"{fq(at.loop_resistance, 'Ω')} loop (τ {fq(at.time_constant, 's')}, {at.corner}), "
-            f"above the {t.detection} trip {'maximum' if every else 'minimum'} {fq(limit, 'A')} "
+            f"above the {t.detection} trip's {'maximum' if every else 'minimum'} at that corner "
+            f"{fq(limit, 'A')} "
             f"for {fq(above, 's')}, longer than the shortest {t.detection} delay "
             f"{fq(t.delay_min, 's')}: {outcome}",
             path=where, element=element, key=f"trip-{t.detection}",
