@@ -1041,6 +1041,14 @@ class PreArcingPoint(Strict):
         "edge where the data sheet draws a band"))
 
 
+class DeratingPoint(Strict):
+    """A fuse's continuous rating at one ambient, from its maker's temperature derating curve."""
+
+    ambient: Temperature = Field(description="ambient temperature, in °C")
+    factor: Q("%", gt=0, le=150) = Field(description=(
+        "the share of the rated current it carries at that ambient, e.g. '85 %'"))
+
+
 class Fuse(Packaged):
     """A fuse: the secondary protection in series with the power path."""
 
@@ -1069,6 +1077,11 @@ class Fuse(Packaged):
     resistance: PathOhms | None = Field(default=None, description=(
         "cold resistance, in ohms; part of the power path's resistance (taken as near zero when "
         "absent)"))
+    ambient_derating: list[DeratingPoint] | None = Field(default=None, max_length=20, description=(
+        "the maker's temperature derating curve as points (ambient, share of the rating); "
+        "secondary-protection derates the rating to the pack's highest ambient by it (straight "
+        "lines between points, 100 % at 25 °C unless a point says otherwise); without it no "
+        "ambient derating is applied, since curves differ by fuse type"))
 
     @model_validator(mode="after")
     def _breaks_its_rating(self) -> "Fuse":

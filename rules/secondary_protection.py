@@ -18,8 +18,10 @@ class Options(RuleOptions):
           good="F1: {part: OR-FUSE-12A, pins: [B+, P+]}"))
 def check(ctx, options):
     """The protector and its FETs can fail short; an independent fuse (or PTC) in series with the
-    whole power path, in both directions and not bypassable, is the backup. It must carry, derated,
-    the highest current the electronic protection permits for ever (the ``permitted`` event), be
+    whole power path, in both directions and not bypassable, is the backup. It must carry, derated
+    (and at the highest ambient by the maker's derating curve where the part gives
+    ``ambient_derating``), the highest current the electronic protection permits for ever (the
+    ``permitted`` event), be
     rated for the highest pack or charger voltage, break the prospective short-circuit current,
     and let the electronics act first: in the gap overload (the largest current only the
     over-current detection clears, for its longest delay) and the hard short, the I²t it lets
@@ -52,18 +54,21 @@ def check(ctx, options):
     for f in series:
         part, path = f.part, f.path + ("part",)
         if f.kind == "fuse":
-            derated = m.limits.fuse_current(part)
+            hot = m.ambient.max
+            derated = m.limits.fuse_current(part, hot)
+            curve = (f", and by its derating curve at the highest ambient {fq(hot, '°C')}"
+                     if part.ambient_derating and derated < m.limits.fuse_current(part) else "")
             i_ever = permitted.current_through(f.refdes) if permitted is not None else None
             if i_ever is not None and i_ever > derated:
                 yield ctx.finding(
                     f"{f.refdes} carries {fq(derated, 'A')} derated ({fq(m.limits.fuse_derating * 100, '%', 2)} of "
-                    f"{fq(part.rated_current, 'A')}) but the electronics permit {fq(i_ever, 'A')} "
+                    f"{fq(part.rated_current, 'A')}{curve}) but the electronics permit {fq(i_ever, 'A')} "
                     f"through it for ever (the permitted event, at {fq(permitted.ambient, '°C')} ambient): the fuse, not "
                     f"the protector, would act",
                     path=path, element=f.refdes, key="rating",
                     figures=[Figure("derated rating", derated, "A"),
                              Figure("permitted current", i_ever, "A")],
-                    hint=f"use a fuse rated ≥ {fq(i_ever / m.limits.fuse_derating, 'A')}")
+                    hint=f"use a fuse rated ≥ {fq(i_ever * part.rated_current / derated, 'A')}")
         vmax = max([sv.max if sv else 0.0] + ([ch.open_circuit_max] if ch else []))
         if part.rated_voltage < vmax:
             yield ctx.finding(

@@ -53,9 +53,10 @@ __all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "design_events", "pulse_i2t",
 EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short",
                "weakest-short", "switch-on-inrush", "charger-reversed", "turn-off-spike",
                "storage")
-#: The events that are external short circuits across the pack terminals: a cell meets them in its
-#: safety standard's external short-circuit test (IEC 62133-2), not as a rated pulse.
-SHORT_EVENTS = ("hard-short", "weakest-short")
+#: The events that are external short circuits across the pack terminals, and the end of one (the
+#: turn-off spike): a cell meets them in its safety standard's external short-circuit test
+#: (IEC 62133-2), not as a rated pulse.
+SHORT_EVENTS = ("hard-short", "weakest-short", "turn-off-spike")
 
 
 def pulse_i2t(current: float, duration: float) -> float:

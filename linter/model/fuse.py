@@ -230,6 +230,21 @@ def linear_ambient_factor(ambient: float, per_kelvin: float, reference: float = 
     return max(0.0, 1.0 - per_kelvin * max(0.0, ambient - reference))
 
 
+def curve_ambient_factor(ambient: float, points: list[tuple[float, float]]) -> float:
+    """A fuse's ambient factor at ``ambient`` °C from its maker's derating curve, given as
+    (ambient, factor) points: straight lines between them, 1.0 at 25 °C unless a point gives that
+    ambient, flat beyond the coldest and the hottest point."""
+    table = dict(points)
+    table.setdefault(25.0, 1.0)
+    pts = sorted(table.items())
+    if ambient <= pts[0][0]:
+        return pts[0][1]
+    for (t0, f0), (t1, f1) in zip(pts, pts[1:]):
+        if t0 < ambient <= t1:
+            return f0 + (f1 - f0) * (ambient - t0) / (t1 - t0)
+    return pts[-1][1]
+
+
 # --- the fuse's limit for an event ----------------------------------------------------------------
 
 #: Longest event judged by the constant melting I²t, seconds. Constant melting I²t holds only for

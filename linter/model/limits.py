@@ -13,7 +13,7 @@ from typing import Any, Mapping
 
 from ..records import record
 from . import copper
-from .fuse import CONTINUOUS_DERATING, max_continuous_current
+from .fuse import CONTINUOUS_DERATING, curve_ambient_factor, max_continuous_current
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
            "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL"]
@@ -86,9 +86,15 @@ class Limits:
         """The highest junction temperature a FET part may reach: the limit or its tj_max."""
         return min(self.junction, fet.tj_max)
 
-    def fuse_current(self, fuse: Any) -> float:
-        """The continuous current a fuse part may carry: its rating, derated."""
-        return max_continuous_current(fuse.rated_current, base_factor=self.fuse_derating)
+    def fuse_current(self, fuse: Any, ambient: float | None = None) -> float:
+        """The continuous current a fuse part may carry: its rating, derated, and at ``ambient``
+        (°C) by the part's own temperature derating curve where it gives one."""
+        points = getattr(fuse, "ambient_derating", None)
+        factor = 1.0
+        if points and ambient is not None:
+            factor = min(1.0, curve_ambient_factor(ambient, [(p.ambient, p.factor / 100.0)
+                                                          for p in points]))  # % in the part
+        return max_continuous_current(fuse.rated_current, factor, base_factor=self.fuse_derating)
 
     def trace_capacity(self, trace: Any) -> copper.ConductorRating:
         """The IPC-2221 rating of a trace part at the allowed rise (ValueError off the chart)."""

@@ -513,7 +513,7 @@ def trip_rows(model: Any) -> tuple[list[Row], Row | None, list[str]]:
     for f in model.netlist.of_kind("fuse", "ptc", "wire", "trace"):
         part = f.part
         if f.kind == "fuse":
-            v = limits.fuse_current(part)
+            v = limits.fuse_current(part, model.ambient.max)
             rows.append(Row(f"{f.refdes} fuse derated, {limits.fuse_derating * 100:g} % of {q(part.rated_current, 'A')}",
                             "rating", v, v, None, q(v, "A"), "r-rating"))
         elif f.kind == "ptc":

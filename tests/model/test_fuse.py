@@ -205,3 +205,15 @@ def test_pre_arcing_points_reproduce_a_power_law():
     # the part's points rule over the gates: 20 A for 0.1 s needs 20² × 0.25 = 100 A²s
     assert fuse.melt_limit(20.0, 0.1, 5.0, "quick_acting", 10.0, points).i2t == pytest.approx(
         100.0, rel=1e-12)
+
+
+def test_a_makers_derating_curve_read_in_straight_lines():
+    # [derived: linear interpolation between the curve's points] (25 °C, 100 %) is implied;
+    # (85 °C, 50 %) gives 100 % - 50 % × (55 - 25) / (85 - 25) = 75 % at 55 °C; flat beyond
+    # the curve's ends; a point at 25 °C of its own replaces the implied one.
+    from packwarden.model.fuse import curve_ambient_factor
+    assert curve_ambient_factor(55.0, [(85.0, 0.5)]) == pytest.approx(0.75)
+    assert curve_ambient_factor(100.0, [(85.0, 0.5)]) == pytest.approx(0.5)
+    assert curve_ambient_factor(-20.0, [(-40.0, 1.1), (85.0, 0.5)]) == pytest.approx(
+        1.1 + (1.0 - 1.1) * 20.0 / 65.0)
+    assert curve_ambient_factor(25.0, [(25.0, 0.9), (85.0, 0.5)]) == pytest.approx(0.9)
