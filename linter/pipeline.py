@@ -299,7 +299,7 @@ def model_figures(model: Any, result: DesignResult, doc: Document | None = None)
 
 def model_events(model: Any, result: DesignResult,
                  doc: Document | None = None) -> list[dict[str, Any]]:
-    return _from_model(result, doc, lambda: [e.as_dict() for e in model.events], [])
+    return _from_model(result, doc, model.events_report, [])
 
 
 def _from_model(result: DesignResult, doc: Document | None, compute: Callable[[], Any],

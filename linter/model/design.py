@@ -364,6 +364,26 @@ class DesignModel:
         charger-reversed, turn-off-spike."""
         return events.design_events(self)
 
+    def events_report(self) -> list[dict[str, Any]]:
+        """The events as the JSON report writes them: each event's own figures and, for every
+        switch package it heats (an event with a duration), what the package must survive
+        (``survival.PulseHeat``): ``power`` at the worst share, the junction it ``start``s from,
+        ``zth_needed`` (the Z_th at the event's duration that just reaches tj_max), the part's
+        own ``zth`` there (``None`` where the part gives none) and the junction at the end
+        (``tj_end``)."""
+        heat: dict[int, dict[str, dict[str, Any]]] = {}
+        for h in self.pulse_heat:
+            heat.setdefault(id(h.event), {})[h.package] = {
+                "power": h.power, "start": h.start, "zth_needed": h.needed,
+                "zth": h.zth.value if h.zth is not None else None, "tj_end": h.tj}
+        out = []
+        for e in self.events:
+            d = e.as_dict()
+            if id(e) in heat:
+                d["switch_heat"] = heat[id(e)]
+            out.append(d)
+        return out
+
     def event(self, name: str):
         """The event called ``name`` (events.EVENT_NAMES), or None when the design has none."""
         return next((e for e in self.events if e.name == name), None)

@@ -65,10 +65,17 @@ def key_figures(figures: dict) -> dict:
 
 
 def event_dict(event: dict) -> dict:
-    """An event as JSON writes it: its measures rounded as the key figures are, its element
-    figures by element name."""
-    return {k: ({n: _rounded(x) for n, x in v.items()} if isinstance(v, dict) else _rounded(v))
-            for k, v in event.items()}
+    """An event as JSON writes it: its measures rounded as the key figures are, at every depth
+    (its element figures by element name, a switch package's heat, an inrush's corners)."""
+    return _deep_rounded(event)
+
+
+def _deep_rounded(node):
+    if isinstance(node, dict):
+        return {k: _deep_rounded(v) for k, v in node.items()}
+    if isinstance(node, (list, tuple)):
+        return [_deep_rounded(v) for v in node]
+    return _rounded(node)
 
 
 def _rounded(value):

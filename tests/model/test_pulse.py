@@ -161,3 +161,24 @@ def test_avalanche_energy_worked_by_hand():
     # [formula from FET makers' application notes, from memory; arithmetic by hand]
     assert pulse.avalanche_energy(200e-9, 118.3, 20.0, 4.325) == pytest.approx(1.78564e-3, rel=1e-5)
     assert pulse.avalanche_energy(200e-9, 118.3, 4.0, 4.325) == math.inf  # cannot clamp
+
+
+def test_the_json_report_states_what_each_event_asks_of_the_switches():
+    # The Orchard probe's gap overload heats Q1 from its continuous-load junction for 15 ms; the
+    # Z_th that brings it just to tj_max 150 °C is (150 - T_start) / P [derived: T_end = T_start +
+    # P·Z_th, docs/references.md "What parts survive over time"], and its own Foster network
+    # (example_designs/parts/orchard-parts.yaml) at 15 ms, worked here from the closed form:
+    # Σ R_i (1 - e^(-t/τ_i)).
+    import json
+    from packwarden.report import formatter
+    from packwarden.report.common import RenderOptions
+    run = lint([str(ORCHARD)])
+    (design,) = json.loads(formatter("json")(run, RenderOptions()))["designs"]
+    gap = next(e for e in design["events"] if e["name"] == "gap-overload")
+    q1 = gap["switch_heat"]["Q1"]
+    assert q1["zth_needed"] == pytest.approx((150.0 - q1["start"]) / q1["power"], rel=1e-5)
+    stages = [(0.03, 30e-6), (0.1, 1e-3), (2.0, 20e-3), (12.0, 1.0), (68.87, 40.0)]
+    z = sum(r * (1 - math.exp(-0.015 / tau)) for r, tau in stages)
+    assert q1["zth"] == pytest.approx(z, rel=1e-5)
+    assert q1["tj_end"] == pytest.approx(q1["start"] + q1["power"] * z, rel=1e-5)
+    assert "switch_heat" not in next(e for e in design["events"] if e["name"] == "permitted")
