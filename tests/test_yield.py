@@ -311,7 +311,8 @@ def test_numpy_is_imported_only_for_yield():
 def test_the_cell_rating_is_judged_by_the_self_heated_permitted_current(tmp_path):
     # The Orchard probe's switches are its sense resistance: the current it permits for ever
     # settles below the unheated trip maximum as they heat (docs/references.md "Events in time";
-    # the issue's own calculator: about 5.49 A against 7.78 A). With its cells rated 6 A, between
+    # an outside review's calculator: about 5.49 A against 7.78 A, docs/references.md, outside
+    # review). With its cells rated 6 A, between
     # the two, no build fails the rating, as the rule passes it (tests/rules/
     # test_permitted_ratings.py), though many builds' unheated trip maximum lies above 6 A.
     run = lint_variant(tmp_path, REPO / "example_designs/orchard-probe.yaml",

@@ -72,7 +72,8 @@ def test_gap_overload_of_orchard_from_the_detection_voltage(orchard):
     assert gap.current == pytest.approx(current, rel=1e-9)
     assert gap.duration == OC_DELAY_MAX
     assert gap.i2t == pytest.approx(current**2 * OC_DELAY_MAX, rel=1e-9)
-    assert 11.0 < gap.i2t < 12.5  # the issue's "about 11-12 A²s", against today's 0.91 A²s
+    # an outside review's "about 11-12 A²s" (docs/references.md, outside review)
+    assert 11.0 < gap.i2t < 12.5
     # the switches are the sense resistance, so all of the detection voltage falls across them:
     # P = I·V [published: P = V·I]
     assert gap.dissipation["Q1"] == pytest.approx(current * SC_DETECT_MAX, rel=1e-6)
@@ -92,7 +93,8 @@ def test_permitted_current_of_orchard_is_a_thermal_balance(orchard):
     r_at_tj = (orchard.channel_rds(q1["Q1.1"], 4.325, tj, "min")[0]
                + orchard.channel_rds(q1["Q1.2"], 4.325 - OC_DETECT_MAX, tj, "min")[0])
     assert ev.current == pytest.approx(OC_DETECT_MAX / r_at_tj, rel=2e-3)  # 0.01 K tolerance
-    # about 5.49 A per the issue (its own calculator, full drive on both gates); the charge
+    # about 5.49 A by an outside review's calculator (full drive on both gates;
+    # docs/references.md, outside review); the charge
     # FET's lower drive takes about 0.6 % off, below the unheated trip maximum 7.72 A
     assert ev.current == pytest.approx(5.49, rel=0.01)
     assert ev.current < orchard.overcurrent_trip.max

@@ -35,7 +35,7 @@ def test_the_13s4p_vector_of_the_references():
     # 650 A, about 310 µs above a 121 A short-circuit trip maximum [derived: textbook circuit
     # theory]. Worked: 13 × 4.2 V = 54.6 V; 54.6 / 0.084 = 650 A; 0.084 × 2200e-6 = 184.8 µs;
     # ln(650 / 121) = ln(5.3719) = 1.6812; 184.8 µs × 1.6812 = 310.7 µs (the references round
-    # τ to 185 µs and give 312 µs; the issue about 310 µs).
+    # τ to 185 µs and give 312 µs).
     pulse = RcPulse(13 * 4.2, 0.084, 2200e-6)
     assert pulse.time_constant == pytest.approx(184.8e-6, rel=1e-4)
     assert pulse.peak == pytest.approx(650.0, rel=1e-4)

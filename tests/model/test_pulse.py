@@ -138,8 +138,8 @@ def test_parallel_packages_share_by_the_current_divider_at_the_spread(ridgeline)
                if c.event.name == "hard-short" and c.channel.name == "Q1"]
     assert case.equal == pytest.approx(short.current / 2, rel=1e-6)
     assert case.worst == pytest.approx(short.current * share, rel=1e-6)
-    # the hard short as it happens, 848 A at 25 °C: 424 A equal, 543 A at the spread, the
-    # issue's figures
+    # the hard short as it happens, 848 A at 25 °C: 424 A equal, 543 A at the spread, as an
+    # outside review found (docs/references.md, outside review)
     assert (round(case.equal), round(case.worst)) == (424, 543)
 
 

@@ -219,7 +219,8 @@ def test_orchard_hard_short_by_hand(orchard):
     assert hard.detection == "short-circuit"
     assert hard.conduction == {"Q1.1": "channel", "Q1.2": "body diode"}
     assert "everything at 25 °C" in hard.corner and "starved" in hard.corner
-    # The figures for Orchard: about 92 A, 139 W in the discharge channel, 89 W in the
+    # An outside review's figures for Orchard (docs/references.md, outside review): about
+    # 92 A, 139 W in the discharge channel, 89 W in the
     # charge FET's body diode (its V_F a little above the 0.95 V taken here).
     assert current == pytest.approx(92, rel=0.01)
     assert p_discharge == pytest.approx(139, rel=0.015)

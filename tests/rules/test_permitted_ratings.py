@@ -2,8 +2,9 @@
 
 The permitted event (docs/references.md "Events in time": with the switches as the sense
 resistance, I = V_detect / R_sense(T_J) with the switches at the junction temperature that current
-causes) lies below the unheated trip maximum; the Orchard probe's issue report measured about
-5.49 A against 7.78 A with its own calculator. A cell rated between the two must pass, one rated
+causes) lies below the unheated trip maximum; an outside review measured about 5.49 A
+against 7.78 A on the Orchard probe with its own calculator (docs/references.md, outside
+review). A cell rated between the two must pass, one rated
 below the permitted current must fail (the rating is a library value, so it is changed here).
 """
 
@@ -35,4 +36,4 @@ def test_a_cell_rated_below_the_permitted_current_fails(tmp_path):
     (f,) = _cell_findings(tmp_path, "5 A")
     assert "the protection permits 5.47 A for ever, above the cells' discharge rating 5 A" in f.message
     permitted = next(x.value for x in f.figures if x.name == "permitted current")
-    assert permitted == pytest.approx(5.49, rel=0.01)  # the issue's independent figure
+    assert permitted == pytest.approx(5.49, rel=0.01)  # docs/references.md, outside review
