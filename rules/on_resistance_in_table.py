@@ -53,15 +53,9 @@ def check(ctx, options):
             f"{name} ({low.role} switch) is driven at {fq(vgs, 'V')} in {words}, below the lowest "
             f"gate voltage of {ch.package}'s R_DS(on) table, {fq(row, 'V')}: its on-resistance "
             f"there rests on an extrapolation, {how}{also}",
-            path=_part_path(m, ch.package), element=ch.package, key=f"table-{ch.package}",
+            path=ctx.part_path(ch.package), element=ch.package, key=f"table-{ch.package}",
             severity="error" if off else None,
             figures=[Figure("gate drive", vgs, "V"), Figure("lowest tabulated gate drive", row, "V"),
                      Figure("extrapolated rds_on", r_at, "Ω")],
             hint=f"give R_DS(on) at {fq(vgs, 'V')} or below from the data sheet (a row of rds_on), "
                  f"or choose a logic-level FET whose table reaches {fq(vgs, 'V')}")
-
-
-def _part_path(m, refdes):
-    # A library part is named under "part"; an inline one is the component itself.
-    c = m.netlist.components[refdes]
-    return c.path + (("part",) if c.part_name else ())

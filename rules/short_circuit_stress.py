@@ -37,7 +37,7 @@ def check(ctx, options):
     seen = set()
     for ch in m.channels:
         ich = pulse.current_through(ch.name)
-        path = _part_path(m, ch.package)
+        path = ctx.part_path(ch.package)
         limit = ch.part.id_pulse_max
         i2t = pulse.i2t_through(ch.name)
         figures = [Figure("hard-short current", pulse.current, "A"),
@@ -104,9 +104,3 @@ def _spike_hint(spike, vds_max):
                 f"slow the turn-off to ≥ {fq(t_min, 's')} (gate resistor), clamp the pack terminals "
                 f"with a TVS diode, or use FETs rated for more voltage")
     return "use FETs rated well above the stack voltage, and clamp the pack terminals with a TVS diode"
-
-
-def _part_path(m, refdes):
-    # A library part is named under "part"; an inline one is the component itself.
-    c = m.netlist.components[refdes]
-    return c.path + (("part",) if c.part_name else ())

@@ -44,7 +44,7 @@ def check(ctx, options):
         ceiling = m.limits.junction_ceiling(part)
         if not h.runaway and h.tj <= ceiling:
             continue
-        path = _part_path(m, h.package)
+        path = ctx.part_path(h.package)
         what = CASES[h.case]
         if h.case == "peak":
             what = f"{what} {fq(h.current, 'A')} for {fq(h.duration, 's')}"
@@ -102,9 +102,3 @@ def _hint(h, budget, ceiling):
     cut = max(0.0, 1.0 - (ceiling - h.ambient) / (h.tj - h.ambient)) * 100
     return (f"{theta}, or FETs with R_DS(on) at least {cut:.0f} % lower, or a second pair in "
             f"parallel")
-
-
-def _part_path(m, refdes):
-    # A library part is named under "part"; an inline one is the component itself.
-    c = m.netlist.components[refdes]
-    return c.path + (("part",) if c.part_name else ())
