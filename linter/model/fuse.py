@@ -234,15 +234,24 @@ def curve_ambient_factor(ambient: float, points: list[tuple[float, float]]) -> f
     """A fuse's ambient factor at ``ambient`` °C from its maker's derating curve, given as
     (ambient, factor) points: straight lines between them, 1.0 at 25 °C unless a point gives that
     ambient, flat beyond the coldest and the hottest point."""
+    pts, factor = _table_at(points, ambient, 25.0, 1.0)
+    return pts[-1][1] if factor is None else factor
+
+
+def _table_at(points: list[tuple[float, float]], x: float, reference: float,
+              at_reference: float) -> tuple[list[tuple[float, float]], float | None]:
+    """A derating table read at ``x``: (its points sorted, with (``reference``,
+    ``at_reference``) unless a point gives that abscissa; the value by straight lines between
+    points, flat below the first, None beyond the last)."""
     table = dict(points)
-    table.setdefault(25.0, 1.0)
+    table.setdefault(reference, at_reference)
     pts = sorted(table.items())
-    if ambient <= pts[0][0]:
-        return pts[0][1]
-    for (t0, f0), (t1, f1) in zip(pts, pts[1:]):
-        if t0 < ambient <= t1:
-            return f0 + (f1 - f0) * (ambient - t0) / (t1 - t0)
-    return pts[-1][1]
+    if x <= pts[0][0]:
+        return pts, pts[0][1]
+    for (t0, v0), (t1, v1) in zip(pts, pts[1:]):
+        if t0 < x <= t1:
+            return pts, v0 + (v1 - v0) * (x - t0) / (t1 - t0)
+    return pts, None
 
 
 # --- the fuse's limit for an event ----------------------------------------------------------------
@@ -374,15 +383,9 @@ def ptc_hold_current(hold: float, ambient: float,
         factor = linear_ambient_factor(ambient, PTC_HOLD_PER_KELVIN, PTC_HOLD_REFERENCE)
         return HoldCurrent(hold * factor, "no hold_derating given: 70 % at 60 °C in a straight "
                                           "line from 25 °C [practice]")
-    table = dict(points)
-    table.setdefault(PTC_HOLD_REFERENCE, hold)
-    pts = sorted(table.items())
-    if ambient <= pts[0][0]:
-        return HoldCurrent(pts[0][1], "the part's hold_derating table")
-    for (t0, i0), (t1, i1) in zip(pts, pts[1:]):
-        if t0 < ambient <= t1:
-            return HoldCurrent(i0 + (i1 - i0) * (ambient - t0) / (t1 - t0),
-                               "the part's hold_derating table")
+    pts, current = _table_at(points, ambient, PTC_HOLD_REFERENCE, hold)
+    if current is not None:
+        return HoldCurrent(current, "the part's hold_derating table")
     if len(pts) < 2:  # a table of the rated point alone says nothing about heat
         return HoldCurrent(pts[-1][1], "the part's hold_derating table, one point")
     (t0, i0), (t1, i1) = pts[-2], pts[-1]
