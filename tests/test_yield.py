@@ -13,6 +13,7 @@ np = pytest.importorskip("numpy")
 
 from packwarden import montecarlo  # noqa: E402
 from packwarden.engine import lint  # noqa: E402
+from tests.model.linted import linted_model  # noqa: E402
 from packwarden.model.values import Span  # noqa: E402
 from packwarden.model.yield_ import DEFAULT_SEED, draw, run_yield, wilson_interval  # noqa: E402
 from packwarden.testing import lint_variant  # noqa: E402
@@ -79,11 +80,7 @@ def _design(tmp_path, *, load="14.25 A", detect="{typ: 150 mV, tol: 15 mV}", rds
 
 
 def _model(path: Path):
-    run = lint([str(path)])
-    assert not run.input_errors(), [str(e) for e in run.input_errors()]
-    (result,) = run.designs
-    assert not result.internal, result.internal
-    return result.model
+    return linted_model(path)
 
 
 def _check(result, rule, words):

@@ -11,7 +11,6 @@ Units are SI: amperes, ohms, volts, watts, joules, seconds, °C, K/W.
 
 from __future__ import annotations
 
-import math
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
@@ -87,7 +86,7 @@ class ShareCase:
     """One channel in one event: the current at the event's own division (``equal``: every part
     at the same corner) and at the worst spread (``worst``)."""
 
-    event: Any  # events.Event
+    event: "Event"
     channel: Any  # topology.SwitchChannel
     equal: float
     worst: float
@@ -133,7 +132,7 @@ class PulseHeat:
     ``vds`` (P/I: an upper bound for a pair, whose dissipation is by package).
     """
 
-    event: Any  # events.Event
+    event: "Event"
     package: str
     part: Any
     power: float

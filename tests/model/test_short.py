@@ -16,6 +16,7 @@ from pathlib import Path
 import pytest
 
 from packwarden.engine import lint
+from tests.model.linted import linted_model
 from packwarden.model.network import DEFAULT_DIODE_R_ON
 from packwarden.model.short import BODY_DIODE_V_FORWARD
 from tests.model.spice import run_op
@@ -138,11 +139,7 @@ def _bolted_short_model(tmp_path: Path):
                                                   rows=rows), encoding="utf-8")
     path = tmp_path / "d.yaml"
     path.write_text(DESIGN.format(fuse_r=FUSE_R * 1e3), encoding="utf-8")
-    run = lint([str(path)])
-    assert not run.input_errors(), [str(e) for e in run.input_errors()]
-    (result,) = run.designs
-    assert not result.internal, result.internal
-    return result.model
+    return linted_model(path)
 
 
 def test_bolted_short_of_a_cell_driven_pair_against_an_ngspice_transient(tmp_path):

@@ -1,11 +1,11 @@
 """Shelf life in storage: the charge above the cut-off against the drains the netlist implies."""
 
-import math
 from pathlib import Path
 
 import pytest
 
 from packwarden.engine import lint
+from tests.model.linted import linted_model
 from packwarden.model import ocv
 from packwarden.model.storage import DEFAULT_SELF_DISCHARGE
 from packwarden.testing import lint_variant
@@ -77,11 +77,7 @@ def model(tmp_path, *, extra="", sd="2 %/month", soc="44 %", temp="25 °C", idss
                                        encoding="utf-8")
     path = tmp_path / "d.yaml"
     path.write_text(_fill(DESIGN, extra=extra, soc=soc, temp=temp + storage), encoding="utf-8")
-    run = lint([str(path)])
-    assert not run.input_errors(), [str(e) for e in run.input_errors()]
-    (result,) = run.designs
-    assert not result.internal, result.internal
-    return result.model
+    return linted_model(path)
 
 
 # Self-discharge is a share of the charge left, r per month, beside constant drains I: dQ/dt =

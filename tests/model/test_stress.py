@@ -14,6 +14,7 @@ from pathlib import Path
 import pytest
 
 from packwarden.engine import lint
+from tests.model.linted import linted_model
 from packwarden.model import stress
 from packwarden.testing import Case, run_case
 
@@ -89,11 +90,7 @@ def _design(tmp_path: Path, **values: str) -> Path:
 
 
 def _model(tmp_path: Path, **values: str):
-    run = lint([str(_design(tmp_path, **values))])
-    assert not run.input_errors(), [str(e) for e in run.input_errors()]
-    (result,) = run.designs
-    assert not result.internal, result.internal
-    return result.model
+    return linted_model(_design(tmp_path, **values))
 
 
 def _findings(tmp_path: Path, rule: str, options: dict | None = None, **values: str):

@@ -11,7 +11,7 @@ import math
 
 import pytest
 
-from packwarden.engine import lint
+from tests.model.linted import linted_model
 from packwarden.model.limits import CELL_AGEING, FAULT_RESISTANCE
 
 LIB = """\
@@ -71,11 +71,7 @@ def model(tmp_path, drive="10 V", config=""):
     (tmp_path / "lib.yaml").write_text(LIB.replace("{drive}", drive + boosted), encoding="utf-8")
     path = tmp_path / "d.yaml"
     path.write_text(DESIGN, encoding="utf-8")
-    run = lint([str(path)], config=tmp_path / "packwarden.toml")
-    assert not run.input_errors(), [str(e) for e in run.input_errors()]
-    (result,) = run.designs
-    assert not result.internal, result.internal
-    return result.model
+    return linted_model(path, config=tmp_path / "packwarden.toml")
 
 
 def test_the_defaults_are_the_standard_and_the_practice():
