@@ -33,7 +33,7 @@ def check(ctx, options):
     m = ctx.model
     for load in m.conductor_loads:
         c = load.component
-        path = c.path + (("part",) if c.part_name else ())
+        path = ctx.part_path(c.refdes)
         sense = ""
         if load.sense_share > 1e-6:
             sense = (f"; it is {load.sense_share * 100:.1f} % of the sense resistance "

@@ -44,7 +44,7 @@ def check(ctx, options):
                    if e.element_current.get(c.refdes, 0.0) > 0]
         if not carried:
             continue
-        path = c.path + (("part",) if c.part_name else ())
+        path = ctx.part_path(c.refdes)
         if c.kind == "wire" and c.part.awg is None:
             yield from _wire_needs(ctx, c, path, carried, start, final, start_words)
             continue

@@ -41,8 +41,7 @@ def check(ctx, options):
     p = m.protector
     if p is None or m.stack is None:
         return
-    # A library part is named under "part"; an inline one is the component itself.
-    ppath = p.path + (("part",) if p.part_name else ())
+    ppath = ctx.part_path(p.refdes)
     for r in stress.release_rebounds(m, options.cold_factor, options.cold_at):
         if r.hysteresis > r.rebound:
             continue

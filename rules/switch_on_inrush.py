@@ -1,6 +1,5 @@
-import math
-
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden.model import inrush
 from packwarden.model.events import precharge_paths
 from pydantic import Field
 
@@ -73,7 +72,7 @@ def check(ctx, options):
     if pre is None:
         return
     c = m.netlist.components[pre.refdes]
-    part_path = c.path + (("part",) if c.part_name else ())
+    part_path = ctx.part_path(pre.refdes)
     ratings = (
         ("pulse_energy", pre.resistor_energy, "J", "pulse energy",
          f"absorbs ½CV² = {fq(pre.resistor_energy, 'J')} charging {fq(ev.capacitance, 'F')} to "
@@ -111,8 +110,8 @@ def _trip_hint(ev, t, at):
     pre = ev.precharge
     if pre is not None:
         # The main switches may close once the step they make stays below the trip minimum:
-        # V·exp(-d/τ) ≤ R_loop·I_th [derived from the RC step].
-        d = pre.time_constant * math.log(ev.voltage / (at.loop_resistance * at.trip_min))
+        # what is left across the loop at most R_loop·I_th.
+        d = inrush.time_to_fall(ev.voltage, pre.time_constant, at.loop_resistance * at.trip_min)
         return (f"close the main switches ≥ {fq(d, 's')} after the pre-charge switch (its "
                 f"shortest delay), or use a lower pre-charge resistance")
     oc = next((x for x in ev.trips if x.detection == "over-current"), None)

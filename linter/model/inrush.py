@@ -24,7 +24,7 @@ from typing import Iterable
 
 from ..records import record
 
-__all__ = ["RcPulse", "equivalent_bank", "voltage_left"]
+__all__ = ["RcPulse", "equivalent_bank", "voltage_left", "time_to_fall"]
 
 
 @record(frozen=True)
@@ -80,6 +80,13 @@ def voltage_left(volts: float, tau: float, t: float) -> float:
     """The voltage still across the loop ``t`` seconds into a charge with time constant ``tau``
     (the capacitance at ``volts·(1 - exp(-t/τ))``)."""
     return volts * math.exp(-t / tau) if tau > 0 else 0.0
+
+
+def time_to_fall(volts: float, tau: float, target: float) -> float:
+    """How long a capacitance charged through ``tau`` takes until ``volts`` are left as
+    ``target``: the inverse of :func:`voltage_left`, τ·ln(V/V_target) [derived]; 0 when already
+    there."""
+    return tau * math.log(volts / target) if volts > target > 0 else 0.0
 
 
 def equivalent_bank(branches: Iterable[tuple[float, float]]) -> tuple[float, float]:

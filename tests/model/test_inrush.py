@@ -178,3 +178,13 @@ def test_the_json_report_writes_the_inrush():
 def test_no_capacitance_no_event():
     (result,) = lint([str(REPO / "example_designs" / "orchard-probe.yaml")]).designs
     assert result.model.event("switch-on-inrush") is None
+
+
+def test_the_time_to_fall_inverts_the_voltage_left():
+    # [derived: V(t) = V·e^(-t/τ)] 54.6 V through τ = 184.8 µs falls to 5 V after
+    # 184.8 µs × ln(54.6 / 5) = 184.8 µs × 2.3906 = 441.8 µs.
+    from packwarden.model.inrush import time_to_fall, voltage_left
+    t = time_to_fall(54.6, 184.8e-6, 5.0)
+    assert t == pytest.approx(184.8e-6 * 2.3906, rel=1e-4)
+    assert voltage_left(54.6, 184.8e-6, t) == pytest.approx(5.0)
+    assert time_to_fall(4.0, 184.8e-6, 5.0) == 0.0
