@@ -61,11 +61,6 @@ class RcPulse:
         """Energy the loop dissipates, ½·C·V², J [derived]."""
         return 0.5 * self.farads * self.volts * self.volts
 
-    def current_at(self, t: float) -> float:
-        """The current ``t`` seconds after the switches close, A."""
-        tau = self.time_constant
-        return self.peak * math.exp(-t / tau) if tau > 0 else 0.0
-
     def time_above(self, threshold: float) -> float:
         """How long the current stays above ``threshold``: τ·ln(I_pk/I_th), 0 when the peak does
         not reach it."""

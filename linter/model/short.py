@@ -30,6 +30,7 @@ import math
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
+from . import rdson
 from .network import DEFAULT_DIODE_R_ON, NetworkError
 from .values import IDEAL, ModelProblem, corner_value
 
@@ -140,15 +141,12 @@ class HardShort:
 
 
 def threshold(ch: "SwitchChannel", corner: str) -> float:
-    """The channel's gate threshold magnitude at a corner: the lowest for ``min`` (the corner of
-    the lowest resistances, where it conducts soonest), the highest for ``max``."""
+    """The channel's gate threshold magnitude at a corner (:func:`rdson.threshold_at`): the
+    lowest for ``min`` (the corner of the lowest resistances, where it conducts soonest), the
+    highest for ``max``; 0 V where the part gives none."""
     t = ch.part.vgs_th
-    given = [abs(v) for v in (t.min, t.typ, t.max) if v is not None]
-    if corner == "min":
-        return min(given)
-    if corner == "max":
-        return max(given)
-    return abs(t.typ) if t.typ is not None else sum(given) / len(given)
+    vth = rdson.threshold_at((t.min, t.typ, t.max), corner)
+    return 0.0 if vth is None else vth
 
 
 def channel_resistance(m: "DesignModel", ch: "SwitchChannel", vgs: float, temp: float,
@@ -160,7 +158,10 @@ def channel_resistance(m: "DesignModel", ch: "SwitchChannel", vgs: float, temp: 
     its linear region grows with the overdrive, G ≈ k·(V_GS − V_th) [published: the square-law
     model's linear region, any device text], so R = R_low·(V_low − V_th)/(V_GS − V_th) through
     the lowest row; the resistance taken is never less than what ``channel_rds`` gives, so a
-    straight-line continuation of the table cannot make a starved channel look strong.
+    straight-line continuation of the table cannot make a starved channel look strong. (The form
+    is :func:`rdson.below_table`'s, taken here without its flat off-switch value just above the
+    threshold: the short's drives are solved to a fixed point, which needs the resistance to
+    rise without a step until the channel is off.)
     """
     vth = threshold(ch, corner)
     if not vgs > vth:
