@@ -67,6 +67,7 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
     *_range("sense_resistance", "Ω", "sense resistance", ("protector",)),
     *_range("short_circuit_trip", "A", "short-circuit trip", ("protector",), ("min", "max"),
             headline=True),
+    *_range("fast_trip", "A", "fast over-current trip", ("protector",), ("min", "max")),
     Declared("prospective_short_circuit", "A", "prospective short circuit", ("cell",),
              headline=True),
     *_range("gate_drive", "V", "gate drive", ("protector",), ("min", "max"), headline=True),

@@ -817,6 +817,11 @@ class Protector(Packaged):
         "protector allows it is min(gate_drive, that voltage)"))
     supply_filter: SupplyFilter | None = Field(default=None, description=(
         "the maker's recommended supply filter: {r: {min, max}, c: {min, max}}"))
+    overcurrent_fast: CurrentThreshold | None = Field(default=None, description=(
+        "a second, faster discharge over-current level where the protector has one, across the "
+        "sense and ground pins: {detect, release, delay, release_on, retry_period}; its detection "
+        "lies between overcurrent's and short_circuit's, its delay between theirs "
+        "(overcurrent-levels)"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "Protector":
@@ -840,6 +845,23 @@ class Protector(Packaged):
             raise inconsistent("short_circuit.detect", (
                 f"{_q(sc.detect.nominal, 'V')} is not above the over-current detection "
                 f"{_q(self.overcurrent.detect.nominal, 'V')}; a short circuit draws more"))
+        return self
+
+    @model_validator(mode="after")
+    def _fast_level_between(self) -> "Protector":
+        # The nominal order is the data's; the windows with tolerances and corners are
+        # overcurrent-levels' to judge.
+        fast, sc = self.overcurrent_fast, self.short_circuit
+        if fast is None:
+            return self
+        if fast.detect.nominal <= self.overcurrent.detect.nominal:
+            raise inconsistent("overcurrent_fast.detect", (
+                f"{_q(fast.detect.nominal, 'V')} is not above the over-current detection "
+                f"{_q(self.overcurrent.detect.nominal, 'V')}; the fast level trips at more"))
+        if sc is not None and fast.detect.nominal >= sc.detect.nominal:
+            raise inconsistent("overcurrent_fast.detect", (
+                f"{_q(fast.detect.nominal, 'V')} is not below the short-circuit detection "
+                f"{_q(sc.detect.nominal, 'V')}; a short circuit draws more"))
         return self
 
 

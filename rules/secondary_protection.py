@@ -102,7 +102,8 @@ def _coordination(ctx, options, m, f, path):
     """The fuse against each event the protector ends: it must not melt before the protector acts."""
     part = f.part
     points = [(pt.current, pt.time) for pt in part.pre_arcing] if part.pre_arcing else None
-    for event in (m.event("gap-overload"), m.event("hard-short")):
+    for event in (m.event("gap-overload"), m.event("fast-gap-overload"),
+                  m.event("hard-short")):
         if event is None:
             continue
         current, i2t = event.current_through(f.refdes), event.i2t_through(f.refdes)

@@ -277,6 +277,13 @@ class DesignModel:
             return None
         return self._window(p.part.short_circuit.detect)
 
+    @cached_property
+    def overcurrent_fast_trip(self) -> TripWindow | None:
+        """The second (fast) over-current level's window, where the protector has one."""
+        p = self.protector
+        if p is None or p.part.overcurrent_fast is None:
+            return None
+        return self._window(p.part.overcurrent_fast.detect)
 
     @cached_property
     def hard_short(self):
@@ -462,6 +469,9 @@ class DesignModel:
         s = self.short_circuit_trip
         if s is not None:
             out.update(short_circuit_trip_min=s.min, short_circuit_trip_max=s.max)
+        f = self.overcurrent_fast_trip
+        if f is not None:
+            out.update(fast_trip_min=f.min, fast_trip_max=f.max)
         psc = self.prospective_short_circuit
         if psc is not None:
             out["prospective_short_circuit"] = psc

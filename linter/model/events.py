@@ -21,6 +21,8 @@ The events of this layer (see docs/rules-api.md, "Events"):
 * ``turn-off-spike`` — a discharge switch interrupting the hard short through the wiring's
   inductance;
 * ``storage`` — the pack on the shelf: its drains before and after the over-discharge cut-off.
+* ``fast-gap-overload`` — with a second (fast) over-current level: the largest current only the
+  slow level clears, just below the fast level's trip maximum, for the slow level's longest delay.
 
 Units are SI: amperes, ohms, volts, watts, seconds, °C.
 """
@@ -47,12 +49,12 @@ __all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "design_events", "pulse_i2t",
            "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths",
            "WeakestShort", "weakest_short", "SECONDS_PER_MONTH", "CHARGER_SOURCE_R",
            "SWITCH_ON_R", "terminal_network", "charger_reversed_solution",
-           "DEFAULT_TURN_OFF_TIME", "TurnOffSpike", "turn_off_spike"]
+           "DEFAULT_TURN_OFF_TIME", "TurnOffSpike", "turn_off_spike", "FAST_DETECTION"]
 
 #: The events this layer computes, in the order a report lists them.
 EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short",
                "weakest-short", "switch-on-inrush", "charger-reversed", "turn-off-spike",
-               "storage")
+               "storage", "fast-gap-overload")
 #: The events that are external short circuits across the pack terminals, and the end of one (the
 #: turn-off spike): a cell meets them in its safety standard's external short-circuit test
 #: (IEC 62133-2), not as a rated pulse.
@@ -218,7 +220,7 @@ class ShortCircuitPulse:
     current: float
     channel_current: dict
     duration: float
-    detection: str  # "short-circuit" | "over-current"
+    detection: str  # "short-circuit" | "over-current" | "fast over-current"
     rds: dict  # channel name -> Ω in the short-circuit solve (0 for a starved channel)
 
     def i2t(self, channel: str) -> float:
@@ -238,7 +240,7 @@ def short_circuit_pulse(m: "DesignModel") -> ShortCircuitPulse | None:
     if caught:
         duration, detection = sc.delay.high, "short-circuit"
     else:
-        duration, detection = p.part.overcurrent.delay.high, "over-current"
+        duration, detection, _ = _gap_clearing(m, hs.current)
     return ShortCircuitPulse(hs.current, hs.channel_current, duration, detection, hs.rds)
 
 
@@ -326,8 +328,9 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
                  f"{at.sense_resistance * 1e3:.4g} mΩ (lowest ambient {at.ambient:g} °C, "
                  f"{_drive(at.vgs, at.corner)}, switches unheated), for the longest "
                  f"over-current delay")
-        out.append(_at_point(m, "gap-overload", at, p.part.overcurrent.delay.high, words,
-                             "over-current", vmax, current=sc.max))
+        delay, detection, said = _gap_clearing(m, sc.max)
+        out.append(_at_point(m, "gap-overload", at, delay, words.replace(
+            "the longest over-current delay", said), detection, vmax, current=sc.max))
     if pulse is not None:
         out.append(_hard_short(m, pulse, vmax))
     out.extend(_weakest_short(m))
@@ -337,6 +340,7 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
     out += _charger_reversed(m)
     out += _turn_off_spike(m, out)
     out.extend(_storage(m))
+    out += _fast_gap_overload(m, vmax)
     return tuple(out)
 
 
@@ -396,7 +400,7 @@ class InrushTrip:
     time above it, τ·ln(V/(R·I_th)), grows with R [derived: its derivative in R is
     C·(ln(I_pk/I_th) - 1)]."""
 
-    detection: str  # "short-circuit" | "over-current"
+    detection: str  # "short-circuit" | "over-current" | "fast over-current"
     delay_min: float  # s
     corners: tuple  # InrushCorner, one per end of the loop resistance
 
@@ -727,7 +731,7 @@ def _weakest_short(m: "DesignModel") -> list[Event]:
     if sc is not None and p.part.short_circuit is not None and ws.current > sc.max:
         detection, duration = "short-circuit", p.part.short_circuit.delay.high
     elif oc is not None and ws.current > oc.max:
-        detection, duration = "over-current", p.part.overcurrent.delay.high
+        duration, detection, _ = _gap_clearing(m, ws.current)
     else:
         detection, duration = None, None
     currents, power = _figures(m, ws.current, ws.channel_current, {}, ws.solution,
@@ -958,3 +962,37 @@ def _turn_off_spike(m: "DesignModel", done: list[Event]) -> list[Event]:
              if any(s.time_assumed for _, s in spikes) else ())
     return [Event("turn-off-spike", words, hard.ambient, worst.current, worst.turn_off_time,
                   currents, power, worst.total, hard.detection, notes)]
+
+
+# --- a second (fast) over-current level ---------------------------------------------------------
+
+#: The detection that clears a current above the fast level's trip maximum.
+FAST_DETECTION = "fast over-current"
+
+
+def _gap_clearing(m: "DesignModel", current: float) -> tuple[float, str, str]:
+    """(longest delay, detection, words) of what clears ``current`` when the short-circuit
+    detection may not: the fast over-current level where the current surely trips it (above its
+    trip maximum), else the over-current level. Without a fast level, always the latter."""
+    p, fast = m.protector, m.overcurrent_fast_trip
+    if fast is not None and current > fast.max:
+        return (p.part.overcurrent_fast.delay.high, FAST_DETECTION,
+                "the longest fast over-current delay")
+    return p.part.overcurrent.delay.high, "over-current", "the longest over-current delay"
+
+
+def _fast_gap_overload(m: "DesignModel", vmax: float | None) -> list[Event]:
+    """The ``fast-gap-overload`` event: just below the fast level's trip maximum the fast level
+    may not act, so the slow level ends it, after its longest delay (the gap overload of the
+    middle level, as ``gap-overload`` is the short-circuit level's)."""
+    p, fast = m.protector, m.overcurrent_fast_trip
+    if fast is None:
+        return []
+    at = fast.at_max
+    words = (f"just below the fast over-current trip maximum: detection max "
+             f"{fast.detect.max * 1e3:.4g} mV over the lowest sense resistance "
+             f"{at.sense_resistance * 1e3:.4g} mΩ (lowest ambient {at.ambient:g} °C, "
+             f"{_drive(at.vgs, at.corner)}, switches unheated), for the longest over-current "
+             f"delay")
+    return [_at_point(m, "fast-gap-overload", at, p.part.overcurrent.delay.high, words,
+                      "over-current", vmax, current=fast.max)]

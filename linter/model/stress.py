@@ -402,18 +402,23 @@ def retry_heat(m: "DesignModel", default_period: float = DEFAULT_RETRY_PERIOD) -
     p, gd = m.protector, m.gate_drive
     if p is None or gd is None or not m.channels:
         return []
-    oc, sc_thr = p.part.overcurrent, p.part.short_circuit
+    oc = p.part.overcurrent
     pulse = m.short_circuit_pulse
     events = []
     if pulse is not None:
-        owner = oc if pulse.detection == "over-current" else sc_thr
-        name = "overcurrent" if pulse.detection == "over-current" else "short_circuit"
+        name = {"over-current": "overcurrent",
+                "fast over-current": "overcurrent_fast"}.get(pulse.detection, "short_circuit")
+        owner = getattr(p.part, name)
         if _retries(owner):
             events.append((name, owner, "a hard short across the pack terminals", pulse.current,
                            dict(pulse.channel_current), pulse.duration))
     gap = m.event("gap-overload")
+    if gap is not None and gap.detection == "fast over-current":
+        name, oc = "overcurrent_fast", p.part.overcurrent_fast
+    else:
+        name = "overcurrent"
     if _retries(oc) and gap is not None:
-        events.append(("overcurrent", oc, "an overload just below the short-circuit trip maximum",
+        events.append((name, oc, "an overload just below the short-circuit trip maximum",
                        gap.current, {ch.name: gap.current_through(ch.name) for ch in m.channels},
                        gap.duration))
     out = []
