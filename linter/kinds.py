@@ -106,6 +106,18 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
     # A diode symbol's pins are "A" and "K" [practice].
     Kind("diode", "diode", {"anode": "anode", "cathode": "cathode"}, 2,
          symbol_pins={"a": "anode", "k": "cathode"}),
+    # Watches the cells through its cellN pins; not in the power path.
+    Kind("overvoltage_backup", "backup overvoltage protector", {
+        "ground": "ground: the negative end of the stack, the reference of cell1",
+        "output": "output that drives the fuse's heater (directly or through a switch) when a "
+                  "cell passes its detection",
+        "supply": "supply input (recorded, not modelled)",
+    }, 2),
+    # In the power path between 1 and 2 like a fuse; the heater hangs off it.
+    Kind("heater_fuse", "heater fuse", {
+        "1": "first terminal", "2": "second terminal",
+        "heater": "heater element terminal: current into it melts the fuse",
+    }, 3, _given_or_ideal),
 )}
 
 #: A multi-cell protector's numbered pins (``cellN``, ``balanceN``), described once for every N.
@@ -114,6 +126,10 @@ NUMBERED_PINS = {
         "cellN": "sense input of the top of cell N, counted from the bottom (cell1 is the bottom "
                  "cell)",
         "balanceN": "balancing (bleed) output of cell N, closing to the pin below that cell",
+    },
+    "overvoltage_backup": {
+        "cellN": "sense input of the top of cell N, counted from the bottom (cell1 is the bottom "
+                 "cell)",
     },
 }
 

@@ -33,6 +33,9 @@ def pin_names(kind: str, part: Any) -> tuple[tuple[str, ...], tuple[str, ...]]:
         # A multi-cell protector senses each cell's top: cell1 (bottom cell) ... cellN.
         required = required + tuple(f"cell{i}" for i in range(1, part.cells + 1))
         optional = optional + tuple(f"balance{i}" for i in range(1, part.cells + 1))
+    if kind == "overvoltage_backup" and getattr(part, "cells", 1) > 1:
+        # A backup protector senses each cell's top like a multi-cell protector (cells >= 2).
+        required = required + tuple(f"cell{i}" for i in range(1, part.cells + 1))
     return required, optional
 
 

@@ -822,6 +822,9 @@ class Protector(Packaged):
         "sense and ground pins: {detect, release, delay, release_on, retry_period}; its detection "
         "lies between overcurrent's and short_circuit's, its delay between theirs "
         "(overcurrent-levels)"))
+    open_tap_detection: bool | None = Field(default=None, description=(
+        "true when the protector detects an open cell-tap (sense) wire and acts on it, false when "
+        "it does not; absent: not stated (backup-overvoltage counts it as not detecting)"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "Protector":
@@ -1266,10 +1269,61 @@ class Diode(Packaged):
         "current"))
 
 
+class BackupDetection(Strict):
+    """The backup protector's per-cell overvoltage detection."""
+
+    detect: Tol("V", gt=0, le=10.0) = Field(description=(
+        "overvoltage detection per cell with its accuracy (toleranced volts); its minimum must "
+        "lie above the primary protector's overcharge detection maximum and its maximum at or "
+        "below the cell's overcharge limit (backup-overvoltage)"))
+    delay: Tol("s", ge=0, le=MAX_SECONDS) = Field(description=(
+        "detection delay (toleranced seconds): how long a cell stays above the detection before "
+        "the output acts"))
+
+
+class OvervoltageBackup(Packaged):
+    """A second-level (backup) overvoltage protector: watches every cell on its own and, when one
+    passes its detection, drives its output to blow a fuse in the power path for good."""
+
+    kind: Literal["overvoltage_backup"] = Field(description="the part kind: 'overvoltage_backup'")
+    cells: int = Field(ge=2, le=16, description=(
+        "number of cells in series it watches, 2-16; must equal the stack's series count; it has "
+        "the pins cell1..cellN"))
+    overvoltage: BackupDetection = Field(description=(
+        "per-cell overvoltage detection: {detect, delay}"))
+    open_tap_detection: bool = Field(default=False, description=(
+        "true when it detects an open cell-tap (sense) wire and drives its output for it "
+        "(backup-overvoltage)"))
+    open_tap_delay: Tol("s", ge=0, le=MAX_SECONDS) | None = Field(default=None, description=(
+        "delay of the open-tap detection (toleranced seconds), with open_tap_detection: true"))
+
+    @model_validator(mode="after")
+    def _open_tap(self) -> "OvervoltageBackup":
+        if self.open_tap_delay is not None and not self.open_tap_detection:
+            raise inconsistent("open_tap_delay", (
+                "an open-tap delay needs open_tap_detection: true"))
+        return self
+
+
+class HeaterFuse(Fuse):
+    """A fuse with a heater element (a three-terminal fuse): it opens on over-current like any
+    fuse, and when a backup protector passes current through its heater, it melts and opens the
+    power path for good."""
+
+    kind: Literal["heater_fuse"] = Field(description="the part kind: 'heater_fuse'")
+    heater_resistance: Tol("Ω", gt=0, le=MAX_OHMS) | None = Field(default=None, description=(
+        "resistance of the heater element (toleranced ohms); with heater_power, the heater must "
+        "melt the fuse at the lowest stack voltage it can be driven from (backup-overvoltage)"))
+    heater_power: Q("W", gt=0, le=10e3) | None = Field(default=None, description=(
+        "lowest heater power that melts the fuse within its rated time, in watts, the data "
+        "sheet's operating power"))
+
+
 PART_KINDS: dict[str, type[Strict]] = {
     "cell": Cell, "protector": Protector, "fet": Fet, "fet_pair_common_drain": FetPair,
     "fuse": Fuse, "ptc": Ptc, "resistor": Resistor, "capacitor": Capacitor, "trace": Trace,
     "wire": Wire, "diode": Diode, "precharge": Precharge,
+    "overvoltage_backup": OvervoltageBackup, "heater_fuse": HeaterFuse,
 }
 
 Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items())],

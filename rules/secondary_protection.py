@@ -33,7 +33,7 @@ def check(ctx, options):
     m = ctx.model
     if m.stack is None:
         return
-    fuses = m.netlist.of_kind("fuse", "ptc")
+    fuses = m.netlist.of_kind("fuse", "ptc", "heater_fuse")  # a heater fuse is a fuse too
     series = [f for f in fuses if m.in_series_with_path(f.refdes)]
     for f in fuses:
         if f not in series:
@@ -53,7 +53,7 @@ def check(ctx, options):
     ch = m.design.charger
     for f in series:
         part, path = f.part, f.path + ("part",)
-        if f.kind == "fuse":
+        if f.kind != "ptc":
             hot = m.ambient.max
             derated = m.limits.fuse_current(part, hot)
             curve = (f", and by its derating curve at the highest ambient {fq(hot, '°C')}"
@@ -77,7 +77,7 @@ def check(ctx, options):
                 path=path, element=f.refdes, key="voltage",
                 figures=[Figure("rated voltage", part.rated_voltage, "V"), Figure("highest voltage", vmax, "V")],
                 hint=f"use a part rated ≥ {fq(vmax, 'V')}")
-        if f.kind == "fuse" and psc is not None and part.breaking_capacity < psc:
+        if f.kind != "ptc" and psc is not None and part.breaking_capacity < psc:
             yield ctx.finding(
                 f"{f.refdes} breaks {fq(part.breaking_capacity, 'A')} but the prospective short-circuit "
                 f"current is {fq(psc, 'A')}",
@@ -87,7 +87,7 @@ def check(ctx, options):
                 hint=f"use a fuse with breaking capacity ≥ {fq(psc, 'A')}")
         if f.kind == "ptc":
             yield from _ptc(ctx, m, f, path)
-        if f.kind != "fuse" or p is None:
+        if f.kind == "ptc" or p is None:
             continue
         if part.melting_i2t is None:
             yield ctx.finding(

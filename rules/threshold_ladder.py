@@ -2,6 +2,8 @@ from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantit
 from pydantic import Field
 from packwarden.model import CHARGE_MARGIN
 
+from ._taps import wrong_taps
+
 
 class Options(RuleOptions):
     charge_margin: Q("V") = Field(
@@ -42,18 +44,11 @@ def check(ctx, options):
             path=ppath, element=p.refdes, key="cell-count",
             figures=[Figure("protector cells", part.cells, ""), Figure("series cells", stack.series, "")],
             hint=f"use a protector for {stack.series} series cell(s)")
-    for pin, net, reached, want in m.cell_taps:
-        if reached != want:
-            where = "no tap of the stack" if reached is None else (
-                "the stack's bottom" if reached == 0 else f"the top of cell {reached}")
-            # A pin on the wrong tap measures two cells, or none, as one: every per-cell threshold
-            # of that pin and its neighbour is then off by a whole cell voltage.
-            yield ctx.finding(
-                f"{p.refdes}.{pin} senses net {net}, {where}, but {pin} must sense the top of cell "
-                f"{want} from the bottom: the per-cell thresholds of that cell and its neighbour "
-                f"compare the wrong voltages",
-                path=("components", p.refdes, "pins", pin), element=p.refdes, key=f"tap-{pin}",
-                hint=f"connect {pin} to the net at the top of cell {want} (cell1 is the bottom cell)")
+    # A pin on the wrong tap measures two cells, or none, as one: every per-cell threshold of that
+    # pin and its neighbour is then off by a whole cell voltage.
+    yield from wrong_taps(ctx, p.refdes, m.cell_taps, ("components", p.refdes),
+                          "the per-cell thresholds of that cell and its neighbour compare the "
+                          "wrong voltages")
     if part.chemistry and limits.chemistry not in {c.value for c in part.chemistry}:
         made = ", ".join(c.value for c in part.chemistry)
         yield ctx.finding(

@@ -16,7 +16,7 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import events, short, storage, stress, support, survival
+from . import backup, events, short, storage, stress, support, survival
 from .limits import Limits
 from .network import Network
 from .path import OperatingPoint, PowerPath
@@ -450,6 +450,17 @@ class DesignModel:
     @cached_property
     def resistor_stress(self) -> tuple:
         return support.resistor_stress(self)
+
+    @cached_property
+    def backup_protection(self) -> tuple:
+        """Every second-level (backup) overvoltage protector, with its detection window, taps and
+        the heater fuses it reaches (backup.Backup)."""
+        return backup.backups(self)
+
+    @cached_property
+    def open_tap_watchers(self) -> tuple[str, ...]:
+        """The protectors that detect an open cell-tap wire (backup.open_tap_watchers)."""
+        return backup.open_tap_watchers(self)
 
     # --- reporting -----------------------------------------------------------------------------
 

@@ -245,16 +245,21 @@ class Topology:
             net = p.pins.get(pin)
             if net is None:
                 continue
-            reached = levels.get(net)
-            if reached is None:
-                for r in self.resistors_at.get(net, ()):
-                    a, b = r.pins.get("1"), r.pins.get("2")
-                    far = b if a == net else a if b == net else None
-                    if far in levels:
-                        reached = levels[far]
-                        break
-            out.append((pin, net, reached, k))
+            out.append((pin, net, self.tap_level(net), k))
         return tuple(out)
+
+    def tap_level(self, net: str) -> int | None:
+        """The stack level a sense pin on ``net`` reaches: the net's own, or that of the net one
+        series resistor away (an input filter); None when it reaches no net of the stack."""
+        levels = self.stack_levels
+        reached = levels.get(net)
+        if reached is None:
+            for r in self.resistors_at.get(net, ()):
+                a, b = r.pins.get("1"), r.pins.get("2")
+                far = b if a == net else a if b == net else None
+                if far in levels:
+                    return levels[far]
+        return reached
 
 
     @cached_property

@@ -119,3 +119,17 @@ def test_fast_window_over_the_fet_pair_against_ngspice(tmp_path, end):
     # and it sits between the slow level's and the short-circuit level's at the same corner
     slow, sc = m.overcurrent_trip, m.short_circuit_trip
     assert getattr(slow, end) < getattr(fast, end) < getattr(sc, end)
+
+
+def test_a_fast_level_below_the_slow_one_is_one_located_line(tmp_path):
+    # Bad input: a "fast" level that trips below the slow one is refused where it is written,
+    # with exit code 2 and no traceback (the rest of the run goes on).
+    run = lint_variant(tmp_path, REPO / "example_designs" / RIDGE[0],
+                       REPO / "example_designs/parts" / RIDGE[1],
+                       lib_replace=[(RIDGE_SLOW, _with_fast(RIDGE_SLOW, "{typ: 40 mV, tol: 4 mV}",
+                                                            "{min: 8 ms, max: 12 ms}"))])
+    (text,) = [str(e) for e in run.input_errors()]
+    assert "overcurrent_fast.detect" in text and "is not above the over-current detection" in text
+    path, line = text.split(":")[0], int(text.split(":")[1])
+    assert "detect: {typ: 40 mV" in Path(path).read_text(encoding="utf-8").splitlines()[line - 1]
+    assert "Traceback" not in text
