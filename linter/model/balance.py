@@ -174,7 +174,9 @@ def bleed_currents(m: "DesignModel", volts: float) -> dict[int, tuple[float, tup
         for net_name in {r.pins.get("1"), r.pins.get("2")} - {None}:
             on_net.setdefault(net_name, []).append(r.refdes)
     out = {}
-    for k, (name, a, _b) in enumerate(switches, start=1):
+    for name, a, _b in switches:
+        # "(U1.balanceK)": switch K bleeds cell K, and a pin left unconnected leaves a gap
+        k = int(name[name.rindex("balance") + len("balance"):-1])
         out[k] = (abs(sol.current(name)), tuple(on_net.get(a, ())))
     return out
 

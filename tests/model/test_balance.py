@@ -129,3 +129,14 @@ def test_tap_loads_of_the_flawed_example():
     # so neither is a tap load [practice: a load unbalances only the levels it spans].
     m = linted_model(REPO / "example_designs" / "flawed" / "ridgeline-tap-load.yaml")
     assert m.cell_balance.tap_loads == ((("D5", "R41"), 0, 1),)
+
+
+def test_an_unconnected_balance_pin_leaves_its_own_cell_unbled(tmp_path):
+    # With balance2 not connected, cell 2 has no bleed and cells 1, 3 and 4 keep theirs: each
+    # switch bleeds the cell below its own pin [practice: a bleed switch sits across its cell's
+    # pair of inputs], here 4.179 V / 101 Ω = 41.4 mA (docs/references.md "Balancing").
+    result = _model(tmp_path, replace=[("      balance2: BAL2\n", "")])
+    bleeds = [lv.bleed for lv in result.model.cell_balance.levels]
+    assert bleeds[1] == 0.0
+    for k in (0, 2, 3):
+        assert bleeds[k] == pytest.approx(16.8 * 0.995 / 4 / 101, rel=1e-3)
