@@ -82,7 +82,8 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
     # cells' voltages while the charger holds the stack at its highest with that imbalance
     Declared("balance_drift_per_cycle", "Ah", "cell drift per charge cycle", ("cell",)),
     Declared("balance_removal_per_cycle", "Ah", "balancer bleed per charge cycle", ("resistor",)),
-    Declared("balance_imbalance", "Ah", "cell imbalance at the start of balancing", ("cell",)),
+    Declared("balance_imbalance", "Ah", "cell imbalance before balancing (after the service life "
+             "where it grows)", ("cell",)),
     *_range("balance_cell_voltage", "V", "cell voltage on the charger with the imbalance",
             ("cell",), ("min", "max")),
 ]}
