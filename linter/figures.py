@@ -78,6 +78,15 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
     Declared("storage_months_to_cutoff", "months", "storage to cut-off", ("cell",)),
     Declared("storage_months_cutoff_to_lower_limit", "months",
              "storage from cut-off to the cells' lower limit", ("cell",)),
+    # a series stack over one charge cycle: what its least-held level drifts by, what the
+    # balancer bleeds from it, the imbalance that leaves at the start of the balancing, and the
+    # cells' voltages while the charger holds the stack at its highest with that imbalance
+    Declared("balance_drift_per_cycle", "Ah", "cell drift per charge cycle", ("cell",)),
+    Declared("balance_removal_per_cycle", "Ah", "balancer bleed per charge cycle", ("resistor",)),
+    Declared("balance_imbalance", "Ah", "cell imbalance before balancing (after the service life "
+             "where it grows)", ("cell",)),
+    *_range("balance_cell_voltage", "V", "cell voltage on the charger with the imbalance",
+            ("cell",), ("min", "max")),
 ]}
 
 

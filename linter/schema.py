@@ -825,6 +825,15 @@ class Protector(Packaged):
     open_tap_detection: bool | None = Field(default=None, description=(
         "true when the protector detects an open cell-tap (sense) wire and acts on it, false when "
         "it does not; absent: not stated (backup-overvoltage counts it as not detecting)"))
+    cell_input_current: Tol("A", ge=0, le=1.0) | None = Field(default=None, description=(
+        "current each cell input (cell1..cellN) draws from its tap and returns through the ground "
+        "pin, as the data sheet gives it (toleranced amperes, e.g. {typ: 0.5 uA, max: 1 uA}); "
+        "the input of cell K drains cells 1..K, so the bottom cells lose more (cell-balance); "
+        "when absent, none"))
+    balance_switch_resistance: Tol("Ω", ge=0, le=1e6) | None = Field(default=None, description=(
+        "on-resistance of the internal bleed switch between balanceK and the pin below cell K "
+        "(toleranced ohms, e.g. {typ: 10 Ω, max: 25 Ω}); in series with the bleed resistor it sets "
+        "the bleed current (cell-balance); when absent, 0 Ω (the bleed resistor alone)"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "Protector":

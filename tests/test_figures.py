@@ -55,8 +55,9 @@ def test_every_figure_the_model_reports_is_declared_in_order(runs: dict) -> None
 
 
 def test_declarations_are_consistent() -> None:
-    # SI symbols [published: SI Brochure, 9th ed.]; a count has none; shelf life is in months
-    assert {d.unit for d in DECLARED.values()} == {"", "A", "V", "Ω", "°C", "months"}
+    # SI symbols [published: SI Brochure, 9th ed.]; a count has none; shelf life is in months and
+    # a cell's charge in ampere-hours, the units its data sheet gives [practice]
+    assert {d.unit for d in DECLARED.values()} == {"", "A", "V", "Ω", "°C", "months", "Ah"}
     for d in DECLARED.values():
         assert set(d.element) <= set(PART_KINDS), d.name
         assert d.end in ("",) + ENDS
@@ -65,7 +66,7 @@ def test_declarations_are_consistent() -> None:
         if d.end:
             ranges.setdefault(d.range, []).append(d)
     assert set(ranges) == {"trip_current", "sense_resistance", "short_circuit_trip", "gate_drive",
-                           "fast_trip"}
+                           "fast_trip", "balance_cell_voltage"}
     for stem, members in ranges.items():
         # one unit, one label, one anchor per range, its ends in min/typ/max order
         assert len({(m.unit, m.label, m.element, m.headline) for m in members}) == 1, stem

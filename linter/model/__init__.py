@@ -12,7 +12,8 @@ Layers, each importing only those above it in this list:
   overload, the hard short, the weakest short, the switch-on inrush, the reversed charger, the
   turn-off spike, storage), each at its stated corner with its figures; ``short`` solves the hard
   short with the gate drive it leaves each switch;
-* ``stress``, ``support``, ``storage`` — the worst cases built on the path and the events;
+* ``stress``, ``support``, ``storage``, ``balance`` — the worst cases built on the path and the
+  events (``balance``: a series stack's drift per charge cycle against its balancer);
 * ``design`` — ``DesignModel``, the facade rules read (``ctx.model``);
 * ``vector``, ``yield_`` — the yield run: the same functions in vector form (imports numpy).
 

@@ -17,6 +17,7 @@ from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
 from . import backup, events, short, storage, stress, support, survival
+from .balance import cell_balance
 from .limits import Limits
 from .network import Network
 from .path import OperatingPoint, PowerPath
@@ -431,6 +432,12 @@ class DesignModel:
         return storage.storage_budget(self)
 
     @cached_property
+    def cell_balance(self):
+        """The series stack's drift per charge cycle against its balancer (balance.CellBalance),
+        or None for a single level."""
+        return cell_balance(self)
+
+    @cached_property
     def supply_filter(self):
         return support.supply_filter(self)
 
@@ -498,5 +505,18 @@ class DesignModel:
             out["storage_months_to_cutoff"] = sb.to_cutoff.months
             if sb.to_lower_limit is not None:
                 out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
+        out.update(self._balance_figures())
         return typed(out.items())
+
+    def _balance_figures(self) -> dict[str, float]:
+        cb = self.cell_balance
+        if cb is None:
+            return {}
+        out = {"balance_drift_per_cycle": cb.worst.need,
+               "balance_removal_per_cycle": cb.worst.removal,
+               "balance_imbalance": cb.imbalance}
+        if cb.high_cell_voltage is not None:
+            out.update(balance_cell_voltage_min=cb.low_cell_voltage,
+                       balance_cell_voltage_max=cb.high_cell_voltage)
+        return out
 

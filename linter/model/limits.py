@@ -16,7 +16,8 @@ from . import copper
 from .fuse import CONTINUOUS_DERATING, curve_ambient_factor, max_continuous_current
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
-           "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL"]
+           "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL", "BALANCE_CYCLE", "BALANCE_TIME",
+           "SELF_DISCHARGE_SPREAD", "SERVICE_CYCLES"]
 
 #: Highest junction temperature allowed in service, below the part's own tj_max [practice:
 #: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
@@ -43,6 +44,21 @@ FAULT_RESISTANCE = 0.080
 #: glass transition of common FR-4 laminates, 130-180 °C [memory]; above it insulation softens
 #: and a trace may lift]. Not the melting point: a conductor that nearly melts has failed.
 CONDUCTOR_FINAL = 160.0
+#: Time from one charge to the next, over which the cells' unequal drains act, seconds [practice:
+#: a tool or e-bike pack in daily use is charged about once a day; a pack charged less often
+#: drifts further between charges, docs/references.md "Balancing"].
+BALANCE_CYCLE = 86400.0
+#: Time per charge the balancer bleeds, seconds [practice: a passive balancer bleeds near full,
+#: in the charger's constant-voltage phase, which lasts about an hour of a standard CC/CV charge;
+#: docs/references.md "Balancing"].
+BALANCE_TIME = 3600.0
+#: How much two cells' self-discharge may differ, as a share of the cell's own rate, 0..1
+#: [memory: cells of one production lot commonly differ in self-discharge by up to about a factor
+#: of two; docs/references.md "Balancing"].
+SELF_DISCHARGE_SPREAD = 0.5
+#: Charge cycles a pack is expected to serve [practice: 300-500 full cycles to 80 % of the rated
+#: capacity is the usual cycle-life rating of lithium-ion cells, docs/references.md "Balancing"].
+SERVICE_CYCLES = 500
 
 
 @record(frozen=True)
@@ -53,7 +69,9 @@ class Limits:
     ``derating``; ``trace_rise``: conductor-capacity's ``delta_t``; ``charge_margin``:
     threshold-ladder's ``charge_margin``; ``cell_ageing`` and ``fault_resistance``:
     short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner);
-    ``conductor_final``: conductor-withstand's ``final_temperature``.
+    ``conductor_final``: conductor-withstand's ``final_temperature``; ``balance_cycle``,
+    ``balance_time``, ``self_discharge_spread`` and ``service_cycles``: cell-balance's
+    ``cycle_time``, ``balancing_time``, ``self_discharge_spread`` and ``service_cycles``.
     """
 
     junction: float = JUNCTION_LIMIT
@@ -63,6 +81,10 @@ class Limits:
     cell_ageing: float = CELL_AGEING
     fault_resistance: float = FAULT_RESISTANCE
     conductor_final: float = CONDUCTOR_FINAL
+    balance_cycle: float = BALANCE_CYCLE
+    balance_time: float = BALANCE_TIME
+    self_discharge_spread: float = SELF_DISCHARGE_SPREAD
+    service_cycles: int = SERVICE_CYCLES
 
     @classmethod
     def of(cls, options: Mapping[str, Any]) -> "Limits":
@@ -80,7 +102,8 @@ class Limits:
                    getattr(reach, "ageing", CELL_AGEING),
                    getattr(reach, "fault_resistance", FAULT_RESISTANCE),
                    getattr(options.get("conductor-withstand"), "final_temperature",
-                           CONDUCTOR_FINAL))
+                           CONDUCTOR_FINAL),
+                   **_balance_limits(options.get("cell-balance")))
 
     def junction_ceiling(self, fet: Any) -> float:
         """The highest junction temperature a FET part may reach: the limit or its tj_max."""
@@ -112,3 +135,13 @@ class Limits:
         (IEC 60949's adiabatic form)."""
         return copper.adiabatic_current(area, duration, self.conductor_start(ambient),
                                         self.conductor_final)
+
+
+def _balance_limits(balance: Any) -> dict[str, Any]:
+    """cell-balance's options as the limits' keywords (its defaults when it is not loaded)."""
+    return {"balance_cycle": getattr(balance, "cycle_time", BALANCE_CYCLE),
+            "balance_time": getattr(balance, "balancing_time", BALANCE_TIME),
+            "self_discharge_spread": getattr(balance, "self_discharge_spread",
+                                             SELF_DISCHARGE_SPREAD * 100.0) / 100.0,
+            "service_cycles": getattr(balance, "service_cycles", SERVICE_CYCLES)}
+

@@ -32,7 +32,7 @@ if TYPE_CHECKING:  # pragma: no cover
 
 __all__ = ["DEFAULT_SUPPLY_R", "DEFAULT_SUPPLY_C", "DEFAULT_SENSE_R", "SupplyFilter",
            "SenseResistor", "Stress", "supply_filter", "sense_resistor", "capacitor_stress",
-           "resistor_stress", "scenarios"]
+           "resistor_stress", "scenarios", "balance_switches"]
 
 #: Supply filter ranges when the protector's data gives none [practice: docs/references.md
 #: "Single-cell protector": R 300 Ω-1 kΩ (470 Ω typical), C 0.022-1 µF (0.1 µF typical)].
@@ -258,3 +258,9 @@ def resistor_stress(m: "DesignModel") -> tuple[Stress, ...]:
         if worst is not None and worst[0] > _NOISE:
             out.append(Stress(c, worst[0], worst[1], c.part.power))
     return tuple(out)
+
+
+def balance_switches(m: "DesignModel") -> list[tuple[str, str, str]]:
+    """The protector's bleed switches as (branch name, balanceK net, net below cell K), K rising
+    from the bottom cell (the cell-balance model reads them)."""
+    return _balance_switches(m)
