@@ -19,7 +19,7 @@ MODEL_LAYERS = [
     {"path"},
     {"limits"},
     {"events", "short"},
-    {"stress", "support", "storage", "survival", "coordination"},
+    {"stress", "support", "storage", "survival", "coordination", "chargefault"},
     {"design"},
     {"vector", "yield_"},
 ]
