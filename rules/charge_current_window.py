@@ -16,8 +16,9 @@ def check(ctx, options):
     charges. A regenerative peak above the trip minimum that lasts longer than the shortest delay
     may open the charge switch while the product brakes: the braking current then has nowhere to
     go and the load's bus voltage soars (an error above the trip maximum, where it always trips; a
-    warning between the two). Without a charge over-current detection, a regenerative peak above
-    the cells' maximum charge current reaches them unchecked."""
+    warning between the two). A regenerative peak above the cells' maximum charge current that no
+    detection stops (none, or one whose trip minimum it stays below) reaches them unchecked: a
+    warning."""
     m = ctx.model
     p, stack = m.protector, m.stack
     if p is None or stack is None:
@@ -25,20 +26,26 @@ def check(ctx, options):
     charger, regen = m.design.charger, m.design.load.regen
     coc = p.part.charge_overcurrent
     t = m.charge_overcurrent_trip
-    if coc is None or t is None:
-        limit = stack.charge_rating
-        if regen is not None and regen.current > limit:
-            yield ctx.finding(
-                f"the regenerative peak {fq(regen.current, 'A')} for {fq(regen.duration, 's')} "
-                f"is above the cells' maximum charge current {fq(limit, 'A')} "
-                f"({stack.parallel}P × {fq(stack.part.max_current.charge, 'A')}), and "
-                f"{p.refdes} has no charge over-current detection to stop it",
-                path=("load", "regen", "current"), element=p.refdes, key="regen-unchecked",
-                severity="warning",
-                figures=[Figure("regen current", regen.current, "A"),
-                         Figure("cell charge limit", limit, "A")],
-                hint=f"limit the controller's regenerative current to ≤ {fq(limit, 'A')}, or use "
-                     f"a protector with a charge over-current detection below the cells' rating")
+    if coc is not None and t is None:
+        return  # no gate drive or no switches: nothing to put a trip window on
+    limit = stack.charge_rating
+    # A peak no detection stops: there is none, or the peak stays below its trip minimum (one
+    # inside the window is judged below).
+    unstopped = regen is not None and (t is None or regen.current < t.min)
+    if unstopped and regen.current > limit:
+        why = (f"{p.refdes} has no charge over-current detection to stop it" if t is None else
+               f"it stays below {p.refdes}'s charge over-current trip minimum {fq(t.min, 'A')}")
+        yield ctx.finding(
+            f"the regenerative peak {fq(regen.current, 'A')} for {fq(regen.duration, 's')} "
+            f"is above the cells' maximum charge current {fq(limit, 'A')} "
+            f"({stack.parallel}P × {fq(stack.part.max_current.charge, 'A')}), and {why}",
+            path=("load", "regen", "current"), element=p.refdes, key="regen-unchecked",
+            severity="warning",
+            figures=[Figure("regen current", regen.current, "A"),
+                     Figure("cell charge limit", limit, "A")],
+            hint=f"limit the controller's regenerative current to ≤ {fq(limit, 'A')}, or use "
+                 f"a protector with a charge over-current detection below the cells' rating")
+    if t is None:
         return
     window = [Figure("charge trip min", t.min, "A"), Figure("charge trip typ", t.typ, "A"),
               Figure("charge trip max", t.max, "A")]

@@ -69,10 +69,15 @@ def ocv_rise(table: OcvTable, start: float, charge_ah: float,
 def cell_table(cell: Any) -> tuple[OcvTable, str | None]:
     """The OCV table of a cell part (its own, else its chemistry's), and a note when it is the
     chemistry's."""
+    why = "no cell ocv table"
     if cell.ocv:
-        return ocv_table([(pt.soc / 100.0, pt.voltage) for pt in cell.ocv]), None
+        try:
+            return ocv_table([(pt.soc / 100.0, pt.voltage) for pt in cell.ocv]), None
+        except ValueError as exc:
+            # storage-drain reports the table's mistake where it is; here the chemistry's serves
+            why = f"the cell's ocv table cannot be used ({str(exc).replace('cell: ', '')})"
     table = ocv_table(cell.chemistry.value)
-    return table, f"no cell ocv table: the {table.name} table is used ({table.source})"
+    return table, f"{why}: the {table.name} table is used ({table.source})"
 
 
 @record(frozen=True)

@@ -34,3 +34,17 @@ def test_the_command_says_it_in_one_line_and_exits_2(tmp_path):
     assert proc.returncode == 2
     assert "Traceback" not in proc.stdout + proc.stderr
     assert "allowed: false needs inhibit_below" in proc.stdout + proc.stderr
+
+
+def test_a_cell_table_that_cannot_be_read_falls_back_on_the_chemistry(tmp_path):
+    # A flat stretch cannot be inverted to a state of charge: the charger fault is still worked
+    # out, on the NMC table, and says so; no internal error.
+    from tests.model.linted import linted_model
+    flat = ("30 mΩ}\n    ocv: [{soc: 0 %, voltage: 3.0 V}, {soc: 50 %, voltage: 3.0 V}, "
+            "{soc: 100 %, voltage: 4.2 V}]\n    charge_temperature: {min: 0 °C, max: 45 °C")
+    extra = "charger: {voltage: {typ: 4.1 V}, current: 1 A, open_circuit_max: 6 V}\n"
+    m = linted_model(_design(tmp_path, cell_r=flat, extra=extra))
+    f = m.charger_fault
+    assert f is not None
+    assert any("the cell's ocv table cannot be used" in n and "the nmc table is used" in n
+               for n in f.assumptions)
