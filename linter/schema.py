@@ -440,6 +440,19 @@ class Peak(Strict):
         "over-current and over-discharge delays"))
 
 
+class Regen(Strict):
+    """Current the load drives back into the pack (a motor braking), at the terminals."""
+
+    current: PositiveAmps = Field(description=(
+        "peak regenerative current into the pack terminals, in amperes, e.g. '12 A'; it flows "
+        "the charge way through the switches, so the charge over-current detection must clear "
+        "it or the charge switch opens while braking, and without that detection the cells "
+        "must take it (charge-current-window)"))
+    duration: PositiveSeconds = Field(description=(
+        "how long the regenerative peak lasts, in seconds, e.g. '3 s'; compared with the charge "
+        "over-current delay (charge-current-window)"))
+
+
 class Load(Strict):
     """What the product draws from the pack."""
 
@@ -456,6 +469,9 @@ class Load(Strict):
     input_esr: Q("Ω", ge=0, le=1e3) | None = Field(default=None, description=(
         "equivalent series resistance of that capacitance, in ohms, e.g. '15 mΩ'; part of the "
         "inrush loop's resistance (taken as zero when absent, the highest peak)"))
+    regen: Regen | None = Field(default=None, description=(
+        "regenerative current the load drives back into the pack, {current, duration}; without "
+        "it the load is taken never to charge the pack"))
 
     @model_validator(mode="after")
     def _peak_above(self) -> "Load":
@@ -498,6 +514,13 @@ class Charger(Strict):
         "temperatures outside which the charger stops charging (its NTC input or own sensing), "
         "{min, max} in °C; must lie inside the cell's charge_temperature (charge-conditions); "
         "without it, an ambient range beyond the cell's window is a warning"))
+    fault_voltage: PositiveVolts | None = Field(default=None, description=(
+        "highest voltage the charger puts out after a single fault of its regulation (its "
+        "current limit still acting), at the pack terminals, in volts; the cells are pushed "
+        "towards it at the charger's current until the overcharge detection's delay ends "
+        "(charger-fault-overshoot); between the highest regulated voltage and "
+        "open_circuit_max; when absent, 1.4 × the cell's upper limit per cell, IEC 62133-2's "
+        "overcharge test supply [memory], at most open_circuit_max"))
 
     @model_validator(mode="after")
     def _open_circuit_above(self) -> "Charger":
@@ -507,6 +530,16 @@ class Charger(Strict):
                 f"{_q(self.open_circuit_max, 'V')} is below the highest regulated charge "
                 f"voltage {_q(self.voltage.high, 'V')}; with no cell connected a charger's "
                 f"output is at least its regulation voltage"))
+        return self
+
+    @model_validator(mode="after")
+    def _fault_between(self) -> "Charger":
+        v = self.fault_voltage
+        if v is not None and not self.voltage.high <= v <= self.open_circuit_max:
+            raise inconsistent("fault_voltage", (
+                f"{_q(v, 'V')} is outside {_q(self.voltage.high, 'V')} (the highest regulated "
+                f"voltage) to {_q(self.open_circuit_max, 'V')} (open_circuit_max, the worst case "
+                f"over the charger's faults)"))
         return self
 
 
@@ -649,6 +682,21 @@ class PulseRating(Strict):
         "longest duration of that pulse, in seconds, e.g. '10 s'"))
 
 
+class Recovery(Strict):
+    """What the cell maker allows for a cell found below its lower limit."""
+
+    allowed: bool = Field(default=True, description=(
+        "false when the cell maker forbids charging a cell that fell below its lower limit "
+        "(it must be scrapped); a protector that charges it is then an error "
+        "(deep-discharge-recovery)"))
+    precharge_current: PositiveAmps | None = Field(default=None, description=(
+        "highest charge current per cell the maker allows while the cell is below recovery_voltage, "
+        "in amperes, e.g. '0.1 A'; when absent, 0.1 C of the rated capacity [practice]"))
+    recovery_voltage: CellVolts | None = Field(default=None, description=(
+        "cell voltage up to which only the pre-charge current is allowed, per cell, in volts; "
+        "recorded and quoted in findings; when absent, the cell's cutoff"))
+
+
 class Cell(Packaged):
     """A lithium-ion cell; cells in series and parallel form the stack from their pins."""
 
@@ -680,6 +728,10 @@ class Cell(Packaged):
         "pulse discharge ratings per cell, a list of {current, duration}: the cell delivers "
         "that current for up to that long; every event above the continuous rating must fit "
         "under one (cell-pulse-rating); when absent, an info finding says what is needed"))
+    recovery: Recovery | None = Field(default=None, description=(
+        "what the maker allows for a cell below its lower limit, {allowed, precharge_current, "
+        "recovery_voltage}; when absent, recovery allowed at 0.1 C [practice] "
+        "(deep-discharge-recovery)"))
 
 
 class ReleaseOn(str, Enum):
@@ -782,6 +834,47 @@ class SupplyCurrent(Strict):
         "current"))
 
 
+class LowVoltagePath(str, Enum):
+    charge_switch = "charge_switch"
+    body_diode = "body_diode"
+    current_limit = "current_limit"
+
+
+class LowVoltageCharge(Strict):
+    """Whether the protector lets a cell that sits below its lower limit (down to 0 V) be
+    charged, and how."""
+
+    allowed: bool = Field(description=(
+        "true when the part charges a cell at any voltage (a '0 V charge allowed' option), false "
+        "when it inhibits charging below inhibit_below"))
+    inhibit_below: CellVolts | None = Field(default=None, description=(
+        "with allowed: false, the cell voltage below which the part keeps the charge switch off, "
+        "per cell, in volts (toleranced parts: its highest); a cell between it and its lower "
+        "limit is still charged (deep-discharge-recovery)"))
+    path: LowVoltagePath = Field(default=LowVoltagePath.charge_switch, description=(
+        "how such a cell is charged: 'charge_switch' (switched on as usual), 'body_diode' "
+        "(through the charge switch's body diode with the switch off) or 'current_limit' (a "
+        "limited pre-charge current, given as current); the first two pass the charger's full "
+        "current"))
+    current: PositiveAmps | None = Field(default=None, description=(
+        "with path: current_limit, the highest current the part lets flow into the pack while a "
+        "cell is low, in amperes"))
+
+    @model_validator(mode="after")
+    def _complete(self) -> "LowVoltageCharge":
+        if self.allowed and self.inhibit_below is not None:
+            raise inconsistent("inhibit_below", "an inhibit voltage with allowed: true; give "
+                                                "allowed: false for a part that inhibits")
+        if not self.allowed and self.inhibit_below is None:
+            raise inconsistent("allowed", "allowed: false needs inhibit_below, the cell voltage "
+                                          "below which charging is inhibited")
+        if (self.path == LowVoltagePath.current_limit) != (self.current is not None):
+            raise inconsistent("current" if self.current is not None else "path", (
+                "a limited current goes with path: current_limit, and path: current_limit "
+                "needs its current"))
+        return self
+
+
 class Protector(Packaged):
     """A battery protector: watches the cells and drives the charge and discharge switches."""
 
@@ -834,6 +927,15 @@ class Protector(Packaged):
         "on-resistance of the internal bleed switch between balanceK and the pin below cell K "
         "(toleranced ohms, e.g. {typ: 10 Ω, max: 25 Ω}); in series with the bleed resistor it sets "
         "the bleed current (cell-balance); when absent, 0 Ω (the bleed resistor alone)"))
+    charge_overcurrent: CurrentThreshold | None = Field(default=None, description=(
+        "charge over-current detection, the voltage across the sense and ground pins with charge "
+        "current flowing (a magnitude): {detect, release, delay, release_on, retry_period}; its "
+        "trip window must clear the charger current and say whether a regenerative peak trips "
+        "it (charge-current-window)"))
+    low_voltage_charge: LowVoltageCharge | None = Field(default=None, description=(
+        "whether a cell below its lower limit is charged, {allowed, inhibit_below, path, "
+        "current}; judged against the cell's recovery (deep-discharge-recovery); when absent, "
+        "not checked"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "Protector":

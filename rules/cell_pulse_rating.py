@@ -1,5 +1,5 @@
 from packwarden import Example, Figure, Severity, format_quantity as fq, rule
-from packwarden.model.events import SHORT_EVENTS
+from packwarden.model.events import CHARGE_EVENTS, SHORT_EVENTS
 
 
 @rule(id="cell-pulse-rating",
@@ -29,7 +29,7 @@ def check(ctx, options):
     rating = cell.max_current.discharge
     points = [(pt.current, pt.duration) for pt in cell.pulse_discharge or ()]
     for e in m.events:
-        if e.duration is None or e.name in SHORT_EVENTS:
+        if e.duration is None or e.name in SHORT_EVENTS or e.name in CHARGE_EVENTS:
             continue
         i = e.element_current.get(first.refdes, e.current / stack.parallel)
         if i <= rating:

@@ -19,7 +19,7 @@ MODEL_LAYERS = [
     {"path"},
     {"limits"},
     {"events", "short"},
-    {"stress", "support", "storage", "survival", "coordination", "backup", "balance"},
+    {"stress", "support", "storage", "survival", "coordination", "backup", "balance", "chargefault"},
     {"design"},
     {"vector", "yield_"},
 ]

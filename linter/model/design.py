@@ -16,7 +16,7 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import backup, events, short, storage, stress, support, survival
+from . import backup, chargefault, events, short, storage, stress, support, survival
 from .balance import cell_balance
 from .limits import Limits
 from .network import Network
@@ -247,8 +247,9 @@ class DesignModel:
 
     # --- trip windows --------------------------------------------------------------------------
 
-    def _window(self, detect: Toleranced) -> TripWindow | None:
-        gd, cont = self.gate_drive, self.design.load.continuous
+    def _window(self, detect: Toleranced, heating: float | None = None) -> TripWindow | None:
+        gd = self.gate_drive
+        cont = self.design.load.continuous if heating is None else heating
         if gd is None or not self.channels:
             return None
         a, d = self.ambient, Span.of(detect)
@@ -285,6 +286,32 @@ class DesignModel:
         if p is None or p.part.overcurrent_fast is None:
             return None
         return self._window(p.part.overcurrent_fast.detect)
+
+    @cached_property
+    def charge_overcurrent_trip(self) -> TripWindow | None:
+        """The charge over-current detection's trip window, or None without one: the same
+        corners as the discharge window, its minimum with the switches heated by the charger's
+        current (the continuous load when there is no charger). The path's resistance is the
+        same either way; the drive is the discharge direction's, where a low-side charge switch's
+        source is lifted above the protector's ground, while charge current pulls it below: the
+        charge switch then sees at least that drive, so the minimum is on the safe side."""
+        p, ch = self.protector, self.design.charger
+        if p is None or p.part.charge_overcurrent is None:
+            return None
+        return self._window(p.part.charge_overcurrent.detect,
+                            ch.current if ch is not None else None)
+
+    @cached_property
+    def charger_fault(self):
+        """A cell through a charger that fails high (chargefault.ChargerFault), or None."""
+        return chargefault.charger_fault(self)
+
+    @cached_property
+    def low_voltage_charging(self):
+        """How a cell below its lower limit is charged (chargefault.LowVoltageCharging), or
+        None when the protector does not say."""
+        return chargefault.low_voltage_charging(self)
+
 
     @cached_property
     def hard_short(self):

@@ -20,9 +20,13 @@ The events of this layer (see docs/rules-api.md, "Events"):
 * ``charger-reversed`` — a charger connected the wrong way round, the discharge switches off;
 * ``turn-off-spike`` — a discharge switch interrupting the hard short through the wiring's
   inductance;
-* ``storage`` — the pack on the shelf: its drains before and after the over-discharge cut-off.
+* ``storage`` — the pack on the shelf: its drains before and after the over-discharge cut-off;
 * ``fast-gap-overload`` — with a second (fast) over-current level: the largest current only the
-  slow level clears, just below the fast level's trip maximum, for the slow level's longest delay.
+  slow level clears, just below the fast level's trip maximum, for the slow level's longest delay;
+* ``charge`` — the charger's current into the pack, for ever;
+* ``regen`` — the load's regenerative peak into the pack for its duration;
+* ``charger-fault`` — a charger that fails high, its current limit flowing until the overcharge
+  detection's longest delay ends it.
 
 Units are SI: amperes, ohms, volts, watts, seconds, °C.
 """
@@ -44,7 +48,7 @@ if TYPE_CHECKING:  # pragma: no cover
     from .path import OperatingPoint
     from .topology import SwitchChannel
 
-__all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "design_events", "pulse_i2t", "PermittedPoint",
+__all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "CHARGE_EVENTS", "design_events", "pulse_i2t", "PermittedPoint",
            "permitted_point", "ShortCircuitPulse", "short_circuit_pulse", "InrushEvent",
            "InrushTrip", "InrushCorner", "PrechargeFigures", "inrush_bank", "precharge_paths",
            "WeakestShort", "weakest_short", "SECONDS_PER_MONTH", "CHARGER_SOURCE_R",
@@ -54,7 +58,11 @@ __all__ = ["Event", "EVENT_NAMES", "SHORT_EVENTS", "design_events", "pulse_i2t",
 #: The events this layer computes, in the order a report lists them.
 EVENT_NAMES = ("continuous-load", "peak-load", "permitted", "gap-overload", "hard-short",
                "weakest-short", "switch-on-inrush", "charger-reversed", "turn-off-spike",
-               "storage", "fast-gap-overload")
+               "storage", "fast-gap-overload",
+               "charge", "regen", "charger-fault")
+#: The events whose current flows into the cells (charge direction): a cell meets them against
+#: its charge rating, not its discharge ratings.
+CHARGE_EVENTS = ("charge", "regen", "charger-fault")
 #: The events that are external short circuits across the pack terminals, and the end of one (the
 #: turn-off spike): a cell meets them in its safety standard's external short-circuit test
 #: (IEC 62133-2), not as a rated pulse.
@@ -341,6 +349,9 @@ def design_events(m: "DesignModel") -> tuple[Event, ...]:
     out += _turn_off_spike(m, out)
     out.extend(_storage(m))
     out += _fast_gap_overload(m, vmax)
+    out.extend(_charge(m))
+    out.extend(_regen(m))
+    out.extend(_charger_fault(m))
     return tuple(out)
 
 
@@ -996,3 +1007,65 @@ def _fast_gap_overload(m: "DesignModel", vmax: float | None) -> list[Event]:
              f"delay")
     return [_at_point(m, "fast-gap-overload", at, p.part.overcurrent.delay.high, words,
                       "over-current", vmax, current=fast.max)]
+
+
+# --- the charge side ---------------------------------------------------------------------------
+
+_CHARGE_WAY = ("the path's resistances at that current either way; the drive is the discharge "
+               "direction's, which a charge switch's source lifted below its rail only raises")
+
+
+def _into_pack(m: "DesignModel", name: str, current: float, duration: float | None,
+               what: str, detection: str | None = None, voltage: float | None = None,
+               figures: dict | None = None) -> Event:
+    """An event of ``current`` flowing into the pack, read off the operating point of the same
+    current with the switches self-heated at the highest ambient, every part at its highest
+    resistance (as the fixed loads are)."""
+    a, gd = m.ambient, m.gate_drive
+    op = m.operating_point(current, a.max, gd.min, "max", self_heating=True)
+    words = (f"{what}, highest ambient {a.max:g} °C, {_drive(gd.min, 'max')}, switches at their "
+             f"self-heated steady state")
+    e = _at_point(m, name, op, duration, words, detection, voltage)
+    return Event(e.name, e.corner, e.ambient, e.current, e.duration, e.element_current,
+                 e.dissipation, e.voltage, e.detection, e.assumptions + (_CHARGE_WAY,),
+                 figures=dict(figures or {}))
+
+
+def _charge(m: "DesignModel") -> list[Event]:
+    """The charger's current into the pack, for ever (charge switches on)."""
+    ch = m.design.charger
+    if ch is None:
+        return []
+    return [_into_pack(m, "charge", ch.current, None,
+                       f"the charger's current {ch.current:.4g} A into the pack")]
+
+
+def _regen(m: "DesignModel") -> list[Event]:
+    """The load's regenerative peak into the pack for its duration."""
+    regen = m.design.load.regen
+    if regen is None:
+        return []
+    return [_into_pack(m, "regen", regen.current, regen.duration,
+                       f"the load's regenerative peak {regen.current:.4g} A into the pack for "
+                       f"{regen.duration:.4g} s")]
+
+
+def _charger_fault(m: "DesignModel") -> list[Event]:
+    """A charger failed high: its current limit into the pack for the overcharge detection's
+    longest delay (chargefault.ChargerFault); the voltage is the charger's fault voltage at
+    the terminals, which the charge switch opens against."""
+    f, ch, stack = m.charger_fault, m.design.charger, m.stack
+    if f is None or not f.detected:
+        return []
+    figures = {"fault voltage per cell": f.fault_voltage, "detection max": f.detect,
+               "cell start": f.start, "OCV rise": f.rise, "cell peak": f.peak,
+               "overcharge limit": f.limit, "cell current": f.current,
+               "cell resistance": f.resistance}
+    e = _into_pack(m, "charger-fault", ch.current, f.delay,
+                   f"a charger failed high ({f.fault_voltage * stack.series:.4g} V) at its current "
+                   f"limit {ch.current:.4g} A until the overcharge detection's longest delay "
+                   f"{f.delay:.4g} s ends it", "overcharge", f.fault_voltage * stack.series,
+                   figures)
+    return [Event(e.name, e.corner, e.ambient, e.current, e.duration, e.element_current,
+                  e.dissipation, e.voltage, e.detection, e.assumptions + f.assumptions,
+                  figures=e.figures)]

@@ -36,10 +36,10 @@ def orchard():
 
 def test_the_events_in_order_and_cached(orchard):
     # in the declared order; no switch-on inrush (no capacitance across the terminals), no turn-off
-    # spike (the probe gives no wiring inductance)
+    # spike (the probe gives no wiring inductance), no regen (its load brakes nothing)
     assert [e.name for e in orchard.events] == [
         n for n in events.EVENT_NAMES
-        if n not in ("switch-on-inrush", "turn-off-spike", "fast-gap-overload")]
+        if n not in ("switch-on-inrush", "turn-off-spike", "fast-gap-overload", "regen")]
     assert orchard.events is orchard.events
     assert orchard.event("no-such-event") is None
 
@@ -128,10 +128,10 @@ def test_the_json_report_lists_the_events():
     out = json.loads(formatter("json")(run, RenderOptions()))
     (design,) = out["designs"]
     names = [e["name"] for e in design["events"]]
-    # every event but the switch-on inrush (no capacitance across the terminals) and storage (no
-    # storage section)
+    # every event but the switch-on inrush (no capacitance across the terminals), storage (no
+    # storage section) and regen (no regenerative braking)
     assert names == [n for n in events.EVENT_NAMES
-                     if n not in ("switch-on-inrush", "storage", "fast-gap-overload")]
+                     if n not in ("switch-on-inrush", "storage", "regen", "fast-gap-overload")]
     gap = design["events"][names.index("gap-overload")]
     assert set(gap) >= {"name", "corner", "current", "duration", "i2t", "dissipation"}
     assert gap["dissipation"]["Q1"] > 0 and gap["duration"] == 0.015
