@@ -77,6 +77,12 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
     Declared("storage_months_to_cutoff", "months", "storage to cut-off", ("cell",)),
     Declared("storage_months_cutoff_to_lower_limit", "months",
              "storage from cut-off to the cells' lower limit", ("cell",)),
+    # the temperatures the thermistor inputs stop charging and discharging at, over the stacked
+    # tolerances of the thermistor, its bias resistor and the threshold (sensing.py)
+    *_range("charge_cold_cutoff", "°C", "charge-inhibit cold", ("ntc",)),
+    *_range("charge_hot_cutoff", "°C", "charge-inhibit hot", ("ntc",)),
+    *_range("discharge_cold_cutoff", "°C", "discharge cut-off cold", ("ntc",)),
+    *_range("discharge_hot_cutoff", "°C", "discharge cut-off hot", ("ntc",)),
 ]}
 
 

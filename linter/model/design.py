@@ -17,6 +17,7 @@ from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
 from . import events, short, storage, stress, support, survival
+from . import sensing
 from .limits import Limits
 from .network import Network
 from .path import OperatingPoint, PowerPath
@@ -444,6 +445,19 @@ class DesignModel:
     def resistor_stress(self) -> tuple:
         return support.resistor_stress(self)
 
+    @cached_property
+    def temperature_sensing(self) -> sensing.TemperatureSensing:
+        """The temperature inputs' cut-offs over every tolerance (sensing.py)."""
+        return sensing.temperature_sensing(self)
+
+    def cell_heating(self, theta: float) -> sensing.CellHeating | None:
+        """The cells' highest temperature at the continuous load, through ``theta`` K/W."""
+        return sensing.cell_heating(self, theta)
+
+    @cached_property
+    def pack_energy(self) -> float | None:
+        return sensing.pack_energy(self)
+
     # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, KeyFigure]:
@@ -477,5 +491,16 @@ class DesignModel:
             out["storage_months_to_cutoff"] = sb.to_cutoff.months
             if sb.to_lower_limit is not None:
                 out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
+        out.update(self._cutoff_figures())
         return typed(out.items())
+
+    def _cutoff_figures(self) -> dict[str, float]:
+        """The temperatures each guarded end stops at (the input that acts first), min/typ/max."""
+        out = {}
+        for name in sensing.THRESHOLDS:
+            c = self.temperature_sensing.effective(name)
+            if c is not None:
+                out.update({f"{name}_cutoff_{end}": c.temperature.at(end)
+                            for end in ("min", "typ", "max")})
+        return out
 
