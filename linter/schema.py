@@ -832,7 +832,8 @@ class TemperatureInput(Strict):
         "bias"))
     charge_cold: Ratio | None = Field(default=None, description=(
         "charge-inhibit cold threshold: charging stops while the pin is above this share of the "
-        "reference (toleranced percent, e.g. {typ: 74 %, tol: 1 %})"))
+        "reference (toleranced percent, e.g. {min: 71 %, typ: 71.5 %, max: 72 %}; a tol in % "
+        "is a share of typ, a bare number is in percentage points)"))
     charge_hot: Ratio | None = Field(default=None, description=(
         "charge-inhibit hot threshold: charging stops while the pin is below this share of the "
         "reference (toleranced percent)"))
