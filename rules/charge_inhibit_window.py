@@ -46,11 +46,6 @@ def check(ctx, options):
                 severity="warning",
                 hint="put an NTC on the cells and wire it to the protector's temperature pin "
                      "(its part's temperature_input) or to the charger (charger.thermistor)")
-    elif unread:
-        u = next(u for u in ts.unread if {"charge_cold", "charge_hot"} & set(u.names))
-        yield ctx.finding(f"{u.owner}'s charge-inhibit thresholds read no thermistor: {u.why}",
-                          path=u.path, element=u.owner, key="unread", severity="warning",
-                          hint="connect an NTC from the temperature pin to ground")
     lo, hi, assumed = stress.charge_temperature(stack.part)
     cell_text = f"{lo:.0f}–{hi:.0f} °C" + (" assumed [practice]: the cell gives no "
                                            "charge_temperature" if assumed else "")

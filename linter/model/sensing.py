@@ -137,6 +137,8 @@ def _charger_input(m: DesignModel) -> list[Cutoff]:
     if th is None:
         return []
     ntc = m.netlist.components.get(th.ntc)
+    if ntc is not None and ntc.kind is None:
+        return []  # its part is unknown: unknown-part says so, and there is nothing to read
     if ntc is None or ntc.kind != "ntc":
         what = "no component" if ntc is None else f"a {ntc.kind or 'part of unknown kind'}"
         raise DesignMistake(("charger", "thermistor", "ntc"), (
