@@ -126,3 +126,14 @@ def test_a_protector_input_without_thresholds_is_a_located_input_error(repo) -> 
     out = proc.stdout + proc.stderr
     assert "bramblewood-parts.yaml:" in out and "give at least one threshold" in out, out
     assert "Traceback" not in out
+
+
+def test_a_thermistor_that_puts_a_cut_off_beyond_any_pack_is_a_located_input_error(repo) -> None:
+    # 10 Ω at 25 °C where 10 kΩ was meant: the 71.5 % threshold needs 25 kΩ, which such a
+    # thermistor reaches only far below -100 °C [derived from the beta form]
+    proc = _check(repo, DRILL, "RT1: {part: BW-NTC-10K, pins: [TS, B-]}",
+                  "RT1: {kind: ntc, r25: 10 Ω, beta: 3435 K, pins: [TS, B-]}")
+    assert proc.returncode == 2, proc.stdout
+    lines = [line for line in proc.stdout.splitlines() if "probe.yaml:" in line]
+    assert len(lines) == 1 and "outside -100 to 200 °C" in lines[0], lines
+    assert "Traceback" not in proc.stderr and "internal error in" not in proc.stdout

@@ -19,7 +19,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
-from ..schema import THRESHOLDS
+from ..schema import HIGHEST_C, LOWEST_C, THRESHOLDS
 from .thermistor import trip_span
 from .values import DesignMistake, Span
 
@@ -99,9 +99,19 @@ def _cutoffs(owner: str, ntc: Component, bias: Span,
              thresholds: dict[str, tuple[Any, tuple]]) -> list[Cutoff]:
     """Each threshold (name -> its toleranced percentage and YAML path) as a temperature."""
     r25, beta = _span(ntc.part.r25), _span(ntc.part.beta)
-    return [Cutoff(name, owner, ntc.refdes, ntc.part.placement.value,
-                   trip_span(r25, beta, bias, _span(t, 0.01)), at)
-            for name, (t, at) in thresholds.items()]
+    out = []
+    for name, (t, at) in thresholds.items():
+        span = trip_span(r25, beta, bias, _span(t, 0.01))
+        if not (LOWEST_C <= span.min and span.max <= HIGHEST_C):
+            # far outside any pack's temperatures the beta form means nothing: a unit slip in
+            # R25, B, the bias or the threshold, not a cut-off to judge
+            raise DesignMistake(ntc.path, (
+                f"with {ntc.refdes} the {name.replace('_', ' ')} threshold of {owner} trips "
+                f"between {span.min:.4g} and {span.max:.4g} °C, outside {LOWEST_C:g} to "
+                f"{HIGHEST_C:g} °C: check the thermistor's r25 and beta, the bias resistor "
+                f"and the threshold"))
+        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at))
+    return out
 
 
 def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:

@@ -37,8 +37,11 @@ def resistance(r25: float, beta: float, temp: float) -> float:
 
 
 def temperature_at(r25: float, beta: float, r: float) -> float:
-    """The temperature, in °C, at which the thermistor has resistance ``r`` (the inverse)."""
-    return 1.0 / (1.0 / (T25 + KELVIN) + math.log(r / r25) / beta) - KELVIN
+    """The temperature, in °C, at which the thermistor has resistance ``r`` (the inverse);
+    infinite where no temperature gives it (a resistance the beta form reaches only beyond
+    absolute temperatures' end)."""
+    inverse = 1.0 / (T25 + KELVIN) + math.log(r / r25) / beta
+    return 1.0 / inverse - KELVIN if inverse > 0 else math.inf
 
 
 def divider_share(r_ntc: float, r_bias: float) -> float:
