@@ -87,6 +87,12 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
              "where it grows)", ("cell",)),
     *_range("balance_cell_voltage", "V", "cell voltage on the charger with the imbalance",
             ("cell",), ("min", "max")),
+    # the temperatures the thermistor inputs stop charging and discharging at, over the stacked
+    # tolerances of the thermistor, its bias resistor and the threshold (sensing.py)
+    *_range("charge_cold_cutoff", "°C", "charge-inhibit cold", ("ntc",)),
+    *_range("charge_hot_cutoff", "°C", "charge-inhibit hot", ("ntc",)),
+    *_range("discharge_cold_cutoff", "°C", "discharge cut-off cold", ("ntc",)),
+    *_range("discharge_hot_cutoff", "°C", "discharge cut-off hot", ("ntc",)),
 ]}
 
 

@@ -84,7 +84,8 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
                  "or a shunt), usually through a resistor to the pack's negative terminal",
         "discharge_gate": "gate output of the discharge switch",
         "charge_gate": "gate output of the charge switch",
-        "temperature": "temperature-sense input (recorded, not modelled)",
+        "temperature": "temperature-sense input: an NTC thermistor from it to ground, biased as "
+                       "the part's temperature_input says",
     }, 5),
     Kind("fet", "FET", {"d": "drain", "g": "gate", "s": "source"}, 3),
     # The common drain of a pair is internal to the package; bringing it out is optional.
@@ -103,6 +104,9 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
     # switches close they short it (switch-on-inrush reads it).
     Kind("precharge", "pre-charge path", {"1": "one side of the discharge switches",
                                           "2": "the other side of the discharge switches"}, 2),
+    # Not in the power path: it sits in a temperature input's divider and carries microamperes.
+    Kind("ntc", "NTC thermistor", {"1": "the temperature input's side",
+                                   "2": "the reference's ground side"}, 2),
     # A diode symbol's pins are "A" and "K" [practice].
     Kind("diode", "diode", {"anode": "anode", "cathode": "cathode"}, 2,
          symbol_pins={"a": "anode", "k": "cathode"}),

@@ -490,6 +490,34 @@ class ReversePolarity(str, Enum):
     prevented = "prevented"
 
 
+Ratio = Tol("%", gt=0, lt=100)  # a share of a reference voltage
+
+
+class ChargerThermistor(Strict):
+    """The charger's temperature input: the pack's thermistor it reads, its bias, its thresholds."""
+
+    ntc: str = Field(min_length=1, max_length=40, description=(
+        "reference designator of the NTC thermistor (a component of kind 'ntc') the charger "
+        "reads, e.g. 'RT1'"))
+    bias: Tol("Ω", gt=0, le=MAX_OHMS) = Field(description=(
+        "the charger's bias resistor from its reference to the thermistor (toleranced ohms, "
+        "e.g. {typ: 10 kΩ, tol: 1 %})"))
+    cold: Ratio = Field(description=(
+        "charging stops while the thermistor's voltage is above this share of the reference "
+        "(toleranced percent)"))
+    hot: Ratio = Field(description=(
+        "charging stops while the thermistor's voltage is below this share of the reference "
+        "(toleranced percent)"))
+
+    @model_validator(mode="after")
+    def _ordered(self) -> "ChargerThermistor":
+        if self.cold.nominal <= self.hot.nominal:
+            raise inconsistent("hot", f"{_q(self.hot.nominal, '%')} is not below cold "
+                                      f"{_q(self.cold.nominal, '%')}: a hot thermistor pulls "
+                                      f"the input lower than a cold one")
+        return self
+
+
 class Charger(Strict):
     """The charger the pack is charged with, as seen at the pack terminals."""
 
@@ -521,6 +549,10 @@ class Charger(Strict):
         "(charger-fault-overshoot); between the highest regulated voltage and "
         "open_circuit_max; when absent, 1.4 × the cell's upper limit per cell, IEC 62133-2's "
         "overcharge test supply [memory], at most open_circuit_max"))
+    thermistor: ChargerThermistor | None = Field(default=None, description=(
+        "the charger's temperature input: {ntc, bias, cold, hot}, the pack's thermistor it reads "
+        "and the thresholds it stops charging at; from it the charge-inhibit temperatures are "
+        "computed over every tolerance (charge-inhibit-window)"))
 
     @model_validator(mode="after")
     def _open_circuit_above(self) -> "Charger":
@@ -732,6 +764,11 @@ class Cell(Packaged):
         "what the maker allows for a cell below its lower limit, {allowed, precharge_current, "
         "recovery_voltage}; when absent, recovery allowed at 0.1 C [practice] "
         "(deep-discharge-recovery)"))
+    discharge_temperature: Window | None = Field(default=None, description=(
+        "temperatures the cell may be discharged at, {min, max} in °C (NMC and LiFePO4 data "
+        "sheets commonly give -20-60 °C [practice]); the pack's hottest ambient plus its "
+        "self-heating must stay below the max, or a discharge over-temperature cut-off must "
+        "stop it there (discharge-overtemperature); when absent, not checked"))
 
 
 class ReleaseOn(str, Enum):
@@ -875,6 +912,48 @@ class LowVoltageCharge(Strict):
         return self
 
 
+class TemperatureInput(Strict):
+    """A protector's temperature input: the thermistor on its pin forms a divider with a bias
+    resistor from the input's reference, and comparators trip at shares of that reference.
+
+    Thresholds are the pin voltage as a percentage of the reference the bias resistor is tied
+    to: a cold thermistor has a high resistance, so the cold thresholds are the higher ones."""
+
+    pull_up: Tol("Ω", gt=0, le=MAX_OHMS) | None = Field(default=None, description=(
+        "the protector's internal bias resistor from its reference to the pin (toleranced ohms); "
+        "when absent, the resistor in the netlist from the pin's net to the reference is the "
+        "bias"))
+    charge_cold: Ratio | None = Field(default=None, description=(
+        "charge-inhibit cold threshold: charging stops while the pin is above this share of the "
+        "reference (toleranced percent, e.g. {min: 71 %, typ: 71.5 %, max: 72 %}; a tol in % "
+        "is a share of typ, a bare number is in percentage points)"))
+    charge_hot: Ratio | None = Field(default=None, description=(
+        "charge-inhibit hot threshold: charging stops while the pin is below this share of the "
+        "reference (toleranced percent)"))
+    discharge_cold: Ratio | None = Field(default=None, description=(
+        "discharge cut-off cold threshold: discharge stops while the pin is above this share "
+        "of the reference (toleranced percent)"))
+    discharge_hot: Ratio | None = Field(default=None, description=(
+        "discharge over-temperature cut-off: discharge stops while the pin is below this share "
+        "of the reference (toleranced percent)"))
+
+    @model_validator(mode="after")
+    def _some(self) -> "TemperatureInput":
+        if all(getattr(self, n) is None for n in THRESHOLDS):
+            raise ValueError("give at least one threshold: " + ", ".join(THRESHOLDS))
+        for cold, hot in (("charge_cold", "charge_hot"), ("discharge_cold", "discharge_hot")):
+            c, h = getattr(self, cold), getattr(self, hot)
+            if c is not None and h is not None and c.nominal <= h.nominal:
+                raise inconsistent(hot, f"{_q(h.nominal, '%')} is not below {cold} "
+                                        f"{_q(c.nominal, '%')}: a hot thermistor pulls the pin "
+                                        f"lower than a cold one")
+        return self
+
+
+#: The thresholds a temperature input may have, as (name, which end of the window it guards).
+THRESHOLDS = ("charge_cold", "charge_hot", "discharge_cold", "discharge_hot")
+
+
 class Protector(Packaged):
     """A battery protector: watches the cells and drives the charge and discharge switches."""
 
@@ -936,6 +1015,11 @@ class Protector(Packaged):
         "whether a cell below its lower limit is charged, {allowed, inhibit_below, path, "
         "current}; judged against the cell's recovery (deep-discharge-recovery); when absent, "
         "not checked"))
+    temperature_input: TemperatureInput | None = Field(default=None, description=(
+        "what the temperature pin does with the thermistor on it: {pull_up, charge_cold, "
+        "charge_hot, discharge_cold, discharge_hot}; from it the cut-off temperatures are "
+        "computed over every tolerance (charge-inhibit-window, discharge-overtemperature); "
+        "when absent, the pin is not modelled"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "Protector":
@@ -1428,6 +1512,27 @@ class HeaterFuse(Fuse):
     heater_power: Q("W", gt=0, le=10e3) | None = Field(default=None, description=(
         "lowest heater power that melts the fuse within its rated time, in watts, the data "
         "sheet's operating power"))
+class Placement(str, Enum):
+    cells = "cells"
+    board = "board"
+
+
+class Ntc(Packaged):
+    """An NTC thermistor: the temperature sensor a protector's or a charger's temperature input
+    reads through a divider. It carries no pack current."""
+
+    kind: Literal["ntc"] = Field(description="the part kind: 'ntc'")
+    r25: Tol("Ω", gt=0, le=MAX_OHMS) = Field(description=(
+        "resistance at 25 °C with its tolerance (toleranced ohms, e.g. {typ: 10 kΩ, tol: 1 %})"))
+    beta: Tol("K", gt=0, le=100e3) = Field(description=(
+        "the B constant of the beta equation R(T) = R25·exp(B·(1/T - 1/T25)) with its "
+        "tolerance (toleranced kelvin, e.g. {typ: 3435 K, tol: 1 %})"))
+    beta_range: str | None = Field(default=None, max_length=100, description=(
+        "the temperatures the data sheet's B is fitted between, e.g. '25/85 °C'; recorded for "
+        "the reviewer (the beta equation strays from the part's table far outside it)"))
+    placement: Placement = Field(default=Placement.cells, description=(
+        "where it sits: 'cells' (on or between the cells, reads their temperature) or 'board' "
+        "(on the circuit board, reads the board's); shown in the findings about it"))
 
 
 PART_KINDS: dict[str, type[Strict]] = {
@@ -1435,6 +1540,7 @@ PART_KINDS: dict[str, type[Strict]] = {
     "fuse": Fuse, "ptc": Ptc, "resistor": Resistor, "capacitor": Capacitor, "trace": Trace,
     "wire": Wire, "diode": Diode, "precharge": Precharge,
     "overvoltage_backup": OvervoltageBackup, "heater_fuse": HeaterFuse,
+    "ntc": Ntc,
 }
 
 Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items())],

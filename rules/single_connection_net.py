@@ -7,8 +7,9 @@ from packwarden import Example, Severity, rule
           good="R1: {kind: resistor, value: 470 Ω, pins: [B+, VDD]}\nC1: {part: CAP-100N, pins: [VDD, B-]}"))
 def check(ctx, options):
     """A net that touches one pin is almost always a misspelt net name, which silently breaks a
-    connection. The pack terminals (where charger and load connect off-board) and the internal
-    common drain of a FET pair are exempt."""
+    connection. The pack terminals (where charger and load connect off-board), the thermistor
+    contact the charger reads (``charger.thermistor``) and the internal common drain of a FET
+    pair are exempt."""
     terminals = set(ctx.netlist.terminals)
     similar = _Similar(ctx.netlist.nets)
     for net, refs in sorted(ctx.netlist.nets.items()):
@@ -20,6 +21,8 @@ def check(ctx, options):
             continue
         if comp.kind is None:
             continue  # an unknown part may well have an internal node there; unknown-part says so
+        if comp.kind == "ntc" and comp.refdes == _charger_ntc(ctx):
+            continue  # the pack's thermistor contact: the charger connects there off-board
         others = similar.to(net)
         hint = (f"did you mean '{others[0]}'?" if others else
                 f"connect net '{net}' to its other end, or remove it")
@@ -28,6 +31,11 @@ def check(ctx, options):
                           if isinstance(_pins(ctx, ref.component), dict) else
                           ("components", ref.component, "pins"),
                           hint=hint, element=ref.component, key=net)
+
+
+def _charger_ntc(ctx):
+    charger = ctx.design.charger
+    return charger.thermistor.ntc if charger is not None and charger.thermistor else None
 
 
 def _pins(ctx, refdes):

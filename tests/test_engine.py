@@ -270,7 +270,7 @@ def test_rule_options_reach_the_rule(repo: Path) -> None:
     assert lint([str(path)]).all_findings() == []
     config.write_text(base + "\n[tool.packwarden.rules.component-budget]\nmax_components = 5\n")
     [finding] = lint([str(path)]).all_findings()
-    assert finding.message == "7 components, budget 5"
+    assert finding.message == "8 components, budget 5"
     assert finding.severity is Severity.warning
 
 
@@ -533,7 +533,7 @@ def test_json_output_holds_each_designs_figures_and_findings(repo: Path) -> None
     by_file = {d["file"]: d for d in data["designs"]}
     assert set(by_file) == {"designs/probe.yaml", "designs/bad-part.yaml"}
     for d in by_file.values():
-        assert d["figures"]["component_count"] == 7
+        assert d["figures"]["component_count"] == 8
     assert by_file["designs/probe.yaml"]["findings"] == []
     [f] = by_file["designs/bad-part.yaml"]["findings"]
     assert (f["rule"], f["element"], f["location"]["path"]) == ("unknown-part", "Q1", "components.Q1.part")

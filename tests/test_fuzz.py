@@ -146,7 +146,7 @@ def test_the_unmutated_example_is_clean(workspace: Path) -> None:
     (workspace / "probe.yaml").write_bytes(DESIGN)
     (workspace / "parts" / "orchard-parts.yaml").write_bytes(LIBRARY)
     [d] = lint([str(workspace / "probe.yaml")], registry=REGISTRY).designs
-    assert d.errors == [] and d.figures["component_count"].value == 7
+    assert d.errors == [] and d.figures["component_count"].value == 8
 
 
 # --- the installed command on a few damaged files -------------------------------------------------

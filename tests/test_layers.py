@@ -14,12 +14,14 @@ PACKAGES = (("linter", "packwarden"), ("rules", "packwarden_rules"))
 # The model's layers, bottom first; a module may import its own layer and those before it.
 MODEL_LAYERS = [
     {"values"},
-    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush", "pulse"},
+    {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush", "pulse",
+     "thermistor"},
     {"topology", "gate"},
     {"path"},
     {"limits"},
     {"events", "short"},
-    {"stress", "support", "storage", "survival", "coordination", "backup", "balance", "chargefault"},
+    {"stress", "support", "storage", "survival", "coordination", "backup", "balance", "chargefault",
+     "sensing"},
     {"design"},
     {"vector", "yield_"},
 ]

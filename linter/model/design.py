@@ -16,7 +16,7 @@ from ..figures import KeyFigure, typed
 from ..netlist import Component, Netlist
 from ..records import record
 from ..schema import Design, Toleranced
-from . import backup, chargefault, events, short, storage, stress, support, survival
+from . import backup, chargefault, events, sensing, short, storage, stress, support, survival
 from .balance import cell_balance
 from .limits import Limits
 from .network import Network
@@ -496,6 +496,19 @@ class DesignModel:
         """The protectors that detect an open cell-tap wire (backup.open_tap_watchers)."""
         return backup.open_tap_watchers(self)
 
+    @cached_property
+    def temperature_sensing(self) -> sensing.TemperatureSensing:
+        """The temperature inputs' cut-offs over every tolerance (sensing.py)."""
+        return sensing.temperature_sensing(self)
+
+    def cell_heating(self, theta: float) -> sensing.CellHeating | None:
+        """The cells' highest temperature at the continuous load, through ``theta`` K/W."""
+        return sensing.cell_heating(self, theta)
+
+    @cached_property
+    def pack_energy(self) -> float | None:
+        return sensing.pack_energy(self)
+
     # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, KeyFigure]:
@@ -533,6 +546,7 @@ class DesignModel:
             if sb.to_lower_limit is not None:
                 out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
         out.update(self._balance_figures())
+        out.update(self._cutoff_figures())
         return typed(out.items())
 
     def _balance_figures(self) -> dict[str, float]:
@@ -545,5 +559,15 @@ class DesignModel:
         if cb.high_cell_voltage is not None:
             out.update(balance_cell_voltage_min=cb.low_cell_voltage,
                        balance_cell_voltage_max=cb.high_cell_voltage)
+        return out
+
+    def _cutoff_figures(self) -> dict[str, float]:
+        """The temperatures each guarded end stops at (the input that acts first), min/typ/max."""
+        out = {}
+        for name in sensing.THRESHOLDS:
+            c = self.temperature_sensing.effective(name)
+            if c is not None:
+                out.update({f"{name}_cutoff_{end}": c.temperature.at(end)
+                            for end in ("min", "typ", "max")})
         return out
 

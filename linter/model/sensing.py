@@ -1,0 +1,201 @@
+"""The temperature inputs the netlist really has, and the temperatures at which they cut off.
+
+Two inputs can read a thermistor of the pack: the protector's ``temperature`` pin (its part's
+``temperature_input`` gives the bias and the thresholds) and the charger's (``charger.thermistor``
+names the thermistor, the charger's bias and its two thresholds). Each threshold given becomes a
+:class:`Cutoff`: the temperature at which that input stops charging or discharging, over every
+tolerance of the thermistor, the bias resistor and the threshold (:mod:`.thermistor`).
+
+A threshold with no thermistor to read is no protection at all: it is kept as an
+:class:`Unread` input, so the rules can say why a declared window is not enforced.
+
+Assumed: the thermistor's far end sits on the reference's ground, and the bias resistor from the
+pin to the reference is the input's own (``pull_up``) or else the netlist's one resistor at the
+pin whose far end is not that ground.
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Any
+
+from ..records import record
+from ..schema import HIGHEST_C, LOWEST_C, THRESHOLDS
+from .thermistor import trip_span
+from .values import DesignMistake, Span
+
+if TYPE_CHECKING:  # pragma: no cover
+    from ..netlist import Component
+    from .design import DesignModel
+
+__all__ = ["Cutoff", "Unread", "TemperatureSensing", "temperature_sensing", "CHARGE", "DISCHARGE",
+           "THRESHOLDS", "CellHeating", "cell_heating", "pack_energy"]
+
+#: The thresholds that stop charging, and those that stop discharging, as (cold, hot).
+CHARGE = ("charge_cold", "charge_hot")
+DISCHARGE = ("discharge_cold", "discharge_hot")
+
+
+@record(frozen=True)
+class Cutoff:
+    """One threshold of one input, as a temperature over every tolerance."""
+
+    #: which threshold: one of ``schema.THRESHOLDS``
+    name: str
+    #: the input's owner: the protector's reference designator, or "charger"
+    owner: str
+    #: the thermistor the input reads
+    ntc: str
+    #: where the thermistor sits ("cells" or "board")
+    placement: str
+    temperature: Span
+    #: the YAML path of the threshold (the protector's part, or the charger's block)
+    path: tuple
+
+    @property
+    def cold(self) -> bool:
+        return self.name.endswith("cold")
+
+
+@record(frozen=True)
+class Unread:
+    """An input with thresholds and no thermistor on it (or no bias to read it with)."""
+
+    owner: str
+    why: str
+    path: tuple
+    names: tuple[str, ...]
+
+
+@record(frozen=True)
+class TemperatureSensing:
+    cutoffs: tuple[Cutoff, ...]
+    unread: tuple[Unread, ...]
+
+    def of(self, name: str) -> list[Cutoff]:
+        return [c for c in self.cutoffs if c.name == name]
+
+    def effective(self, name: str) -> Cutoff | None:
+        """The cut-off that acts first where several inputs guard the same end: charging (or
+        discharging) stops when any of them says so, so the highest cold threshold and the
+        lowest hot one, each judged at its own worst corner."""
+        found = self.of(name)
+        if not found:
+            return None
+        if name.endswith("cold"):
+            return max(found, key=lambda c: c.temperature.min)
+        return min(found, key=lambda c: c.temperature.max)
+
+
+def _span(t: Any, scale: float = 1.0) -> Span:
+    return Span(t.low * scale, t.nominal * scale, t.high * scale)
+
+
+def _resistor_span(c: Component) -> Span:
+    k = c.part.tol / 100.0
+    return Span(c.part.value * (1 - k), c.part.value, c.part.value * (1 + k))
+
+
+def _cutoffs(owner: str, ntc: Component, bias: Span,
+             thresholds: dict[str, tuple[Any, tuple]]) -> list[Cutoff]:
+    """Each threshold (name -> its toleranced percentage and YAML path) as a temperature."""
+    r25, beta = _span(ntc.part.r25), _span(ntc.part.beta)
+    out = []
+    for name, (t, at) in thresholds.items():
+        span = trip_span(r25, beta, bias, _span(t, 0.01))
+        if not (LOWEST_C <= span.min and span.max <= HIGHEST_C):
+            # far outside any pack's temperatures the beta form means nothing: a unit slip in
+            # R25, B, the bias or the threshold, not a cut-off to judge
+            raise DesignMistake(ntc.path, (
+                f"with {ntc.refdes} the {name.replace('_', ' ')} threshold of {owner} trips "
+                f"between {span.min:.4g} and {span.max:.4g} °C, outside {LOWEST_C:g} to "
+                f"{HIGHEST_C:g} °C: check the thermistor's r25 and beta, the bias resistor "
+                f"and the threshold"))
+        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at))
+    return out
+
+
+def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
+    p = m.protector
+    ti = getattr(p.part, "temperature_input", None) if p is not None else None
+    if ti is None:
+        return [], []
+    path = p.path + (("part",) if p.part_name else ()) + ("temperature_input",)
+    given = {n: getattr(ti, n) for n in THRESHOLDS if getattr(ti, n) is not None}
+    net, ground = p.pins.get("temperature"), p.pins.get("ground")
+    ntcs = [c for c in m.netlist.of_kind("ntc")
+            if net is not None and net in c.pins.values() and c.part is not None]
+    if not ntcs:
+        why = ("its temperature pin is not connected" if net is None else
+               f"no thermistor is on its temperature pin's net '{net}'")
+        return [], [Unread(p.refdes, why, p.path + ("pins",), tuple(given))]
+    ntc = ntcs[0]
+    if ti.pull_up is not None:
+        bias = _span(ti.pull_up)
+    else:
+        found = [r for r in m.topology.resistors_at.get(net, [])
+                 if ground not in (r.pins.get("1"), r.pins.get("2"))]
+        if not found:
+            return [], [Unread(p.refdes, f"its temperature input has no pull_up and no resistor "
+                                         f"biases net '{net}'", path, tuple(given))]
+        bias = _resistor_span(found[0])
+    return _cutoffs(p.refdes, ntc, bias, {n: (t, path + (n,)) for n, t in given.items()}), []
+
+
+def _charger_input(m: DesignModel) -> list[Cutoff]:
+    ch = m.design.charger
+    th = ch.thermistor if ch is not None else None
+    if th is None:
+        return []
+    ntc = m.netlist.components.get(th.ntc)
+    if ntc is not None and ntc.kind is None:
+        return []  # its part is unknown: unknown-part says so, and there is nothing to read
+    if ntc is None or ntc.kind != "ntc":
+        what = "no component" if ntc is None else f"a {ntc.kind or 'part of unknown kind'}"
+        raise DesignMistake(("charger", "thermistor", "ntc"), (
+            f"'{th.ntc}' is {what}: the charger reads a component of kind 'ntc'"))
+    at = ("charger", "thermistor")
+    return _cutoffs("charger", ntc, _span(th.bias), {"charge_cold": (th.cold, at + ("cold",)),
+                                                      "charge_hot": (th.hot, at + ("hot",))})
+
+
+def temperature_sensing(m: DesignModel) -> TemperatureSensing:
+    cutoffs, unread = _protector_input(m)
+    return TemperatureSensing(tuple(cutoffs + _charger_input(m)), tuple(unread))
+
+
+@record(frozen=True)
+class CellHeating:
+    """The hottest a cell gets at the continuous load: the highest ambient plus its own I²R.
+
+    Kept simple, and said so: each cell's share of the continuous-load event's current, squared,
+    times its highest internal resistance, into a thermal resistance from cell to ambient (a
+    rule option); no heat from the switches or the neighbouring cells, no time constant (the
+    steady state, which a continuous load reaches)."""
+
+    ambient: float  # °C, the pack's highest
+    current: float  # A per cell
+    power: float  # W per cell
+    rise: float  # K
+    theta: float  # K/W
+
+    @property
+    def temperature(self) -> float:
+        return self.ambient + self.rise
+
+
+def cell_heating(m: DesignModel, theta: float) -> CellHeating | None:
+    stack = m.stack
+    if stack is None:
+        return None
+    event = m.event("continuous-load")
+    pack_current = event.current if event is not None else m.design.load.continuous
+    current = pack_current / stack.parallel
+    power = current ** 2 * stack.part.internal_resistance.high
+    return CellHeating(m.ambient.max, current, power, power * theta, theta)
+
+
+def pack_energy(m: DesignModel) -> float | None:
+    """The stack's rated energy, in watt-hours: cells × capacity × nominal voltage."""
+    if m.stack is None or m.cell_limits is None:
+        return None
+    return len(m.stack.cells) * m.stack.part.capacity * m.cell_limits.nominal
