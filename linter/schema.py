@@ -768,7 +768,8 @@ class Cell(Packaged):
         "temperatures the cell may be discharged at, {min, max} in °C (NMC and LiFePO4 data "
         "sheets commonly give -20-60 °C [practice]); the pack's hottest ambient plus its "
         "self-heating must stay below the max, or a discharge over-temperature cut-off must "
-        "stop it there (discharge-overtemperature); when absent, not checked"))
+        "stop it there (discharge-overtemperature); when absent, -20-60 °C, the common figure "
+        "[practice]"))
 
 
 class ReleaseOn(str, Enum):

@@ -41,12 +41,13 @@ def check(ctx, options):
     below the cell's minimum with no cold cut-off is a warning."""
     m = ctx.model
     stack = m.stack
-    if stack is None or getattr(stack.part, "discharge_temperature", None) is None:
+    limits = m.discharge_window
+    if stack is None or limits is None:
         return
-    limits = stack.part.discharge_temperature
     ts = m.temperature_sensing
     ref = stack.cells[0].refdes
-    cell_path = ctx.part_path(ref) + ("discharge_temperature",)
+    cell_path = ctx.part_path(ref) + (("discharge_temperature",) if limits.given else ())
+    assumed = f" ({limits.assumption})" if limits.assumption else ""
     unread = "; ".join(f"{u.owner}: {u.why}" for u in ts.unread
                        if {"discharge_cold", "discharge_hot"} & set(u.names))
     because = f" ({unread})" if unread else ""
@@ -60,7 +61,7 @@ def check(ctx, options):
             f"the cells can reach {heat.temperature:.0f} °C (ambient {heat.ambient:.0f} °C plus "
             f"{heat.rise:.1f} K from {fq(heat.power, 'W')} each at {fq(heat.current, 'A')}), "
             f"above their discharge limit {limits.max:.0f} °C, and nothing in the netlist stops "
-            f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}",
+            f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}{assumed}",
             path=cell_path, element=ref, key="unguarded",
             severity=None if large else "warning",
             figures=[Figure("cell temperature", heat.temperature, "°C"),
@@ -79,7 +80,7 @@ def check(ctx, options):
                 f"{c.owner} reads {c.ntc} (on the {c.placement}): discharge goes on "
                 f"{'down' if c.cold else 'up'} to {worst:.1f} °C at the worst tolerance corner "
                 f"(typical {t.typ:.1f} °C), {'below' if c.cold else 'above'} the cell's "
-                f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C",
+                f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C{assumed}",
                 path=c.path, element=c.ntc, key=c.name,
                 figures=[Figure(f"{c.name} cut-off min", t.min, "°C"),
                          Figure(f"{c.name} cut-off max", t.max, "°C"),
@@ -90,7 +91,7 @@ def check(ctx, options):
     if cold is None and amb.min < limits.min:
         yield ctx.finding(
             f"the pack operates down to {amb.min:.0f} °C, below the cells' discharge minimum "
-            f"{limits.min:.0f} °C, and nothing in the netlist stops the discharge there",
+            f"{limits.min:.0f} °C, and nothing in the netlist stops the discharge there{assumed}",
             path=("pack", "ambient", "min"), element=ref, key="cold", severity="warning",
             figures=[Figure("ambient min", amb.min, "°C"),
                      Figure("discharge minimum", limits.min, "°C")],

@@ -509,6 +509,11 @@ class DesignModel:
     def pack_energy(self) -> float | None:
         return sensing.pack_energy(self)
 
+    @cached_property
+    def discharge_window(self) -> sensing.DischargeWindow | None:
+        """The cells' discharge temperature window: the cell part's, else the common default."""
+        return sensing.discharge_window(self)
+
     # --- reporting -----------------------------------------------------------------------------
 
     def figures(self) -> dict[str, KeyFigure]:

@@ -28,7 +28,8 @@ if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
 
 __all__ = ["Cutoff", "Unread", "TemperatureSensing", "temperature_sensing", "CHARGE", "DISCHARGE",
-           "THRESHOLDS", "CellHeating", "cell_heating", "pack_energy"]
+           "THRESHOLDS", "CellHeating", "cell_heating", "pack_energy", "DischargeWindow",
+           "discharge_window", "DEFAULT_DISCHARGE_WINDOW"]
 
 #: The thresholds that stop charging, and those that stop discharging, as (cold, hot).
 CHARGE = ("charge_cold", "charge_hot")
@@ -199,3 +200,36 @@ def pack_energy(m: DesignModel) -> float | None:
     if m.stack is None or m.cell_limits is None:
         return None
     return len(m.stack.cells) * m.stack.part.capacity * m.cell_limits.nominal
+
+
+#: The discharge temperature window taken for a cell that gives none, (min, max) in °C: what
+#: lithium-ion cell data sheets commonly give [practice: docs/references.md "Temperature
+#: protection"]. A pack must not go unjudged because its cell part leaves the field out.
+DEFAULT_DISCHARGE_WINDOW = (-20.0, 60.0)
+
+
+@record(frozen=True)
+class DischargeWindow:
+    """The temperatures the cells may be discharged at; ``given`` is false where the cell part
+    leaves ``discharge_temperature`` out and the common default stands in."""
+
+    min: float  # °C
+    max: float  # °C
+    given: bool
+
+    @property
+    def assumption(self) -> str | None:
+        if self.given:
+            return None
+        return (f"the cell gives no discharge_temperature: taken as {self.min:g} to {self.max:g} "
+                f"°C, common on lithium-ion cell data sheets [practice]")
+
+
+def discharge_window(m: DesignModel) -> DischargeWindow | None:
+    stack = m.stack
+    if stack is None:
+        return None
+    w = getattr(stack.part, "discharge_temperature", None)
+    if w is not None:
+        return DischargeWindow(w.min, w.max, True)
+    return DischargeWindow(*DEFAULT_DISCHARGE_WINDOW, False)
