@@ -296,3 +296,24 @@ def format_quantity(value: float, unit: str, digits: int = 3) -> str:
         if abs(rounded) >= scale * (1 - 1e-12):
             return f"{rounded / scale:.{digits}g} {prefix}{unit}"
     return f"{value:.{digits}g} {unit}"
+
+
+#: What may stand before a unit's spelling: a number, a space, an SI prefix.
+_NUMBER_BEFORE_UNIT = re.compile(r"[0-9.]\s?[YZEPTGMkmunpμaf]?$")
+
+
+def parse_any_quantity(text: object) -> tuple[float, str]:
+    """Parse ``text`` as a value in whichever unit it names: ``(value in SI, unit symbol)``.
+
+    For a value that bounds a figure of any unit (a waiver's ceiling). The unit must be written:
+    a bare number could be a percentage or a temperature. Raises :class:`QuantityError`."""
+    if not isinstance(text, str) or isinstance(text, bool):
+        raise QuantityError("expected a value with its unit, e.g. '1.5 A' or '85 °C'")
+    raw = unicodedata.normalize("NFKC", text.strip())
+    endings = sorted(((s, u) for s, u in _SPELLING.items()), key=lambda su: -len(su[0]))
+    for spelling, unit in endings:
+        if raw.endswith(spelling) and _NUMBER_BEFORE_UNIT.search(raw[:-len(spelling)]):
+            return parse_quantity(text, unit), unit
+    raise QuantityError(f"{_q(text)} names no unit packwarden knows; write a value with its "
+                        f"unit, e.g. '1.5 A' or '85 °C' (units: "
+                        f"{', '.join(u.symbol for u in UNITS.values())})")

@@ -57,6 +57,9 @@ def check(ctx, options):
                     f"{fq(options.vds_derating * 100, '%', 2)} of its vds_max {fq(part.vds_max, 'V')} "
                     f"is {fq(limit, 'V')}",
                     path=path, element=ch.package, key=f"vds-{ch.name}",
+                    # the turn-off spike is also short-circuit-stress's cause: said once
+                    cause=("turn-off-spike" if spike is not None and what == spike.describe()
+                           else f"vds-{ch.role}") + ch.name[len(ch.package):],
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
                     hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"

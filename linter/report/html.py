@@ -53,6 +53,7 @@ class FindingView:
     hint: str
     figures: list[str]
     waived: str | None
+    assumptions: list[str] = field(default_factory=list)
 
 
 @record
@@ -125,9 +126,10 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
         rule = run.rules.get(f.rule)
         findings.append(FindingView(
             severity=f.severity.value, rule=f.rule, summary=rule.summary if rule else "",
-            element=f.element or "", where=_where(f.location, d.file),
+            element=f.subject or "", where=_where(f.location, d.file),
             path=f.location.dotted, message=f.message, hint=f.hint or "",
-            figures=[fig.text() for fig in f.figures], waived=f.waived))
+            figures=[fig.text() for fig in f.figures], waived=f.waived,
+            assumptions=list(f.assumptions)))
     model = d.model
     design = model.design if model is not None else None
     info = design.design if design is not None else None

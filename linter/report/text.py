@@ -76,6 +76,8 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                          f"{f.rule}: {f.message}{tag}")
             if f.hint and not opts.quiet:
                 block.append(f"    hint: {f.hint}")
+            if not opts.quiet:
+                block.extend(f"    assumes: {note}" for note in f.assumptions)
         if d.linted and not opts.quiet and len(run.designs) <= _FIGURE_LINES_UP_TO:
             figures = key_figures(d.figures)
             if figures:
