@@ -60,7 +60,7 @@ def check(ctx, options):
                 f"{pulse.detection} delay — above its id_pulse_max {fq(limit, 'A')}; I²t "
                 f"{fq(i2t, 'A²s')}",
                 path=path, element=ch.package, key=f"pulse-{ch.name}",
-                cause="pulse" + _channel_of(ch),
+                cause="pulse" + _channel_of(ch), assumptions=pulse.assumptions,
                 figures=figures + [Figure("id_pulse_max", limit, "A")],
                 hint=f"use FETs with id_pulse_max ≥ {fq(ich / options.pulse_margin, 'A')}, share the "
                      f"current over a second pair in parallel, or limit the short with path "

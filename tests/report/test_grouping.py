@@ -202,3 +202,24 @@ def test_a_ceiling_without_a_known_unit_is_a_located_input_error(bad) -> None:
     err = result.errors[0]
     assert err.file.endswith("fet-voltage-too-low.yaml") and err.line > 1
     assert "up_to" in str(err) and "Traceback" not in str(err)
+
+
+# --- assumptions in every output ----------------------------------------------------------------
+
+def test_each_format_carries_the_assumptions_a_figure_rests_on(four_run) -> None:
+    # The worst share rests on a minimum on-resistance the part does not give: taken as
+    # typ − (max − typ), a symmetric spread [practice, docs/references.md "One cause, one finding"].
+    note = "min = typ - (max - typ), a symmetric spread"
+    found = _sharing(four_run)
+    assert all(any(note in a for a in f.assumptions) for f in found)
+    text = formatter("text")(four_run, RenderOptions())
+    assert any(line.startswith("    assumes: ") and note in line for line in text.splitlines())
+    doc = json.loads(formatter("json")(four_run, RenderOptions()))
+    assert all(any(note in a for a in f["assumptions"])
+               for f in doc["designs"][0]["findings"] if f["rule"] == SHARING)
+    log = sarif(four_run)
+    assert all(any(note in a for a in r["properties"]["assumptions"])
+               for r in log["runs"][0]["results"] if r["ruleId"] == SHARING)
+    for fmt in ("junit", "markdown", "html"):
+        assert "assumes: " in formatter(fmt)(four_run, RenderOptions()).replace("*assumes:* ",
+                                                                               "assumes: ")
