@@ -1,9 +1,10 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden.model.limits import VDS_DERATING
 from pydantic import Field
 
 
 class Options(RuleOptions):
-    vds_derating: float = Field(0.8, gt=0, le=1, description=(
+    vds_derating: float = Field(VDS_DERATING, gt=0, le=1, description=(
         "fraction of vds_max a switch may block [practice: commercial derating 80 %]"))
     vgs_derating: float = Field(0.7, gt=0, le=1, description=(
         "fraction of vgs_max the gate may see [published: MIL-DTL-917 table XIX, 70 %]"))

@@ -1,6 +1,6 @@
 """The review report: one self-contained HTML file to hold a design review over.
 
-Per design: what was reviewed, the findings (waived ones marked), the key figures, and four charts
+Per design: what was reviewed, the findings (waived ones marked), the key figures, and five charts
 drawn as inline SVG (:mod:`.charts`). No script, no external font, stylesheet or image: the file
 opens the same offline, attached to a ticket or archived with a release. Jinja2 autoescaping is on,
 and the charts escape their own text, because names and messages come from the files under review.
