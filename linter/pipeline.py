@@ -415,12 +415,18 @@ def group_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
         return findings
     from .grouping import group_findings
     topology = model.topology
-    roles: dict[str, set[str]] = {}
-    for ch in topology.channels:
-        roles.setdefault(ch.package, set()).add(ch.role or "unassigned")
-    words = {ref: " and ".join(sorted(r)) + " switch" for ref, r in roles.items()}
-    return group_findings(findings, topology.parallel_packages, words,
-                          lambda f: f.with_fingerprint(run.design_id).fingerprint)
+    try:
+        roles: dict[str, set[str]] = {}
+        for ch in topology.channels:
+            roles.setdefault(ch.package, set()).add(ch.role or "unassigned")
+        words = {ref: " and ".join(sorted(r)) + " switch" for ref, r in roles.items()}
+        return group_findings(findings, topology.parallel_packages, words,
+                              lambda f: f.with_fingerprint(run.design_id).fingerprint)
+    except DesignMistake as exc:  # the rules met it too: said once, the findings kept apart
+        add_mistake(run.result, exc, run.doc)
+    except Exception as exc:  # grouping must not take the findings down with it
+        run.result.internal.append(InternalError("grouping", run.result.file, describe(exc)))
+    return findings
 
 
 #: The phases after the model, in order: each takes the findings so far and returns them.
