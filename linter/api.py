@@ -71,6 +71,36 @@ class Finding:
     key: str = ""
     waived: str | None = None  # the waiver's reason when a waiver covers this finding
     fingerprint: str = ""
+    #: The root cause the finding reports, said without the element (e.g. "share-id_max"):
+    #: findings of one rule with one cause and the same figures on parallel packages become one,
+    #: and findings of two rules with one cause on one element, one headline figure, become one
+    #: (``packwarden.grouping``). Empty: the finding's ``key`` stands for its cause, and it
+    #: merges with no other rule's.
+    cause: str = ""
+    #: A grouped finding's elements, every one (the first is ``element``); empty when alone.
+    members: tuple[str, ...] = ()
+    #: A grouped finding's elements in words: "Q1–Q4, discharge switch, 4 in parallel".
+    group: str = ""
+    #: Other rules that found the same cause, reported here once.
+    also: tuple[str, ...] = ()
+    #: The fingerprints the grouped findings had alone (a baseline written before grouping
+    #: still matches through them).
+    merged: tuple[str, ...] = ()
+    #: The places of the other members of a group (the first member's is ``location``).
+    locations: tuple[Location, ...] = ()
+    #: What the finding's figures rest on that the design does not give: the model's assumption
+    #: notes (an on-resistance extrapolated, a minimum taken from the typical and maximum).
+    assumptions: tuple[str, ...] = ()
+
+    @property
+    def subject(self) -> str | None:
+        """What the finding is about, for reports: a group in words, else the element."""
+        return self.group or self.element
+
+    @property
+    def headline(self) -> Figure | None:
+        """The finding's headline figure, the one a waiver's ceiling bounds: its first."""
+        return self.figures[0] if self.figures else None
 
     def with_fingerprint(self, design_id: str) -> "Finding":
         # Keyed on what the finding is about, never on line numbers, so baselines survive edits
@@ -155,7 +185,8 @@ class RuleContext:
 
     def finding(self, message: str, *, path: Iterable = (), hint: str | None = None,
                 element: str | None = None, figures: Iterable[Figure] = (), key: str = "",
-                severity: Severity | str | None = None) -> Finding:
+                severity: Severity | str | None = None, cause: str = "",
+                assumptions: Iterable[str] = ()) -> Finding:
         """Make a finding of the running rule, located at ``path`` in the design file."""
         path = tuple(path)
         location = self._elsewhere(path)
@@ -163,7 +194,8 @@ class RuleContext:
             location = Location(self.file, path, *self._where(path))
         return Finding(rule=self.rule_id, severity=Severity(severity) if severity else self.severity,
                        message=message, location=location, hint=hint,
-                       element=element, figures=tuple(figures), key=key)
+                       element=element, figures=tuple(figures), key=key, cause=cause,
+                       assumptions=tuple(dict.fromkeys(assumptions)))
 
     def component_path(self, refdes: str, *rest: str) -> tuple:
         return ("components", refdes, *rest)

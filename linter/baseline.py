@@ -104,7 +104,9 @@ def entry_of(f: Finding) -> Entry:
 
 def entries_of(run: Any) -> list[Entry]:
     """The run's findings as baseline entries; waived ones are left out (see the module notes)."""
-    out = [entry_of(f) for f in run.all_findings() if not f.waived]
+    # One entry per member of a grouped finding: the baseline still holds if the group splits.
+    out = [replace(entry_of(f), fingerprint=p) for f in run.all_findings() if not f.waived
+           for p in _prints(f)]
     out.sort(key=lambda e: (e.file, e.rule, e.path, e.element or "", e.fingerprint))
     return out
 
@@ -218,20 +220,30 @@ def compare(run: Any, earlier: Iterable[Entry], reference: str) -> tuple[Any, Co
     for d in run.designs:
         kept = []
         for f in d.findings:
-            if remaining[f.fingerprint] > 0:
-                remaining[f.fingerprint] -= 1
+            prints = _prints(f)
+            if any(remaining[p] > 0 for p in prints):
+                for p in prints:  # a group takes every member it names out of the earlier set
+                    if remaining[p] > 0:
+                        remaining[p] -= 1
                 comparison.unchanged.append(f)
             else:
                 kept.append(f)
                 comparison.new.append(f)
         designs.append(replace(d, findings=kept))
-    now = Counter(f.fingerprint for f in run.all_findings())
+    now = Counter(p for f in run.all_findings() for p in _prints(f))
     for e in earlier:
         if now[e.fingerprint] > 0:
             now[e.fingerprint] -= 1
         else:
             comparison.absent.append(e)
     return replace(run, designs=designs), comparison
+
+
+def _prints(f: Finding) -> tuple[str, ...]:
+    """The fingerprints a finding answers to: its own and, for one cause reported once
+    (``packwarden.grouping``), each member's as it was alone, so a baseline written before the
+    grouping still matches the group (any member baselined counts it as unchanged)."""
+    return tuple(dict.fromkeys((f.fingerprint, *f.merged)))
 
 
 # --- --since REV --------------------------------------------------------------------------------

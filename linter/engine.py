@@ -12,7 +12,7 @@ other directly, downwards (results ← registry ← pipeline ← batch).
 from .batch import PARALLEL_MIN_DESIGNS, default_jobs, lint, worker_count
 from .pipeline import (PHASES, DesignRun, Session, describe, design_identity, discover,
                        format_of, is_design_text, lint_file, make_model, model_figures,
-                       policy_phase, rule_phase, run_rules, waiver_phase)
+                       policy_phase, rule_phase, run_rules, waiver_phase, group_phase)
 from .registry import (ENTRY_POINT_GROUP, Registry, RequiredPluginError, load_folder,
                        load_registry, missing_plugins, normalize_name, require_plugins)
 from .results import DesignResult, InternalError, RunResult
@@ -20,6 +20,7 @@ from .results import DesignResult, InternalError, RunResult
 __all__ = ["PARALLEL_MIN_DESIGNS", "default_jobs", "lint", "worker_count", "PHASES", "DesignRun",
            "Session", "describe", "design_identity", "discover", "format_of", "is_design_text",
            "lint_file", "make_model", "model_figures", "policy_phase", "rule_phase", "run_rules",
-           "waiver_phase", "ENTRY_POINT_GROUP", "Registry", "RequiredPluginError", "load_folder",
+           "waiver_phase", "group_phase", "ENTRY_POINT_GROUP", "Registry", "RequiredPluginError",
+           "load_folder",
            "load_registry", "missing_plugins", "normalize_name", "require_plugins",
            "DesignResult", "InternalError", "RunResult"]

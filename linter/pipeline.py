@@ -92,6 +92,8 @@ class Session:
     netlists: dict[Path, Any] = field(default_factory=dict)
     #: Whether each result carries the model's events (the JSON report writes them).
     keep_events: bool = True
+    #: Whether one root cause is reported once (``group_phase``); rule cases see each finding.
+    grouping: bool = True
 
     def root_for(self, folder: Path) -> Path:
         root = self.roots.get(folder)
@@ -330,6 +332,8 @@ class DesignRun:
     result: DesignResult
     #: Where a finding's path lies in a second source (a schematic's netlist), or None.
     elsewhere: Callable[[tuple], Any] = _nowhere
+    #: The design's name in fingerprints (:func:`design_identity`).
+    design_id: str = ""
 
     def where(self, path: tuple) -> tuple[int, int]:
         pos = self.doc.where(path)
@@ -402,8 +406,31 @@ def waiver_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
     return findings
 
 
+def group_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
+    """One finding per root cause (``packwarden.grouping``): a cause met alike by parallel
+    switch packages, or by two rules on one element, reported once. After the waivers, which
+    act on each member."""
+    model = run.model
+    if model is None or len(findings) < 2 or not run.session.grouping:
+        return findings
+    from .grouping import group_findings
+    topology = model.topology
+    try:
+        roles: dict[str, set[str]] = {}
+        for ch in topology.channels:
+            roles.setdefault(ch.package, set()).add(ch.role or "unassigned")
+        words = {ref: " and ".join(sorted(r)) + " switch" for ref, r in roles.items()}
+        return group_findings(findings, topology.parallel_packages, words,
+                              lambda f: f.with_fingerprint(run.design_id).fingerprint)
+    except DesignMistake as exc:  # the rules met it too: said once, the findings kept apart
+        add_mistake(run.result, exc, run.doc)
+    except Exception as exc:  # grouping must not take the findings down with it
+        run.result.internal.append(InternalError("grouping", run.result.file, describe(exc)))
+    return findings
+
+
 #: The phases after the model, in order: each takes the findings so far and returns them.
-PHASES = (rule_phase, policy_phase, waiver_phase)
+PHASES = (rule_phase, policy_phase, waiver_phase, group_phase)
 
 
 def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
@@ -411,13 +438,16 @@ def run_rules(session: Session, cfg: Config, options: dict, doc: Document, desig
               design_id: str | None = None,
               elsewhere: Callable[[tuple], Any] = _nowhere) -> None:
     """Every phase after the model (:data:`PHASES`), then each finding's fingerprint and order."""
-    run = DesignRun(session, cfg, options, doc, design, netlist, model, result, elsewhere)
+    design_id = design_id or Path(result.file).as_posix()
+    run = DesignRun(session, cfg, options, doc, design, netlist, model, result, elsewhere,
+                    design_id)
     findings: list[Finding] = []
     for phase in PHASES:
         findings = phase(run, findings)
-    # After the waivers, so their own findings (expired, unused) share the design's identity.
-    design_id = design_id or Path(result.file).as_posix()
-    findings = [printable_finding(f).with_fingerprint(design_id) for f in findings]
+    # After the waivers, so their own findings (expired, unused) share the design's identity; a
+    # grouped finding keeps its first member's (``group_phase``).
+    findings = [printable_finding(f) if f.merged else
+                printable_finding(f).with_fingerprint(design_id) for f in findings]
     findings.sort(key=lambda f: (f.location.line, f.location.column, f.rule, f.key, f.element or ""))
     result.findings = findings
     result.linted = True
@@ -427,10 +457,12 @@ def printable_finding(f: Finding) -> Finding:
     """The finding with its text safe for every report: net names, part names and waiver reasons
     come from the files under review, and a terminal escape among them must reach no terminal,
     HTML page or pull-request comment as anything but visible text."""
-    texts = {"message": f.message, "hint": f.hint, "element": f.element, "waived": f.waived}
+    texts = {"message": f.message, "hint": f.hint, "element": f.element, "waived": f.waived,
+             "group": f.group}
     if all(t is None or t.isprintable() for t in texts.values()):
         return f
-    return replace(f, **{k: printable(t) if t is not None else None for k, t in texts.items()})
+    return replace(f, **{k: printable(t) if t is not None else None for k, t in texts.items()},
+                   members=tuple(printable(m) for m in f.members))
 
 
 def add_mistake(result: DesignResult, mistake: DesignMistake, doc: Document | None) -> None:

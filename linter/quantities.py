@@ -288,6 +288,8 @@ def format_quantity(value: float, unit: str, digits: int = 3) -> str:
     spec = UNITS.get(unit)
     if not math.isfinite(value):
         return f"{value} {unit}"
+    if unit == "months" and 0 < value < 1:
+        return _short_duration(value, digits)
     if spec is not None and not spec.prefixes or value == 0:
         return f"{value:.{digits}g} {unit}"
     # Round first, then pick the prefix: 999.96 µV rounds to 1 mV, not to "1e+03 µV".
@@ -296,3 +298,36 @@ def format_quantity(value: float, unit: str, digits: int = 3) -> str:
         if abs(rounded) >= scale * (1 - 1e-12):
             return f"{rounded / scale:.{digits}g} {prefix}{unit}"
     return f"{value:.{digits}g} {unit}"
+
+
+#: What may stand before a unit's spelling: a number, a space, an SI prefix.
+_NUMBER_BEFORE_UNIT = re.compile(r"[0-9.]\s?[YZEPTGMkmunpμaf]?$")
+
+
+def parse_any_quantity(text: object) -> tuple[float, str]:
+    """Parse ``text`` as a value in whichever unit it names: ``(value in SI, unit symbol)``.
+
+    For a value that bounds a figure of any unit (a waiver's ceiling). The unit must be written:
+    a bare number could be a percentage or a temperature. Raises :class:`QuantityError`."""
+    if not isinstance(text, str) or isinstance(text, bool):
+        raise QuantityError("expected a value with its unit, e.g. '1.5 A' or '85 °C'")
+    raw = unicodedata.normalize("NFKC", text.strip())
+    endings = sorted(((s, u) for s, u in _SPELLING.items()), key=lambda su: -len(su[0]))
+    for spelling, unit in endings:
+        if raw.endswith(spelling) and _NUMBER_BEFORE_UNIT.search(raw[:-len(spelling)]):
+            return parse_quantity(text, unit), unit
+    raise QuantityError(f"{_q(text)} names no unit packwarden knows; write a value with its "
+                        f"unit, e.g. '1.5 A' or '85 °C' (units: "
+                        f"{', '.join(u.symbol for u in UNITS.values())})")
+
+
+#: The storage budget's month, 730 hours [derived: 8760 h / 12], as ``model.events`` counts it.
+_HOURS_PER_MONTH = 730.0
+
+
+def _short_duration(months: float, digits: int) -> str:
+    """Less than a month, as a reader counts it: days, or hours below a day."""
+    hours = months * _HOURS_PER_MONTH
+    if hours >= 24 * (1 - 1e-12):
+        return f"{hours / 24:.{digits}g} days"
+    return f"{hours:.{digits}g} hours"

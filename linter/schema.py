@@ -612,6 +612,20 @@ class Waiver(Strict):
     expires: datetime.date | None = Field(default=None, description=(
         "last day the waiver applies, YYYY-MM-DD; after it the findings count again and "
         "waiver-hygiene reports the expired waiver as an error"))
+    up_to: Annotated[str, AfterValidator(lambda v: _ceiling(v))] | None = Field(
+        default=None, description=(
+            "the highest value of the finding's headline figure (its first) the waiver accepts, "
+            "with its unit, e.g. '1.5 A': a finding beyond it is not waived and says why"))
+
+
+def _ceiling(text: str) -> str:
+    """A waiver's ``up_to`` must name a value and its unit (checked here, read in waivers.py)."""
+    from .quantities import QuantityError, parse_any_quantity
+    try:
+        parse_any_quantity(text)
+    except QuantityError as exc:
+        raise ValueError(str(exc)) from None
+    return text
 
 
 NetName = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),

@@ -266,7 +266,7 @@ class _CaseSession(Session):
     """A session whose every design uses one fixed config, instead of the project's."""
 
     def __init__(self, registry: Registry, config: tuple[Config, dict, None]):
-        super().__init__(registry=registry)
+        super().__init__(registry=registry, grouping=False)
         self._fixed = config
 
     def config_for(self, design: Path):

@@ -60,6 +60,7 @@ def check(ctx, options):
                 f"{pulse.detection} delay — above its id_pulse_max {fq(limit, 'A')}; I²t "
                 f"{fq(i2t, 'A²s')}",
                 path=path, element=ch.package, key=f"pulse-{ch.name}",
+                cause="pulse" + _channel_of(ch), assumptions=pulse.assumptions,
                 figures=figures + [Figure("id_pulse_max", limit, "A")],
                 hint=f"use FETs with id_pulse_max ≥ {fq(ich / options.pulse_margin, 'A')}, share the "
                      f"current over a second pair in parallel, or limit the short with path "
@@ -74,6 +75,7 @@ def check(ctx, options):
                 f"short ({spike.describe()}), above its vds_max {fq(ch.part.vds_max, 'V')}: it "
                 f"avalanches{_energy(av, e_as)}",
                 path=("pack", "wiring_inductance"), element=ch.package, key=f"spike-{ch.name}",
+                cause="turn-off-spike" + _channel_of(ch),
                 figures=[Figure("turn-off voltage", spike.total, "V"), Figure("spike", spike.spike, "V"),
                          Figure("wiring inductance", spike.inductance, "H"),
                          Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V"),
@@ -82,6 +84,12 @@ def check(ctx, options):
                 hint=_spike_hint(spike, ch.part.vds_max) + (
                     "" if e_as is not None or not math.isfinite(av.energy) else
                     f"; or, if its data sheet rates E_AS ≥ {fq(av.energy, 'J')}, give it as e_as"))
+
+
+def _channel_of(ch) -> str:
+    """The channel within its package (".1" of a pair's "Q1.1", "" for a discrete FET): a cause
+    said without the package, so parallel packages and switch-voltage-margin share it."""
+    return ch.name[len(ch.package):]
 
 
 def _energy(av, e_as):

@@ -56,6 +56,7 @@ def check(ctx, options):
             f"cell), at or below the over-discharge detection maximum "
             f"{fq(b.cutoff_voltage, 'V')}: the pack is cut off from the day it ships{assumed}",
             path=("storage", "soc"), element=element, key="below-cutoff", figures=figures,
+            assumptions=b.assumptions,
             hint=f"store at a state of charge well above {first.end_soc * 100:.2g} % "
                  f"(docs/references.md: about 40 % is the usual shelf charge)")
         return
@@ -67,9 +68,9 @@ def check(ctx, options):
                 "no state of charge lasts that long at this drain")
     largest = max(first.drains, key=lambda d: d.current)
     hint = (f"{soc_hint}; or cut the largest drain ({largest.text()}); or recharge every "
-            f"{first.months:.3g} months in storage")
+            f"{fq(first.months, 'months')} in storage")
     if b.duration > to_limit:
-        tail = (f"{after.months:.3g} months later it falls below the cell's lower limit "
+        tail = (f"{fq(after.months, 'months')} later it falls below the cell's lower limit "
                 f"{fq(b.lower_limit, 'V')} (drains after the cut-off: "
                 f"{', '.join(d.text() for d in after.drains)})" if after is not None else
                 f"no charge is left between the cut-off and the cell's lower limit "
@@ -77,15 +78,17 @@ def check(ctx, options):
         yield ctx.finding(
             f"stored {b.duration:.3g} months at {b.soc * 100:.3g} % and {b.temperature:g} °C,"
             f"{where} reaches the over-discharge cut-off ({fq(b.cutoff_voltage, 'V')}) after "
-            f"{first.months:.3g} months ({drains}, {sd}); {tail}: the cells may be damaged "
+            f"{fq(first.months, 'months')} ({drains}, {sd}); {tail}: the cells may be damaged "
             f"before the pack is used{assumed}",
             path=("storage", "duration"), element=element, key="lower-limit", figures=figures,
+            assumptions=b.assumptions,
             hint=hint)
         return
     yield ctx.finding(
         f"stored {b.duration:.3g} months at {b.soc * 100:.3g} % and {b.temperature:g} °C,{where} "
         f"reaches the over-discharge cut-off ({fq(b.cutoff_voltage, 'V')}) after "
-        f"{first.months:.3g} months ({drains}, {sd}): the pack ships cut off and needs a charger "
+        f"{fq(first.months, 'months')} ({drains}, {sd}): the pack ships cut off and needs a charger "
         f"to wake{assumed}",
         path=("storage", "duration"), element=element, key="cutoff", figures=figures,
+        assumptions=b.assumptions,
         severity=Severity.warning, hint=hint)

@@ -51,6 +51,7 @@ def check(ctx, options):
             f"{rating} {fq(limit, 'A')}, though the equal share {fq(s.equal, 'A')} is within it"
             + "".join(f" ({a.removeprefix('min: ')})" for a in sp.assumptions),
             path=ctx.part_path(ch.package), element=ch.package, key=f"share-{name}-{rating}",
+            cause=f"share{name[len(ch.package):]}-{rating}", assumptions=sp.assumptions,
             figures=[Figure("worst share", s.worst, "A"), Figure("equal share", s.equal, "A"),
                      Figure(rating, limit, "A"), Figure("share factor", sp.factor, "")],
             hint=f"use FETs with {rating} ≥ {fq(s.worst, 'A')}, or with a tighter on-resistance "

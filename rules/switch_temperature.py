@@ -85,6 +85,7 @@ def check(ctx, options):
         if notes:
             bound += f" (assumed: {'; '.join(notes)})"
         yield ctx.finding(message + bound, path=path, element=h.package, key=h.case,
+                          assumptions=h.assumptions,
                           severity=severity, figures=figures, hint=_hint(h, budget, ceiling))
 
 

@@ -1,9 +1,10 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden.model.limits import VDS_DERATING
 from pydantic import Field
 
 
 class Options(RuleOptions):
-    vds_derating: float = Field(0.8, gt=0, le=1, description=(
+    vds_derating: float = Field(VDS_DERATING, gt=0, le=1, description=(
         "fraction of vds_max a switch may block [practice: commercial derating 80 %]"))
     vgs_derating: float = Field(0.7, gt=0, le=1, description=(
         "fraction of vgs_max the gate may see [published: MIL-DTL-917 table XIX, 70 %]"))
@@ -57,6 +58,9 @@ def check(ctx, options):
                     f"{fq(options.vds_derating * 100, '%', 2)} of its vds_max {fq(part.vds_max, 'V')} "
                     f"is {fq(limit, 'V')}",
                     path=path, element=ch.package, key=f"vds-{ch.name}",
+                    # the turn-off spike is also short-circuit-stress's cause: said once
+                    cause=("turn-off-spike" if spike is not None and what == spike.describe()
+                           else f"vds-{ch.role}") + ch.name[len(ch.package):],
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
                     hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"

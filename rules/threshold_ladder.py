@@ -68,6 +68,7 @@ def check(ctx, options):
                 note(f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
                      f"limit {fq(limits.upper_limit, 'V')}"),
                 path=("charger", "voltage"), element=stack.cells[0].refdes, key="charger-vs-upper",
+                assumptions=limits.assumptions,
                 figures=[Figure("charger max per cell", ch.max, "V"),
                          Figure("cell upper limit", limits.upper_limit, "V")],
                 hint=f"tighten the charger to at most {fq(limits.upper_limit, 'V')} per cell with tolerance")
@@ -88,6 +89,7 @@ def check(ctx, options):
             note(f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
                  f"limit {fq(limits.overcharge_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overcharge-vs-limit",
+            assumptions=limits.assumptions,
             figures=[Figure("overcharge detect max", oc.detect.high, "V"),
                      Figure("cell overcharge limit", limits.overcharge_limit, "V")],
             hint="use a protector variant with a lower overcharge detection voltage")
@@ -104,6 +106,7 @@ def check(ctx, options):
             note(f"over-discharge detection min {fq(od.detect.low, 'V')} is below the cell's lower "
                  f"limit {fq(limits.lower_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overdischarge-vs-limit",
+            assumptions=limits.assumptions,
             figures=[Figure("over-discharge detect min", od.detect.low, "V"),
                      Figure("cell lower limit", limits.lower_limit, "V")],
             hint="use a protector variant with a higher over-discharge detection voltage")

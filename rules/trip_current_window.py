@@ -53,7 +53,7 @@ def check(ctx, options):
             f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
             f"just below the trip is never cut off{held}{notes}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
-            key="max-vs-cell", figures=window + [Figure("permitted current", ever, "A"),
+            key="max-vs-cell", assumptions=permitted.assumptions, figures=window + [Figure("permitted current", ever, "A"),
                                                  Figure("cell limit", cell_limit, "A")],
             hint=_resistance_hint(t, ever / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
     # FET channels: current divides across parallel packages as their resistances do
@@ -66,6 +66,7 @@ def check(ctx, options):
                 f"{ch.name} carries {fq(ich, 'A')} for ever at the permitted current "
                 f"{fq(ever, 'A')}, above its id_max {fq(ch.part.id_max, 'A')}{held}{notes}",
                 path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
+                cause=f"max-vs-fet{ch.name[len(ch.package):]}", assumptions=permitted.assumptions,
                 figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
                      f"with a lower over-current detection voltage")
@@ -84,6 +85,7 @@ def check(ctx, options):
                 f"{fq(t.at_min.vgs, 'V')} gate drive, highest "
                 f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min.assumptions)}",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
+                assumptions=t.at_min.assumptions,
                 figures=window + [Figure(what, current, "A")],
                 hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
     sc, psc = m.short_circuit_trip, m.prospective_short_circuit

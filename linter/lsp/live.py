@@ -317,7 +317,8 @@ def _digest(text: str) -> str:
 
 
 def _finding_note(path: Path, f: Finding) -> Note:
-    message = f.message + (f"\nhint: {f.hint}" if f.hint else "")
+    message = f.message + (f"\nhint: {f.hint}" if f.hint else "") + \
+        "".join(f"\nassumes: {note}" for note in f.assumptions)
     if f.waived:
         return Note(path, f.location.line, f.location.column, "hint",
                     f"waived ({f.waived}): {message}", f.rule)

@@ -9,6 +9,7 @@ the yield run, the charts and policies all read it from here.
 
 from __future__ import annotations
 
+import math
 from functools import cached_property
 from typing import Any
 
@@ -552,7 +553,7 @@ class DesignModel:
                 out["storage_months_cutoff_to_lower_limit"] = sb.to_lower_limit.months
         out.update(self._balance_figures())
         out.update(self._cutoff_figures())
-        return typed(out.items())
+        return typed(_uncomputed(out).items())
 
     def _balance_figures(self) -> dict[str, float]:
         cb = self.cell_balance
@@ -576,3 +577,17 @@ class DesignModel:
                             for end in ("min", "typ", "max")})
         return out
 
+
+def _uncomputed(out: dict[str, Any]) -> dict[str, Any]:
+    """The figures with None (reported "n/a", JSON null) where the model could not compute them,
+    rather than the zero an open path gives: no sense path, so no trip current; terminals that
+    reach no cell, so no short and no heat under the load."""
+    if "trip_current_min" in out and not all(
+            math.isfinite(out[f"sense_resistance_{c}"]) for c in ("min", "typ", "max")):
+        out.update(trip_current_min=None, trip_current_typ=None, trip_current_max=None)
+    if out.get("prospective_short_circuit") == 0.0:
+        out["prospective_short_circuit"] = None
+        for name in ("short_circuit_trip_min", "short_circuit_trip_max", "switch_tj_continuous"):
+            if name in out:
+                out[name] = None
+    return out

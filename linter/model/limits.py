@@ -59,6 +59,9 @@ SELF_DISCHARGE_SPREAD = 0.5
 #: Charge cycles a pack is expected to serve [practice: 300-500 full cycles to 80 % of the rated
 #: capacity is the usual cycle-life rating of lithium-ion cells, docs/references.md "Balancing"].
 SERVICE_CYCLES = 500
+#: Share of its vds_max a switch may block [practice: commercial derating 80 %,
+#: docs/references.md "MOSFETs"]; switch-voltage-margin's ``vds_derating``.
+VDS_DERATING = 0.8
 
 
 @record(frozen=True)
@@ -71,7 +74,8 @@ class Limits:
     short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner);
     ``conductor_final``: conductor-withstand's ``final_temperature``; ``balance_cycle``,
     ``balance_time``, ``self_discharge_spread`` and ``service_cycles``: cell-balance's
-    ``cycle_time``, ``balancing_time``, ``self_discharge_spread`` and ``service_cycles``.
+    ``cycle_time``, ``balancing_time``, ``self_discharge_spread`` and ``service_cycles``; ``vds_derating``:
+    switch-voltage-margin's ``vds_derating`` (the blocking-voltage chart draws it).
     """
 
     junction: float = JUNCTION_LIMIT
@@ -85,6 +89,7 @@ class Limits:
     balance_time: float = BALANCE_TIME
     self_discharge_spread: float = SELF_DISCHARGE_SPREAD
     service_cycles: int = SERVICE_CYCLES
+    vds_derating: float = VDS_DERATING
 
     @classmethod
     def of(cls, options: Mapping[str, Any]) -> "Limits":
@@ -103,6 +108,8 @@ class Limits:
                    getattr(reach, "fault_resistance", FAULT_RESISTANCE),
                    getattr(options.get("conductor-withstand"), "final_temperature",
                            CONDUCTOR_FINAL),
+                   vds_derating=getattr(options.get("switch-voltage-margin"), "vds_derating",
+                                        VDS_DERATING),
                    **_balance_limits(options.get("cell-balance")))
 
     def junction_ceiling(self, fet: Any) -> float:

@@ -267,6 +267,21 @@ class Topology:
         """Parts that may carry the pack's current besides cells and switches."""
         return tuple(self.netlist.of_kind(*SERIES_KINDS))
 
+    @cached_property
+    def parallel_packages(self) -> tuple[tuple[str, ...], ...]:
+        """Switch packages in parallel, each set in netlist order (sets of two or more): packages
+        whose channels join the same nets with the same roles, so each carries a share of one
+        current and meets one cause alike. A pair's drain left inside the package counts as the
+        same net in each."""
+        by_nets: dict[tuple, list[str]] = {}
+        for c in self.netlist.of_kind(*SWITCH_KINDS):
+            ends = sorted((ch.role or "", ch.source, ch.gate or "",
+                           "" if ch.drain == f"{c.refdes}.d" else ch.drain)
+                          for ch in self.channels if ch.package == c.refdes)
+            if ends:
+                by_nets.setdefault(tuple(ends), []).append(c.refdes)
+        return tuple(tuple(p) for p in by_nets.values() if len(p) > 1)
+
 
 def _stack_levels(cells: tuple[Component, ...], bottom: str,
                   stop_at_loop: bool) -> tuple[dict[str, int], Component | None]:

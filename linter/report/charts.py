@@ -212,18 +212,20 @@ class Chart:
 
 
 TITLES = {"ladder": "Voltage ladder (per cell)", "trip": "Trip-current window",
-          "tj": "Junction temperature against ambient", "tc": "Time–current coordination"}
+          "tj": "Junction temperature against ambient", "tc": "Time–current coordination",
+          "vds": "Blocking voltage per switch"}
 
 
 def charts_for(model: Any) -> list[Chart]:
-    """The four charts of a design. A chart the design lacks the parts for says why instead.
+    """The five charts of a design. A chart the design lacks the parts for says why instead.
 
     Each is drawn on its own: a model figure that fails (the engine has reported it already)
     costs the chart that needs it, never the report.
     """
     out = []
     for cid, build in (("ladder", voltage_ladder), ("trip", trip_window),
-                       ("tj", junction_temperature), ("tc", time_current_chart)):
+                       ("tj", junction_temperature), ("tc", time_current_chart),
+                       ("vds", blocking_voltage)):
         try:
             out.append(build(model))
         except Exception as exc:
@@ -948,3 +950,97 @@ def time_current_chart(model: Any) -> Chart:
 
 __all__ = ["Chart", "charts_for", "voltage_ladder", "trip_window", "junction_temperature", "spread",
            "ladder_data", "trip_rows", "tj_curves", "Svg", "text_width", "time_current_chart"]
+
+
+# --- 5. blocking voltage per switch -----------------------------------------------------------
+
+@record(frozen=True)
+class BlockingCase:
+    """One voltage an off switch must block (the model's, in words) against its ratings."""
+
+    switches: str  # "Q1.1" or "Q1.1, Q2.1" for parallel channels that block the same
+    role: str
+    what: str
+    volts: float
+    vds_max: float
+    derated: float
+
+
+def blocking_cases(model: Any) -> list[BlockingCase]:
+    """Every switch channel's blocking voltages (``DesignModel.blocking_voltage`` and the
+    turn-off spike of a short where the design gives the wiring inductance), its vds_max and the
+    derated limit (``Limits.vds_derating``); parallel channels that block the same voltages are
+    one entry. No value is computed here."""
+    groups: dict[tuple, list[str]] = {}
+    for ch in model.channels:
+        if ch.role is None:
+            continue
+        cases = list(model.blocking_voltage(ch.role))
+        spike = model.turn_off_spike(ch)
+        if spike is not None:
+            cases.append((spike.describe(), spike.total))
+        key = (ch.role, ch.part.vds_max, tuple(sorted(cases, key=lambda c: -c[1])))
+        groups.setdefault(key, []).append(ch.name)
+    out = []
+    for (role, vds_max, cases), names in groups.items():
+        for what, volts in cases:
+            out.append(BlockingCase(refs_text(names), role, what.split(":")[0], volts, vds_max,
+                                    vds_max * model.limits.vds_derating))
+    return out
+
+
+def blocking_voltage(model: Any) -> Chart:
+    chart = Chart("vds", TITLES["vds"],
+                  "What each switch must block when it is off, against its vds_max (solid line) "
+                  "and the derated limit (dashed). A bar past the dashed line fails "
+                  "switch-voltage-margin; past the solid line the switch avalanches.")
+    cases = [c for c in blocking_cases(model) if _finite_pos(c.volts) and _finite_pos(c.vds_max)]
+    if not cases:
+        chart.notes.append("nothing to plot: no switch with a role and a known blocking voltage")
+        return chart
+    hi = nice_above(max(max(c.volts, c.vds_max) for c in cases) * 1.1)
+    W = 1180.0
+    label_w, x0, x1 = 462.0, 472.0, W - 24.0
+    row_h, top = max(26.0, 180.0 / len(cases)), 34.0  # a few rows still make a readable chart
+    plot_bottom = top + len(cases) * row_h
+    H = plot_bottom + 46.0
+
+    def x(v: float) -> float:
+        return x0 + max(v, 0.0) / hi * (x1 - x0)
+
+    svg = Svg(W, H, "Blocking voltage of each switch against its vds_max and derated limit", "vds")
+    lx = x0  # the legend: what each line and colour means
+    for cls, word in (("vds-within", "within the derated limit"),
+                      ("vds-over-derated", "over the derated limit"),
+                      ("vds-over-rating", "over vds_max")):
+        svg.rect(lx, 8, 14, 10, f"vds-key {cls}")
+        svg.text(lx + 19, 17, word, "tick")
+        lx += 19 + text_width(word, 11) + 18
+    for cls, word in (("vds-rating", "vds_max"), ("vds-derated", "derated limit")):
+        svg.line(lx + 7, 6, lx + 7, 20, cls)
+        svg.text(lx + 15, 17, word, "tick")
+        lx += 15 + text_width(word, 11) + 18
+    for k in range(len(cases)):
+        if k % 2 == 0:
+            svg.rect(0, top + k * row_h, W, row_h, "row-stripe")
+    for v in linear_ticks(0.0, hi, 8):
+        svg.line(x(v), top, x(v), plot_bottom, "grid")
+        svg.text(x(v), plot_bottom + 16, tick_text(v), "tick", anchor="middle")
+    svg.line(x0, plot_bottom, x1, plot_bottom, "axis")
+    svg.text((x0 + x1) / 2, plot_bottom + 36, "voltage, V", "axis-title", anchor="middle")
+    for k, c in enumerate(cases):
+        y0, yc = top + k * row_h, top + k * row_h + row_h / 2
+        label = f"{c.switches} ({c.role}): {c.what}"
+        svg.text(label_w, yc + 4, _ellipsis(label, label_w - 8), "row-label", anchor="end")
+        state = ("over-rating" if c.volts > c.vds_max else
+                 "over-derated" if c.volts > c.derated else "within")
+        svg.rect(x0, yc - 7, x(c.volts) - x0, 14, f"vds-bar vds-{state}")
+        svg.line(x(c.vds_max), y0 + 2, x(c.vds_max), y0 + row_h - 2, "vds-rating")
+        svg.line(x(c.derated), y0 + 2, x(c.derated), y0 + row_h - 2, "vds-derated")
+        text = q(c.volts, "V")
+        end = max(x(c.volts), x(c.vds_max)) + 8
+        svg.text(end, yc + 4, text, "row-value")
+        chart.values.append((label, f"{text} (vds_max {q(c.vds_max, 'V')}, derated "
+                                    f"{q(c.derated, 'V')})"))
+    chart.svg = svg.markup()
+    return chart

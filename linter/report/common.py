@@ -24,9 +24,12 @@ class RenderOptions:
 
 def figure_text(fig: Any) -> str:
     """A key figure (:class:`packwarden.figures.KeyFigure`) as every report shows it: in its
-    declared unit with an engineering prefix, a count as a plain number, "—" when unknown."""
-    if fig is None or not fig.known:
+    declared unit with an engineering prefix, a count as a plain number; "—" when the design has
+    no such figure, "n/a" when the model could not compute it (never a zero it did not find)."""
+    if fig is None:
         return "—"
+    if not fig.known:
+        return "n/a"
     if fig.unit:
         from ..quantities import format_quantity
         return format_quantity(float(fig.value), fig.unit)

@@ -1,6 +1,6 @@
 """The review report: one self-contained HTML file to hold a design review over.
 
-Per design: what was reviewed, the findings (waived ones marked), the key figures, and four charts
+Per design: what was reviewed, the findings (waived ones marked), the key figures, and five charts
 drawn as inline SVG (:mod:`.charts`). No script, no external font, stylesheet or image: the file
 opens the same offline, attached to a ticket or archived with a release. Jinja2 autoescaping is on,
 and the charts escape their own text, because names and messages come from the files under review.
@@ -53,6 +53,7 @@ class FindingView:
     hint: str
     figures: list[str]
     waived: str | None
+    assumptions: list[str] = field(default_factory=list)
 
 
 @record
@@ -125,9 +126,10 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
         rule = run.rules.get(f.rule)
         findings.append(FindingView(
             severity=f.severity.value, rule=f.rule, summary=rule.summary if rule else "",
-            element=f.element or "", where=_where(f.location, d.file),
+            element=f.subject or "", where=_where(f.location, d.file),
             path=f.location.dotted, message=f.message, hint=f.hint or "",
-            figures=[fig.text() for fig in f.figures], waived=f.waived))
+            figures=[fig.text() for fig in f.figures], waived=f.waived,
+            assumptions=list(f.assumptions)))
     model = d.model
     design = model.design if model is not None else None
     info = design.design if design is not None else None

@@ -20,7 +20,16 @@ def finding_dict(f) -> dict:
                      "line": f.location.line, "column": f.location.column},
         "figures": [asdict(fig) for fig in f.figures],
         "waived": f.waived, "fingerprint": f.fingerprint,
+        "assumptions": list(f.assumptions),
     }
+    if f.members:  # one cause on parallel packages (packwarden.grouping)
+        out.update(group=f.group, members=list(f.members),
+                   member_locations=[{"file": m.file, "path": m.dotted, "line": m.line,
+                                      "column": m.column} for m in f.locations])
+    if f.also:
+        out["also_found_by"] = list(f.also)
+    if f.merged:
+        out["merged_fingerprints"] = list(f.merged)
     rel = f.location.related
     if rel is not None:  # a component of the schematic's netlist: the design that reads it
         out["location"]["design"] = {"file": rel.file, "line": rel.line, "column": rel.column}

@@ -69,12 +69,14 @@ def classname(path: str) -> str:
 def finding_text(f: Finding) -> str:
     lines = [f"{f.location.file}:{f.location.line}:{f.location.column}: {f.severity.value} "
              f"{f.rule}: {f.message}"]
-    if f.element:
-        lines.append(f"    element: {f.element}")
+    if f.subject:
+        lines.append(f"    element: {f.subject}")
     if f.hint:
         lines.append(f"    hint: {f.hint}")
     if f.figures:
         lines.append("    figures: " + "; ".join(g.text() for g in f.figures))
+    for note in f.assumptions:
+        lines.append(f"    assumes: {note}")
     if f.waived:
         lines.append(f"    waived: {f.waived}")
     return "\n".join(lines)

@@ -87,10 +87,12 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         msg = esc(f.message)
         if f.hint:
             msg += f"<br>*hint:* {esc(f.hint)}"
+        for note in f.assumptions:
+            msg += f"<br>*assumes:* {esc(note)}"
         if f.waived:
             msg += f"<br>*waived:* {esc(f.waived)}"
         rows.append((f"{where(f.location.file)}:{f.location.line}", sev, code(f.rule),
-                     esc(f.element) if f.element else "—", msg))
+                     esc(f.subject) if f.subject else "—", msg))
     if rows:
         out += ["| file:line | severity | rule | element | message |", "|---|---|---|---|---|"]
         for loc, sev, rule, element, msg in rows[:MAX_ROWS]:

@@ -11,6 +11,12 @@ Decisions, so consumers know what to expect:
 - Levels: error -> ``error``, warning -> ``warning``, info -> ``note``.
 - The fix hint closes the message text (``"...\\nHint: ..."``): most viewers show only the message.
   Element, YAML path, hint and figures are also in the result's ``properties``.
+- One cause reported once (``packwarden.grouping``) is one result: the members of a group of
+  parallel packages after the first are ``relatedLocations``, and ``properties`` name them
+  (``members``, ``group``), the other rules that found the cause (``alsoFoundBy``) and the
+  fingerprints the members had alone (``mergedFingerprints``).
+- Each result's ``properties.assumptions`` lists what its figures rest on that the design does not
+  give.
 - A waived finding is a result with a ``suppressions`` entry (kind ``inSource``: the waiver lives
   in the design file; its reason is the justification).
 - Input errors (a design that cannot be read or validated, a bad config, a library outside the
@@ -211,13 +217,25 @@ def _result(f: Finding, index: dict[str, int], root: Path, state: str | None) ->
             "element": f.element, "yamlPath": f.location.dotted, "hint": f.hint,
             "figures": [{"name": g.name, "value": _number(g.value), "unit": g.unit}
                         for g in f.figures],
+            "assumptions": list(f.assumptions),
         },
     }
+    related = []
     if f.location.related is not None:  # a netlist's component: the design that names it
         rel = f.location.related
-        result["relatedLocations"] = [{
-            "id": 1, **_location(rel.file, rel.line, rel.column, root),
-            "message": {"text": "the design that reads this netlist"}}]
+        related.append({**_location(rel.file, rel.line, rel.column, root),
+                        "message": {"text": "the design that reads this netlist"}})
+    if f.members:  # one cause on parallel packages: every member's place, one result
+        result["properties"].update(members=list(f.members), group=f.group)
+        for ref, where in zip(f.members[1:], f.locations):
+            related.append({**_location(where.file, where.line, where.column, root),
+                            "message": {"text": f"{ref}, in the same group ({f.group})"}})
+    if f.also:
+        result["properties"]["alsoFoundBy"] = list(f.also)
+    if f.merged:
+        result["properties"]["mergedFingerprints"] = list(f.merged)
+    if related:
+        result["relatedLocations"] = [{"id": i, **r} for i, r in enumerate(related, 1)]
     if f.waived:
         result["suppressions"] = [{"kind": "inSource", "status": "accepted",
                                    "justification": f.waived}]

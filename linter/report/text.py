@@ -28,11 +28,13 @@ def key_figures(figures: dict) -> str:
         parts.append(shape)
     for row in rows(figures, headline=True):
         if not row.is_range:
-            if row.get().known:
-                parts.append(f"{row.label} {figure_text(row.get())}")
+            parts.append(f"{row.label} {figure_text(row.get())}")
             continue
         low, typ, high = row.get("min"), row.get("typ"), row.get("max")
-        if low is None or not low.known or high is None or not high.known:
+        if low is None or high is None:
+            continue
+        if not low.known or not high.known:  # could not be computed: said, not left out
+            parts.append(f"{row.label} n/a")
             continue
         span = figure_text(low)
         if figure_text(high) != span:  # a fixed gate drive is one value, not "12 V–12 V"
@@ -76,6 +78,8 @@ def render(run: RunResult, opts: RenderOptions) -> str:
                          f"{f.rule}: {f.message}{tag}")
             if f.hint and not opts.quiet:
                 block.append(f"    hint: {f.hint}")
+            if not opts.quiet:
+                block.extend(f"    assumes: {note}" for note in f.assumptions)
         if d.linted and not opts.quiet and len(run.designs) <= _FIGURE_LINES_UP_TO:
             figures = key_figures(d.figures)
             if figures:

@@ -171,7 +171,7 @@ def test_example_report_has_title_counts_figures_and_cautions() -> None:
     # key figures as the model computes them, formatted with units
     assert "<tr><th>over-current trip</th><td>1.62 A</td><td>3.62 A</td><td>7.72 A</td></tr>" in html
     assert "<tr><th>prospective short circuit</th><td></td><td>110 A</td><td></td></tr>" in html
-    assert set(charts(html)) == {"ladder", "trip", "tj", "tc"}
+    assert set(charts(html)) == {"ladder", "trip", "tj", "tc", "vds"}
 
 
 def test_report_is_self_contained_with_no_script() -> None:
@@ -236,7 +236,7 @@ def test_unreadable_input_is_reported_not_raised(tmp_path: Path) -> None:
     assert re.search(r"bad\.yaml:\d+:\d+: ", html)
     assert "Not linted: see above." in html
     assert "exit code <b>2</b>" in html
-    assert len(charts(html)) == 4  # the readable design still gets its charts
+    assert len(charts(html)) == 5  # the readable design still gets its charts
 
 
 def test_a_design_without_protector_says_what_is_not_drawn(tmp_path: Path) -> None:
@@ -489,7 +489,7 @@ def test_hostile_names_and_values_come_out_escaped(tmp_path: Path) -> None:
     assert "&lt;script&gt;alert(&#34;pw&#34;)&lt;/script&gt;" in html  # the design name, in the title
     assert "&lt;b&gt;DANGLING&lt;/b&gt;" in html  # a net name inside a finding's message
     assert "&#34;&gt;&lt;i&gt;rev&lt;/i&gt;" in html
-    assert len(charts(html)) == 4  # and the charts still parse
+    assert len(charts(html)) == 5  # and the charts still parse
 
 
 def test_chart_writer_escapes_text_and_attributes() -> None:

@@ -172,7 +172,7 @@ def colours_in(rows: list[bytes], bpp: int, box: list[float]) -> set[tuple[int, 
 
 def test_every_chart_is_laid_out_with_a_size(rendered) -> None:
     charts = rendered["charts"]
-    assert set(charts) == {"ladder", "trip", "tj", "tc"}
+    assert set(charts) == {"ladder", "trip", "tj", "tc", "vds"}
     for name, item in charts.items():
         _, _, w, h = item["box"]
         assert w > 300 and h > 200, (name, item["box"])

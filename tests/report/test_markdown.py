@@ -71,7 +71,7 @@ def test_counts_findings_and_caution(example_run) -> None:
         assert matching, f"no row for {where} {f.rule}"
         row = matching[0]
         assert text(row[1]) == f.severity.value + (" (waived)" if f.waived else "")
-        assert text(row[3]) == (f.element or "—")
+        assert text(row[3]) == (f.subject or "—")
         if f.hint:
             assert f"hint: {f.hint}" in text(row[4])
     [quote] = re.findall(r"<blockquote>(.*?)</blockquote>", page, re.S)
