@@ -24,7 +24,7 @@ import heapq
 import math
 from collections import deque
 from dataclasses import replace
-from itertools import islice
+from itertools import islice, repeat
 from types import MappingProxyType
 from typing import Iterable, Literal, Mapping, Union
 
@@ -609,7 +609,7 @@ class Network:
         # owner, sign, p, q, g, e / owner, sign, p, q, vf, g_on; and the bound on voltages
         linear, diodes, volt_scale = self._terms(index)
         key = _solve_key(self, ground, max_iterations, linear, diodes)
-        known = _SOLVED.get(key) if key is not None else None
+        known = _SOLVED.get(key)
         if known is not None:
             return known
         g_min = min([item[4] for item in linear], default=math.inf)
@@ -709,8 +709,7 @@ class Network:
             voltages[net] = v[i] if grounded else None
         solution = Solution(ground, MappingProxyType(voltages), MappingProxyType(currents),
                             frozenset(conducting), iterations)
-        if key is not None:
-            _remember(key, solution)
+        _remember(key, solution)
         return solution
 
 
@@ -911,16 +910,14 @@ SOLVED_MAX = 512
 
 
 def _solve_key(network: Network, ground: str, max_iterations: int, linear: list,
-               diodes: list) -> tuple | None:
+               diodes: list) -> tuple:
     """What the solve of ``network`` reads: nets and branches in order (the currents are keyed by
-    branch, the index by net), the stamped terms, the ground and the round limit. None where a
-    value could compare equal to a different one: -0.0 equals 0.0 yet can come out as another
-    bit pattern, so an EMF or knee of -0.0 is solved afresh."""
+    branch, the index by net), the stamped terms, the ground and the round limit, and the sign of
+    each EMF and knee: -0.0 equals 0.0, yet a solve with it can give a zero of the other sign."""
     emfs = [t[5] for t in linear] + [t[4] for t in diodes]
-    if 0.0 in emfs and any(e == 0.0 and math.copysign(1.0, e) < 0 for e in emfs):
-        return None
+    signs = tuple(map(math.copysign, repeat(1.0, len(emfs)), emfs))
     return (ground, max_iterations, tuple(network._nets), tuple(network._branches),
-            tuple(linear), tuple(diodes))
+            tuple(linear), tuple(diodes), signs)
 
 
 def _remember(key: tuple, solution: Solution) -> None:

@@ -63,11 +63,11 @@ def test_another_ground_is_another_solve():
 
 
 def test_a_negative_zero_emf_is_never_taken_for_a_positive_one():
-    chain(emf=0.0).solve("B-")
-    assert network._solve_key(chain(emf=-0.0), "B-", 100, *chain(emf=-0.0).linear_terms()[:2]) \
-        is None
-    assert network._solve_key(chain(emf=0.0), "B-", 100, *chain(emf=0.0).linear_terms()[:2]) \
-        is not None
+    positive = chain(emf=0.0).solve("B-")
+    negative = chain(emf=-0.0).solve("B-")
+    assert negative is not positive
+    network._SOLVED.clear()
+    assert repr(chain(emf=-0.0).solve("B-")) == repr(negative)
 
 
 def test_the_memory_is_bounded():
