@@ -608,8 +608,9 @@ class Network:
 
         # owner, sign, p, q, g, e / owner, sign, p, q, vf, g_on; and the bound on voltages
         linear, diodes, volt_scale = self._terms(index)
-        key = _solve_key(self, ground, max_iterations, linear, diodes)
-        known = _SOLVED.get(key)
+        key = (_solve_key(self, ground, max_iterations, linear, diodes)
+               if len(self._branches) <= SOLVED_MAX_BRANCHES else None)
+        known = _SOLVED.get(key) if key is not None else None
         if known is not None:
             return known
         g_min = min([item[4] for item in linear], default=math.inf)
@@ -709,7 +710,8 @@ class Network:
             voltages[net] = v[i] if grounded else None
         solution = Solution(ground, MappingProxyType(voltages), MappingProxyType(currents),
                             frozenset(conducting), iterations)
-        _remember(key, solution)
+        if key is not None:
+            _remember(key, solution)
         return solution
 
 
@@ -905,8 +907,11 @@ def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
 #: [measured: bench/run.py's corpus, issue 19]. A solve is a pure function of its key and a
 #: ``Solution`` is immutable, so a remembered one is the very value a new solve would give.
 _SOLVED: dict[tuple, Solution] = {}
-#: Bound on the solutions kept (a few megabytes at most; the oldest goes first).
+#: Bound on the solutions kept (the oldest goes first), and on the branches of a network whose
+#: solution is kept: a large pack's solves repeat less (one in five), and each would hold its
+#: key and solution for hundreds of branches, so the memory stays at a megabyte or two.
 SOLVED_MAX = 512
+SOLVED_MAX_BRANCHES = 128
 
 
 def _solve_key(network: Network, ground: str, max_iterations: int, linear: list,

@@ -74,3 +74,11 @@ def test_the_memory_is_bounded():
     for k in range(network.SOLVED_MAX + 20):
         chain(load=1.0 + k / 1000).solve("B-")
     assert len(network._SOLVED) == network.SOLVED_MAX
+
+
+def test_a_network_above_the_size_bound_is_solved_afresh(monkeypatch):
+    monkeypatch.setattr(network, "SOLVED_MAX_BRANCHES", 3)
+    first = chain().solve("B-")
+    again = chain().solve("B-")
+    assert again is not first and repr(again) == repr(first)
+    assert not network._SOLVED
