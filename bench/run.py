@@ -17,6 +17,8 @@ components. Then, in one run:
 * the floor on the same files: libyaml parsing alone (``yaml.compose`` with ``CSafeLoader``, in
   process) and, as the peer a user might reach for, schema-only validation with the
   general-purpose ``check-jsonschema`` command (one file per process, and the whole batch);
+* the plain YAML linter that often runs in the same pre-commit hook, ``yamllint`` with its
+  default rules, one file per process, taking turns with the cold lint (issue 19);
 * the Monte Carlo yield run, 100 000 samples;
 * the start-up floor: processes that only start the interpreter, import the libraries the
   linter is built on (pydantic, typer, pyyaml), and build the schema's validators;
@@ -59,7 +61,7 @@ RIDGELINE_PARTS = EXAMPLES / "parts" / "ridgeline-parts.yaml"
 ORCHARD_PARTS = EXAMPLES / "parts" / "orchard-parts.yaml"
 DESIGN_SCHEMA = REPO / "schemas" / "design.schema.json"
 
-# The issue's targets.
+# The targets of issue 7.
 TARGET_FLOOR_RATIO = 3.0
 TARGET_COLD = 0.3  # s
 TARGET_SCALING = 12.0  # time ratio allowed for ten times the components
@@ -68,9 +70,13 @@ TARGET_MEMORY = 150.0  # MB
 # pack and the low-side example are measured and stated, with no target).
 TARGET_MONTE_CARLO = {"single": 1.0, "pack4s2p": 2.0}
 TARGET_EDITOR = 1.0  # s from an edit to its diagnostics in the editor (issue 17)
+# The targets of issue 19 (speed with the events in).
+TARGET_YAMLLINT_RATIO = 2.0  # cold lint of the single-cell example against yamllint's
+TARGET_FLOOR_RATIO_EVENTS = 8.0  # batch CPU per design against libyaml's compose of it
+TARGET_RELINT = {"single": 0.005, "large": 0.050}  # s, the editor's warm re-lint
 
 FULL = dict(single=5000, pack4s2p=4900, large=100, scaling=[10, 20, 50, 100, 200, 500, 1000, 2000],
-            cold_runs=11, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3,
+            cold_runs=9, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3,
             stage_designs=200, editor_runs=51, editor_trips=10)
 TINY = dict(single=12, pack4s2p=6, large=2, scaling=[10, 20, 50, 100], cold_runs=2,
             scaling_runs=2, mc_samples=2_000, mc_runs=1, floor_runs=1, stage_designs=2,
@@ -245,24 +251,26 @@ def packwarden_cmd() -> list[str]:
     return [str(script)] if script.exists() else [sys.executable, "-m", "packwarden.cli"]
 
 
-def peer_cmd() -> list[str] | None:
-    script = Path(sys.executable).with_name("check-jsonschema")
+def peer_cmd(name: str = "check-jsonschema") -> list[str] | None:
+    script = Path(sys.executable).with_name(name)
     if script.exists():
         return [str(script)]
-    found = shutil.which("check-jsonschema")
+    found = shutil.which(name)
     return [found] if found else None
 
 
-def ensure_peer(install: bool) -> tuple[list[str] | None, str]:
-    cmd = peer_cmd()
+def ensure_peer(install: bool, name: str = "check-jsonschema") -> tuple[list[str] | None, str]:
+    """The peer command ``name`` (a distribution of the same name in the bench extra), installed
+    into this environment when it is missing and ``install`` allows it."""
+    cmd = peer_cmd(name)
     if cmd is not None or not install:
-        return cmd, "" if cmd else "check-jsonschema is not installed (pip install -e '.[bench]')"
-    print("installing check-jsonschema into this environment (the bench extra) ...", flush=True)
-    proc = subprocess.run([sys.executable, "-m", "pip", "install", "-q", "check-jsonschema"],
+        return cmd, "" if cmd else f"{name} is not installed (pip install -e '.[bench]')"
+    print(f"installing {name} into this environment (the bench extra) ...", flush=True)
+    proc = subprocess.run([sys.executable, "-m", "pip", "install", "-q", name],
                           capture_output=True, text=True)
-    cmd = peer_cmd()
+    cmd = peer_cmd(name)
     if cmd is None:
-        return None, ("check-jsonschema could not be installed: "
+        return None, (f"{name} could not be installed: "
                       + (proc.stderr.strip().splitlines() or ["pip failed"])[-1])
     return cmd, ""
 
@@ -657,6 +665,25 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
                  f"CPU {b['cpu_per_design_s'] * 1e3:.2f} ms vs {floor * 1e3:.3f} ms = {ratio_cpu:.1f}x"
                  f" (wall on {b['jobs']} cores vs floor on {b['jobs']}: {ratio_wall:.1f}x)",
                  verdict(ratio_cpu <= TARGET_FLOOR_RATIO)))
+    rows.append((f"batch lint <= {TARGET_FLOOR_RATIO_EVENTS:g}x libyaml parse floor (issue 19)",
+                 f"CPU {ratio_cpu:.1f}x the floor per design",
+                 verdict(ratio_cpu <= TARGET_FLOOR_RATIO_EVENTS)))
+    lint_single = res["cold"]["single"]["cached"]["median_s"]
+    yl = res.get("yamllint", {}).get("single", {}).get("single")
+    if yl is None:
+        rows.append((f"cold lint <= {TARGET_YAMLLINT_RATIO:g}x yamllint (single)",
+                     res.get("yamllint", {}).get("reason") or "yamllint not available", "n/a"))
+    else:
+        ratio = lint_single / yl["median_s"]
+        rows.append((f"cold lint <= {TARGET_YAMLLINT_RATIO:g}x yamllint (single)",
+                     f"{lint_single:.3f} s vs yamllint {yl['median_s']:.3f} s = {ratio:.2f}x "
+                     f"(interleaved, median of {yl['runs']})",
+                     verdict(ratio <= TARGET_YAMLLINT_RATIO)))
+    for kind, limit in TARGET_RELINT.items():
+        e = res["editor"]["relint"][kind]
+        rows.append((f"editor: warm re-lint < {limit * 1e3:g} ms ({kind})",
+                     f"{e['median_s'] * 1e3:.2f} ms ({e['components']} components, median of "
+                     f"{e['runs']})", verdict(e["median_s"] < limit)))
     peer = res.get("peer", {})
     for kind, c in res["cold"].items():
         p = peer.get("single", {}).get(kind)
@@ -716,6 +743,8 @@ def print_report(res: dict) -> None:
               f"   ({c['components']} components; no cache {c['uncached']['median_s']:.3f} s)")
     for kind, p in res.get("peer", {}).get("single", {}).items():
         print(f"{'check-jsonschema, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
+    for kind, p in res.get("yamllint", {}).get("single", {}).items():
+        print(f"{'yamllint, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
     for step, t in res["startup_floor"].items():
         print(f"{'start-up floor: ' + step + ' (median)':<44} {t['median_s']:>12.3f} s")
     for kind, f in res["floor"]["single"].items():
@@ -774,7 +803,7 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--keep", type=Path, default=None,
                     help="write the corpus into this folder and keep it")
     ap.add_argument("--no-install", action="store_true",
-                    help="do not install check-jsonschema when it is missing")
+                    help="do not install the peers (check-jsonschema, yamllint) when missing")
     args = ap.parse_args(argv)
     cfg = TINY if args.tiny else FULL
     cores = os.cpu_count() or 1
@@ -808,12 +837,15 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
     env = cached_env()
     pw = packwarden_cmd()
     peer, why = ensure_peer(not args.no_install)
+    yamllint, yamllint_why = ensure_peer(not args.no_install, "yamllint")
 
     print("warm-up runs (writing bytecode caches) ...", flush=True)
     for f in samples.values():
         timed(pw + ["check", str(f)], env)
         if peer:
             timed(peer_args(peer) + [str(f)], env)
+        if yamllint:
+            timed(yamllint + [str(f)], env)
 
     import yaml
     print("cold single-file lint, the peer on the same file, the start-up floor ...", flush=True)
@@ -824,15 +856,21 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
                    "schemas/design.schema.json FILE...", "reason": why}
     if peer:
         res["peer"]["single"] = {}
+    # yamllint with its default rules, as a pre-commit hook runs it (its findings, exit 1, are
+    # the long lines and missing document starts of the designs: a lint, not a failure).
+    res["yamllint"] = {"available": yamllint is not None, "command": "yamllint FILE",
+                       "reason": yamllint_why, "single": {}}
     for kind, f in samples.items():
         comps = len(yaml.safe_load(f.read_text(encoding="utf-8"))["components"])
         # The lint and the peer take turns, so a machine that speeds up or slows down during the
         # run (a shared or virtual one does) weighs on both alike.
-        lint_times, peer_times = [], []
+        lint_times, peer_times, yamllint_times = [], [], []
         for _ in range(cfg["cold_runs"]):
             lint_times.append(timed(pw + ["check", str(f)], env))
             if peer:
                 peer_times.append(timed(peer_args(peer) + [str(f)], env))
+            if yamllint:
+                yamllint_times.append(timed(yamllint + [str(f)], env))
             if kind == "single":
                 time_startup(env, startup)
         nocache.mkdir(exist_ok=True)
@@ -844,6 +882,8 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
         shutil.rmtree(nocache, ignore_errors=True)
         if peer:
             res["peer"]["single"][kind] = _stats(peer_times)
+        if yamllint:
+            res["yamllint"]["single"][kind] = _stats(yamllint_times)
 
     res["startup_floor"] = {step: _stats(t) for step, t in startup.items()}
 

@@ -5,6 +5,7 @@ results in the order of the designs.
 from __future__ import annotations
 
 import datetime as _dt
+import gc
 import os
 import sys
 from pathlib import Path
@@ -23,6 +24,12 @@ from .results import DesignResult, InternalError, RunResult
 #: libraries would cost more than the workers save: on two cores the pool pays from about 40-50
 #: small designs [measured: the profile behind issue 11; re-measured by bench/run.py's batch].
 PARALLEL_MIN_DESIGNS = 48
+
+#: A batch runs with the cycle collector off and collects only the young generation (what the
+#: last designs made) after every this many designs. A design's lint leaves almost no cycles
+#: behind, yet the collector, left on, walks the growing results again and again: 5-10 % of a
+#: batch's CPU [measured: bench/run.py's corpus in process, issue 19].
+COLLECT_EVERY = 32
 
 
 def default_jobs() -> int:
@@ -77,13 +84,19 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
         run.designs = _lint_in_workers(session, found, workers, progress, rule_paths)
         _adopt(session, found, run.designs)
     else:
-        for done, (path, shown) in enumerate(found, 1):
-            result = _lint_one(session, path, shown)
-            if not keep_models:
-                result.model = None
-            run.designs.append(result)
-            if progress is not None:
-                progress(done, len(found), shown)
+        collecting = _pause_collector()
+        try:
+            for done, (path, shown) in enumerate(found, 1):
+                result = _lint_one(session, path, shown)
+                if not keep_models:
+                    result.model = None
+                run.designs.append(result)
+                if progress is not None:
+                    progress(done, len(found), shown)
+                if done % COLLECT_EVERY == 0:
+                    gc.collect(0)
+        finally:
+            _resume_collector(collecting)
     # a bad config is reported once, not once per design
     seen: set[str] = set()
     for d in run.designs:
@@ -141,9 +154,10 @@ def _worker_start(registry: Registry | None, rule_paths: list[Path], config: Pat
     _WORKER_SESSION = Session(registry=registry, config_override=config, today=today,
                               keep_events=keep_events)
     # What the worker holds now (modules, schemas, rules) lives as long as the worker: keep the
-    # cycle collector from walking it again for every design.
-    import gc
+    # cycle collector from walking it again for every design; the worker collects the young
+    # generation after each chunk instead (_worker_lint).
     gc.freeze()
+    gc.disable()
 
 
 def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
@@ -153,6 +167,7 @@ def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
         result = _lint_one(_WORKER_SESSION, path, shown)
         result.model = None  # the model stays behind: it is large, and only this process has it
         out.append(result)
+    gc.collect(0)
     return out
 
 
@@ -223,10 +238,27 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
 
 def _lint_here(session: Session, chunk: list[tuple[Path, str]]) -> list[DesignResult]:
     """A chunk linted in this process, as a worker would have: no models kept."""
-    results = [_lint_one(session, path, shown) for path, shown in chunk]
-    for result in results:
-        result.model = None
+    collecting = _pause_collector()
+    try:
+        results = [_lint_one(session, path, shown) for path, shown in chunk]
+        for result in results:
+            result.model = None
+        gc.collect(0)
+    finally:
+        _resume_collector(collecting)
     return results
+
+
+def _pause_collector() -> bool:
+    """Turn the cycle collector off for a batch (see :data:`COLLECT_EVERY`); whether it was on."""
+    collecting = gc.isenabled()
+    gc.disable()
+    return collecting
+
+
+def _resume_collector(collecting: bool) -> None:
+    if collecting:
+        gc.enable()
 
 
 def _adopt(session: Session, found: list[tuple[Path, str]], results: list[DesignResult]) -> None:

@@ -1103,6 +1103,13 @@ class RdsOnPoint(Strict):
         if self.vgs == 0:
             raise inconsistent("vgs", "0 V: a row of the table holds the gate voltage it was "
                                       "measured at; at 0 V the switch is off")
+        if self.typ is not None and self.max is not None and self.max >= 2 * self.typ:
+            # The model's lowest corner is typ - (max - typ) (model/rdson.py), which is then not
+            # positive: refused here, at the row, rather than as a crash of the model.
+            raise inconsistent("max", (
+                f"{_q(self.max, 'Ω')} is at least twice typ {_q(self.typ, 'Ω')}, so the lowest "
+                f"R_DS(on), typ - (max - typ), would not be positive; check the row against the "
+                f"data sheet"))
         return self
 
 

@@ -83,17 +83,22 @@ def test_monte_carlo(results: dict) -> None:
 def test_every_target_has_a_verdict(results: dict) -> None:
     names = " ".join(name for name, _, _ in results["targets"])
     for target in ("parse floor", "faster than peer", "cold single-file", "10x components",
-                   "peak memory", "Monte Carlo"):
+                   "peak memory", "Monte Carlo", "yamllint", "warm re-lint"):
         assert target in names
     assert {verdict for _, _, verdict in results["targets"]} <= {"PASS", "MISS", "n/a"}
 
 
-def test_the_peer_check_jsonschema(results: dict) -> None:
-    peer = results["peer"]
+def _installed(peer: dict, name: str) -> None:
+    """Fail in CI, else skip, when the benchmark could not run the peer ``name``."""
     if not peer["available"]:
         if os.environ.get("CI"):
-            pytest.fail(f"check-jsonschema is required in CI: {peer['reason']}")
-        pytest.skip(f"check-jsonschema not available: {peer['reason']}")
+            pytest.fail(f"{name} is required in CI: {peer['reason']}")
+        pytest.skip(f"{name} not available: {peer['reason']}")
+
+
+def test_the_peer_check_jsonschema(results: dict) -> None:
+    peer = results["peer"]
+    _installed(peer, "check-jsonschema")
     assert all(_positive(peer["single"][k]["median_s"]) for k in KINDS)
     assert peer["batch"]["designs"] == results["batch"]["designs"]
     assert _positive(peer["batch"]["designs_per_s"])
@@ -129,3 +134,12 @@ def test_the_editor_re_lint_and_round_trip(results: dict) -> None:
         pytest.skip(trip["reason"])
     for key in ("fix_cleared", "flaw_flagged"):
         assert trip[key]["runs"] >= 1 and trip[key]["min_s"] >= trip["debounce_s"]
+
+
+def test_the_peer_yamllint(results: dict) -> None:
+    # The plain YAML linter timed on the same files as the cold lint, taking turns with it.
+    peer = results["yamllint"]
+    _installed(peer, "yamllint")
+    for kind in KINDS:
+        assert _positive(peer["single"][kind]["median_s"])
+        assert peer["single"][kind]["runs"] == results["cold"][kind]["cached"]["runs"]

@@ -24,7 +24,7 @@ import heapq
 import math
 from collections import deque
 from dataclasses import replace
-from itertools import islice
+from itertools import islice, repeat
 from types import MappingProxyType
 from typing import Iterable, Literal, Mapping, Union
 
@@ -608,6 +608,11 @@ class Network:
 
         # owner, sign, p, q, g, e / owner, sign, p, q, vf, g_on; and the bound on voltages
         linear, diodes, volt_scale = self._terms(index)
+        key = (_solve_key(self, ground, max_iterations, linear, diodes)
+               if len(self._branches) <= SOLVED_MAX_BRANCHES else None)
+        known = _SOLVED.get(key) if key is not None else None
+        if known is not None:
+            return known
         g_min = min([item[4] for item in linear], default=math.inf)
         if diodes:
             g_min = min(g_min, min([item[5] for item in diodes]))
@@ -703,8 +708,11 @@ class Network:
         for net, i in index.items():
             grounded = i == ig or (component[i] == ground_component and component[i] >= 0)
             voltages[net] = v[i] if grounded else None
-        return Solution(ground, MappingProxyType(voltages), MappingProxyType(currents),
-                        frozenset(conducting), iterations)
+        solution = Solution(ground, MappingProxyType(voltages), MappingProxyType(currents),
+                            frozenset(conducting), iterations)
+        if key is not None:
+            _remember(key, solution)
+        return solution
 
 
 def _components(n: int, elements: Iterable[_Element]) -> list[int]:
@@ -888,3 +896,36 @@ def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
         if not math.isfinite(x[k]):
             raise NetworkError("singular network: solution is not finite")
     return x
+
+
+# --- solves remembered by their values -------------------------------------------------------
+
+#: Solutions by everything a solve reads (see :func:`_solve_key`), oldest first. A design's model
+#: asks for the same network with the same values again (an event's point that another already
+#: solved), and a batch's designs share most of their networks (the same cells, protector and
+#: switches with another load): about nine solves in ten of the benchmark's batch are repeats
+#: [measured: bench/run.py's corpus, issue 19]. A solve is a pure function of its key and a
+#: ``Solution`` is immutable, so a remembered one is the very value a new solve would give.
+_SOLVED: dict[tuple, Solution] = {}
+#: Bound on the solutions kept (the oldest goes first), and on the branches of a network whose
+#: solution is kept: a large pack's solves repeat less (one in five), and each would hold its
+#: key and solution for hundreds of branches, so the memory stays at a megabyte or two.
+SOLVED_MAX = 512
+SOLVED_MAX_BRANCHES = 128
+
+
+def _solve_key(network: Network, ground: str, max_iterations: int, linear: list,
+               diodes: list) -> tuple:
+    """What the solve of ``network`` reads: nets and branches in order (the currents are keyed by
+    branch, the index by net), the stamped terms, the ground and the round limit, and the sign of
+    each EMF and knee: -0.0 equals 0.0, yet a solve with it can give a zero of the other sign."""
+    emfs = [t[5] for t in linear] + [t[4] for t in diodes]
+    signs = tuple(map(math.copysign, repeat(1.0, len(emfs)), emfs))
+    return (ground, max_iterations, tuple(network._nets), tuple(network._branches),
+            tuple(linear), tuple(diodes), signs)
+
+
+def _remember(key: tuple, solution: Solution) -> None:
+    if len(_SOLVED) >= SOLVED_MAX:
+        _SOLVED.pop(next(iter(_SOLVED)), None)
+    _SOLVED[key] = solution
