@@ -1,9 +1,11 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
+from packwarden.model import VDS_DERATING
+from ._spike import spike_within
 from pydantic import Field
 
 
 class Options(RuleOptions):
-    vds_derating: float = Field(0.8, gt=0, le=1, description=(
+    vds_derating: float = Field(VDS_DERATING, gt=0, le=1, description=(
         "fraction of vds_max a switch may block [practice: commercial derating 80 %]"))
     vgs_derating: float = Field(0.7, gt=0, le=1, description=(
         "fraction of vgs_max the gate may see [published: MIL-DTL-917 table XIX, 70 %]"))
@@ -59,10 +61,10 @@ def check(ctx, options):
                     path=path, element=ch.package, key=f"vds-{ch.name}",
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
-                    hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"
+                    hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V', toward='up')}"
                          + (", or prevent reverse charger connection" if "reversed" in what else "")
-                         + (", or lower the wiring inductance, slow the turn-off or clamp the pack "
-                            "terminals with a TVS diode" if "wiring spike" in what else ""))
+                         + (f", or {spike_within(spike, limit)}" if "wiring spike" in what
+                            and spike_within(spike, limit) else ""))
         if gd is None or ch.package in seen:
             continue
         seen.add(ch.package)
@@ -73,7 +75,8 @@ def check(ctx, options):
                 f"of its vgs_max {fq(part.vgs_max, 'V')} is {fq(glimit, 'V')}",
                 path=path, element=ch.package, key="vgs",
                 figures=[Figure("gate drive max", gd.max, "V"), Figure("vgs_max", part.vgs_max, "V")],
-                hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V')}, or clamp the gate")
+                hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V', toward='up')}, "
+                     f"or a protector whose gate drive stays at or below {fq(glimit, 'V', toward='down')}")
         if ch.vgs_th_max >= gd.min:
             yield ctx.finding(
                 f"{ch.package} gate threshold max {fq(ch.vgs_th_max, 'V')} is not below the lowest "
@@ -82,3 +85,4 @@ def check(ctx, options):
                 path=path, element=ch.package, key="vgs-th",
                 figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.min, "V")],
                 hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")
+

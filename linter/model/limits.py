@@ -16,7 +16,7 @@ from . import copper
 from .fuse import CONTINUOUS_DERATING, curve_ambient_factor, max_continuous_current
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
-           "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL"]
+           "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL", "VDS_DERATING"]
 
 #: Highest junction temperature allowed in service, below the part's own tj_max [practice:
 #: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
@@ -43,6 +43,9 @@ FAULT_RESISTANCE = 0.080
 #: glass transition of common FR-4 laminates, 130-180 °C [memory]; above it insulation softens
 #: and a trace may lift]. Not the melting point: a conductor that nearly melts has failed.
 CONDUCTOR_FINAL = 160.0
+#: Share of its vds_max a switch may block [practice: commercial derating 80 %]; the turn-off
+#: spike's hints (short-circuit-stress) propose values that meet it, so both rules agree.
+VDS_DERATING = 0.8
 
 
 @record(frozen=True)
@@ -53,7 +56,8 @@ class Limits:
     ``derating``; ``trace_rise``: conductor-capacity's ``delta_t``; ``charge_margin``:
     threshold-ladder's ``charge_margin``; ``cell_ageing`` and ``fault_resistance``:
     short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner);
-    ``conductor_final``: conductor-withstand's ``final_temperature``.
+    ``conductor_final``: conductor-withstand's ``final_temperature``; ``vds_derating``:
+    switch-voltage-margin's ``vds_derating``.
     """
 
     junction: float = JUNCTION_LIMIT
@@ -63,6 +67,7 @@ class Limits:
     cell_ageing: float = CELL_AGEING
     fault_resistance: float = FAULT_RESISTANCE
     conductor_final: float = CONDUCTOR_FINAL
+    vds_derating: float = VDS_DERATING
 
     @classmethod
     def of(cls, options: Mapping[str, Any]) -> "Limits":
@@ -80,7 +85,8 @@ class Limits:
                    getattr(reach, "ageing", CELL_AGEING),
                    getattr(reach, "fault_resistance", FAULT_RESISTANCE),
                    getattr(options.get("conductor-withstand"), "final_temperature",
-                           CONDUCTOR_FINAL))
+                           CONDUCTOR_FINAL),
+                   getattr(options.get("switch-voltage-margin"), "vds_derating", VDS_DERATING))
 
     def junction_ceiling(self, fet: Any) -> float:
         """The highest junction temperature a FET part may reach: the limit or its tj_max."""
