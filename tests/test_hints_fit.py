@@ -53,6 +53,17 @@ def _part_field(component: str, name: str):
     return apply
 
 
+def _scaled_value(component: str):
+    """The component's library resistor written inline, its value times the middle (geometric)
+    of the hinted factor range "A-B"."""
+    def apply(doc, value: str) -> list[Override]:
+        low, high = (float(x) for x in value.split("-"))
+        part = _library_part(doc, doc.data["components"][component]["part"])
+        ohms = parse_quantity(part["value"], "Ω") * (low * high) ** 0.5
+        return [_inline(doc, component, value=f"{ohms * 1e3:.6f} mΩ")]
+    return apply
+
+
 def _resistor(component: str, resistance: str):
     """An inline resistor of ``resistance`` with the hinted power rating."""
     def apply(doc, value: str) -> list[Override]:
@@ -77,6 +88,10 @@ HINTS = [
      _resistor("R2", "4 kΩ")),
     ("fet-voltage-too-low.yaml", "switch-voltage-margin", "Q1", "use a FET with vds_max ≥", "V",
      _part_field("Q1", "vds_max")),
+    # the weakest short inside the over-current window: a factor on the shunt that moves the
+    # window below the short while its minimum stays above the 25 A peak
+    ("ridgeline-weak-short.yaml", "short-circuit-reach", "U1", "a factor", "",
+     _scaled_value("RSH")),
     # the turn-off spike: both rules propose values meeting the derated limit, so either clears
     # both findings
     ("wiring-spike.yaml", "short-circuit-stress", "Q1", "keep pack.wiring_inductance ≤", "H",
@@ -109,12 +124,14 @@ def test_a_hinted_value_applied_clears_its_finding_and_raises_no_other(
         session, design, rule, element, words, unit, apply) -> None:
     shown = f"{FLAWED}/{design}"
     base = lint_file(session, REPO / shown, shown)
-    pattern = re.compile(re.escape(words) + r" ([0-9.]+ ?[^\s,;)]*)")
+    pattern = re.compile(re.escape(words) + (r" ([0-9.]+-[0-9.]+)" if not unit else
+                                             r" ([0-9.]+ ?[^\s,;)]*)"))
     hinted = [(f, m.group(1)) for f in base.findings if f.rule == rule and f.element == element
               for m in [pattern.search(f.hint or "")] if m]
     assert hinted, f"no {rule} hint at {element} proposes '{words} <value>'"
     for finding, value in hinted:
-        parse_quantity(value, unit)  # the hint writes a value the format reads, in its unit
+        if unit:
+            parse_quantity(value, unit)  # the hint writes a value the format reads, in its unit
         doc = load_file(REPO / shown, shown)
         changed = lint_file(session, REPO / shown, shown,
                             document=apply_overrides(doc, apply(doc, value)))
@@ -124,6 +141,17 @@ def test_a_hinted_value_applied_clears_its_finding_and_raises_no_other(
         assert _identity(finding) not in after, f"{value} leaves: {finding.message}"
         new = [f for f in changed.findings if _identity(f) not in before]
         assert not new, f"{value} raises: " + "; ".join(f"{f.rule}: {f.message}" for f in new)
+
+
+@pytest.mark.parametrize("design", ["narrow-trace.yaml", "high-threshold-fet.yaml"])
+def test_an_empty_range_says_so_and_names_a_structural_change(session, design) -> None:
+    # narrow-trace: the trip window spans 1.62-7.72 A (× 4.75) and must sit above the 1.6 A peak
+    # and below the 6.89 A weakest short (× 4.31): no factor on the sense resistance fits both.
+    shown = f"{FLAWED}/{design}"
+    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings
+             if f.rule == "short-circuit-reach"]
+    assert hints and all(h.startswith("no sense resistance or detection voltage fits") and
+                         "shunt-sensed protector" in h for h in hints), hints
 
 
 def test_no_hint_names_a_component_the_format_cannot_describe(session) -> None:
