@@ -97,13 +97,15 @@ def _uncleared_hint(m, p, oc, i):
     load = max(loads)
     stronger = ("or cut the loop's resistance (cells of lower internal resistance, more in "
                 "parallel, heavier conductors) so the weakest short draws more")
-    if oc.max / oc.min < i / load:
+    # compared as products: a mutated design may give a zero trip minimum or a zero short
+    if i > 0 and oc.max * load < i * oc.min:
         return (f"bring the over-current trip max below {fq(i, 'A', toward='down')} while its "
                 f"min stays at or above the load {fq(load, 'A', toward='up')} (a factor "
                 f"{oc.max / i:.3g}-{oc.min / load:.3g} on the sense resistance, or a protector "
                 f"with a detection voltage lower by that factor); {stronger}")
-    return (f"no sense resistance or detection voltage fits: the over-current trip window spans "
-            f"× {oc.max / oc.min:.3g} from min to max, wider than the room between the load "
-            f"{fq(load, 'A')} its min must clear and the weakest short {fq(i, 'A')} "
-            f"(× {i / load:.3g}); a shunt-sensed protector (a narrower window), a protector with "
+    spans = f" × {oc.max / oc.min:.3g}" if oc.min > 0 else ""
+    return (f"no sense resistance or detection voltage fits: the over-current trip window "
+            f"{fq(oc.min, 'A')}-{fq(oc.max, 'A')} spans{spans} from min to max, wider than the room "
+            f"between the load {fq(load, 'A')} its min must clear and the weakest short "
+            f"{fq(i, 'A')}; a shunt-sensed protector (a narrower window), a protector with "
             f"a short-circuit detection the weakest short reaches, {stronger}")
