@@ -159,20 +159,26 @@ def check(
     if yield_samples:
         from .montecarlo import add_yield
         text = add_yield(text, format, run, yield_samples, seed, distribution.value)
-    if output is not None:
-        try:
-            output.write_text(text, encoding="utf-8")
-        except OSError as exc:
-            sys.stderr.write(f"{output}:1:1: cannot write the report: {exc.strerror or exc}\n")
-            raise typer.Exit(2)
-    else:
-        sys.stdout.write(text)
+    _emit(text, output)
     if comparison is not None:
         note(comparison.summary())
     code = run.exit_code()
     if write_baseline is not None and comparison is None and code == 1:
         code = 0  # every finding is now in the baseline just written
     raise typer.Exit(code)
+
+
+def _emit(text: str, output: Optional[Path]) -> None:
+    """Write a command's report to ``output``, else to stdout; a file that cannot be written is
+    one located line and exit code 2."""
+    if output is None:
+        sys.stdout.write(text)
+        return
+    try:
+        output.write_text(text, encoding="utf-8")
+    except OSError as exc:
+        sys.stderr.write(f"{output}:1:1: cannot write the report: {exc.strerror or exc}\n")
+        raise typer.Exit(2)
 
 
 def _designs_only(paths: List[str]) -> List[str]:
@@ -368,6 +374,55 @@ def explain_text(r) -> str:
 
 def _indent(text: str) -> str:
     return "\n".join("    " + ln for ln in text.strip("\n").splitlines()) + "\n"
+
+
+class AssistFormat(str, Enum):
+    text = "text"
+    json = "json"
+    html = "html"
+
+
+@app.command("assist")
+def assist_command(
+    paths: List[str] = typer.Argument(..., metavar="PATH",
+                                      help="design files, or folders to search for designs"),
+    format: AssistFormat = typer.Option(
+        AssistFormat.text, "--format", "-f",
+        help="text, json, or html (the review report with an assistant section per design)"),
+    output: Optional[Path] = typer.Option(None, "--output", "-o", help="write the answer here"),
+    config: Optional[Path] = typer.Option(None, "--config", help="use this config file"),
+    peak_duration: Optional[str] = typer.Option(
+        None, "--peak-duration", metavar="TIME",
+        help="duration of the peak whose highest current is sought, e.g. '100 ms' "
+             "(default: the design's own peak duration)"),
+) -> None:
+    """The design assistant: the loads and ambient range each design passes at (its capability
+    envelope, each limit with the finding that sets it), and the library parts that would fix
+    its findings, each re-linted in place. Exit codes as for `check`."""
+    from .assist import assist_run, render_json, render_text
+    seconds = None
+    if peak_duration is not None:
+        from .quantities import QuantityError, parse_quantity
+        try:
+            seconds = parse_quantity(peak_duration, "s")
+        except QuantityError as exc:
+            sys.stderr.write(f"packwarden assist: --peak-duration: {exc}\n")
+            raise typer.Exit(2)
+        if seconds <= 0:
+            sys.stderr.write("packwarden assist: --peak-duration: a peak lasts longer than 0 s\n")
+            raise typer.Exit(2)
+    import gc
+    gc.enable()  # main turned it off for start-up; the searches lint the design many times
+    run, helped = assist_run(paths, config=config, peak_duration=seconds)
+    if format is AssistFormat.json:
+        text = render_json(run, helped)
+    elif format is AssistFormat.html:
+        from .report import RenderOptions, formatter
+        text = formatter("html")(run, RenderOptions())
+    else:
+        text = render_text(run, helped)
+    _emit(text, output)
+    raise typer.Exit(run.exit_code())
 
 
 #: True when the command runs as its own process (``main``), not called from other code.

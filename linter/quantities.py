@@ -279,15 +279,31 @@ def _fmt_number(value: float) -> str:
     return f"{value:g}"
 
 
+def _rounded_toward(value: float, digits: int, toward: str) -> float:
+    """``value`` at ``digits`` significant figures, rounded up or down (away from the nearest
+    only when the nearest would not meet the bound)."""
+    nearest = float(f"{value:.{digits}g}")
+    if (toward == "up" and nearest >= value) or (toward == "down" and nearest <= value):
+        return nearest
+    step = 10.0 ** (math.floor(math.log10(abs(value))) - digits + 1)
+    return float(f"{nearest + (step if toward == 'up' else -step):.{digits}g}")
+
+
 _ENG = [(1e9, "G"), (1e6, "M"), (1e3, "k"), (1.0, ""), (1e-3, "m"), (1e-6, "µ"), (1e-9, "n"),
         (1e-12, "p")]
 
 
-def format_quantity(value: float, unit: str, digits: int = 3) -> str:
-    """Format ``value`` (SI) with an engineering prefix and ``digits`` significant figures."""
+def format_quantity(value: float, unit: str, digits: int = 3, toward: str | None = None) -> str:
+    """Format ``value`` (SI) with an engineering prefix and ``digits`` significant figures.
+
+    ``toward`` rounds a bound so that the figure shown still meets it: ``"up"`` for an "at least"
+    (a hint's ``≥ 3.14 mm`` for 3.1304 mm), ``"down"`` for an "at most"; the nearest otherwise.
+    """
     spec = UNITS.get(unit)
     if not math.isfinite(value):
         return f"{value} {unit}"
+    if toward is not None and value != 0:
+        value = _rounded_toward(value, digits, toward)
     if unit == "months" and 0 < value < 1:
         return _short_duration(value, digits)
     if spec is not None and not spec.prefixes or value == 0:

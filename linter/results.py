@@ -37,6 +37,8 @@ class DesignResult:
     #: that list passing checks (JUnit).
     checked: list[str] = field(default_factory=list)
     model: Any = None
+    #: The design assistant's answer (``packwarden assist``), a plain dict; None unless asked.
+    assistant: dict[str, Any] | None = None
 
 
 @record

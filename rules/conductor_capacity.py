@@ -59,7 +59,7 @@ def check(ctx, options):
                     figures=base + [Figure("IPC-2221 capacity", rating.current, "A"),
                                     Figure("cross-section", rating.area_mil2, "mil²"),
                                     Figure("width needed", need.width, "m")],
-                    hint=f"widen {c.refdes} to ≥ {fq(need.width, 'm')} at this copper weight"
+                    hint=f"widen {c.refdes} to ≥ {fq(need.width, 'm', toward='up')} at this copper weight"
                          + (", move it to an outer layer" if part.layer.value == "inner" else "")
                          + ", use heavier copper, or add a parallel trace on another layer")
                 continue

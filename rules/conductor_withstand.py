@@ -83,7 +83,7 @@ def check(ctx, options):
 
 def _hint(c, need, thick, delay):
     if thick is not None:
-        return (f"widen {c.refdes} to ≥ {fq(need / thick, 'm')} at this copper weight, use "
+        return (f"widen {c.refdes} to ≥ {fq(need / thick, 'm', toward='up')} at this copper weight, use "
                 f"heavier copper, or shorten {delay}")
     return f"use {_size(need)} for {c.refdes}, or shorten {delay}"
 

@@ -67,9 +67,7 @@ def check(ctx, options):
             f"the weakest short to catch draws only {fq(i, 'A')} ({loop}), {below}, so it may "
             f"never be cleared ({event.corner})",
             path=path, element=p.refdes, key="weakest-short-uncleared", figures=figures,
-            hint=f"bring the over-current trip max below {fq(i, 'A')}: a protector with a lower "
-                 f"over-current detection, or more sense resistance; or cut the loop's "
-                 f"resistance (cells of lower internal resistance, more in parallel)")
+            hint=_uncleared_hint(m, p, oc, i))
     elif event.detection == "over-current" and sc is not None and options.note_slow_clearing:
         yield ctx.finding(
             f"the weakest short to catch draws {fq(i, 'A')} ({loop}), not above the "
@@ -81,3 +79,33 @@ def check(ctx, options):
             severity=Severity.info,
             hint=f"a protector with a short-circuit trip max below {fq(i, 'A')} would catch it "
                  f"fast")
+
+
+def _uncleared_hint(m, p, oc, i):
+    """Move the trip window below the weakest short only where it can stay above the loads.
+
+    A lower detection voltage or more sense resistance moves both ends of the over-current trip
+    window by one factor, so the window fits between the highest load its minimum must clear
+    (as trip-current-window holds it) and the weakest short only when its max/min ratio is below
+    their ratio. More sense resistance also weakens the short a little, so where the ratio fits
+    the hint is a start, re-checked by the lint; where it does not, no such change can fix it.
+    """
+    loads = [m.design.load.continuous]
+    peak = m.design.load.peak
+    if peak is not None and peak.duration > p.part.overcurrent.delay.low:
+        loads.append(peak.current)
+    load = max(loads)
+    stronger = ("or cut the loop's resistance (cells of lower internal resistance, more in "
+                "parallel, heavier conductors) so the weakest short draws more")
+    # compared as products: a mutated design may give a zero trip minimum or a zero short
+    if i > 0 and oc.max * load < i * oc.min:
+        return (f"bring the over-current trip max below {fq(i, 'A', toward='down')} while its "
+                f"min stays at or above the load {fq(load, 'A', toward='up')} (a factor "
+                f"{oc.max / i:.3g}-{oc.min / load:.3g} on the sense resistance, or a protector "
+                f"with a detection voltage lower by that factor); {stronger}")
+    spans = f" × {oc.max / oc.min:.3g}" if oc.min > 0 else ""
+    return (f"no sense resistance or detection voltage fits: the over-current trip window "
+            f"{fq(oc.min, 'A')}-{fq(oc.max, 'A')} spans{spans} from min to max, wider than the room "
+            f"between the load {fq(load, 'A')} its min must clear and the weakest short "
+            f"{fq(i, 'A')}; a shunt-sensed protector (a narrower window), a protector with "
+            f"a short-circuit detection the weakest short reaches, {stronger}")

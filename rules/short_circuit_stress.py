@@ -3,6 +3,8 @@ import math
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from pydantic import Field
 
+from ._spike import spike_within
+
 
 class Options(RuleOptions):
     pulse_margin: float = Field(1.0, gt=0, le=1, description=(
@@ -81,7 +83,7 @@ def check(ctx, options):
                          Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V"),
                          Figure("avalanche energy", av.energy, "J")]
                 + ([Figure("e_as", e_as, "J")] if e_as is not None else []),
-                hint=_spike_hint(spike, ch.part.vds_max) + (
+                hint=_spike_hint(spike, ch.part.vds_max, m.limits.vds_derating) + (
                     "" if e_as is not None or not math.isfinite(av.energy) else
                     f"; or, if its data sheet rates E_AS ≥ {fq(av.energy, 'J')}, give it as e_as"))
 
@@ -103,12 +105,10 @@ def _energy(av, e_as):
     return e + f", above its e_as {fq(e_as, 'J')}"
 
 
-def _spike_hint(spike, vds_max):
-    room = vds_max - spike.stack
-    if room > 0:
-        l_max = room * spike.turn_off_time / spike.current
-        t_min = spike.inductance * spike.current / room
-        return (f"keep the loop inductance ≤ {fq(l_max, 'H')} (shorter, twisted or paired wiring), "
-                f"slow the turn-off to ≥ {fq(t_min, 's')} (gate resistor), clamp the pack terminals "
-                f"with a TVS diode, or use FETs rated for more voltage")
-    return "use FETs rated well above the stack voltage, and clamp the pack terminals with a TVS diode"
+def _spike_hint(spike, vds_max, derating):
+    # The values proposed meet the derated limit switch-voltage-margin holds the same spike to
+    # (Limits.vds_derating), not only the bare rating: a hint that fits one rule fits both.
+    limit = vds_max * derating
+    within = spike_within(spike, limit)
+    rated = f"FETs with vds_max ≥ {fq(spike.total / derating, 'V', toward='up')}"
+    return f"{within}, or {rated}" if within else f"use {rated}"

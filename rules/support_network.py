@@ -170,6 +170,22 @@ def _sense_resistor(ctx, m, p, options):
             path=_at(r, "power"), element=r.refdes, key="sense-resistor-power",
             figures=[Figure("voltage", s.voltage, "V"), Figure("current", s.current, "A"),
                      Figure("power", s.power, "W"), Figure("rated power", r.part.power, "W")],
-            hint=f"use ≥ {fq(s.voltage ** 2 / limit, 'Ω')} at {fq(r.part.power, 'W')}, or a "
-                 f"resistor rated ≥ {fq(s.power / options.resistor_derating, 'W')}, or prevent "
-                 f"reverse connection")
+            hint=_sense_power_hint(s, r, limit, options))
+
+
+def _sense_power_hint(s, r, limit, options):
+    """A resistance only where the range this rule holds the sense resistor to allows it; else
+    the rating the resistor needs at the range's top, or no reversed charger at all (values at
+    the resistor's tolerance as it is)."""
+    low = 1 - r.part.tol / 100  # the model takes each resistor at the low end of its tolerance
+    r_min = s.voltage ** 2 / limit / low
+    rated = s.voltage ** 2 / (options.sense_r_max * low) / options.resistor_derating
+    if r_min <= options.sense_r_max:
+        return (f"use {fq(r_min, 'Ω', toward='up')}–{fq(options.sense_r_max, 'Ω')} at "
+                f"{fq(r.part.power, 'W')}, or a resistor rated ≥ "
+                f"{fq(s.power / options.resistor_derating, 'W', toward='up')}, or prevent reverse "
+                f"connection")
+    return (f"no resistance up to the sense pin's {fq(options.sense_r_max, 'Ω')} keeps it within "
+            f"{fq(r.part.power, 'W')}: use {fq(options.sense_r_max, 'Ω')} ± {r.part.tol:g} % rated ≥ "
+            f"{fq(rated, 'W', toward='up')}, or prevent reverse connection "
+            f"(charger.reverse_polarity: prevented)")

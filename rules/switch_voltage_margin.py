@@ -1,5 +1,6 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.limits import VDS_DERATING
+from ._spike import spike_within
 from pydantic import Field
 
 
@@ -63,10 +64,10 @@ def check(ctx, options):
                            else f"vds-{ch.role}") + ch.name[len(ch.package):],
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
-                    hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V')}"
+                    hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V', toward='up')}"
                          + (", or prevent reverse charger connection" if "reversed" in what else "")
-                         + (", or lower the wiring inductance, slow the turn-off or clamp the pack "
-                            "terminals with a TVS diode" if "wiring spike" in what else ""))
+                         + (f", or {spike_within(spike, limit)}" if "wiring spike" in what
+                            and spike_within(spike, limit) else ""))
         if gd is None or ch.package in seen:
             continue
         seen.add(ch.package)
@@ -77,7 +78,8 @@ def check(ctx, options):
                 f"of its vgs_max {fq(part.vgs_max, 'V')} is {fq(glimit, 'V')}",
                 path=path, element=ch.package, key="vgs",
                 figures=[Figure("gate drive max", gd.max, "V"), Figure("vgs_max", part.vgs_max, "V")],
-                hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V')}, or clamp the gate")
+                hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V', toward='up')}, "
+                     f"or a protector whose gate drive stays at or below {fq(glimit, 'V', toward='down')}")
         if ch.vgs_th_max >= gd.min:
             yield ctx.finding(
                 f"{ch.package} gate threshold max {fq(ch.vgs_th_max, 'V')} is not below the lowest "
@@ -86,3 +88,4 @@ def check(ctx, options):
                 path=path, element=ch.package, key="vgs-th",
                 figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.min, "V")],
                 hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")
+

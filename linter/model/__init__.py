@@ -25,19 +25,19 @@ from typing import TYPE_CHECKING
 
 __all__ = ["DesignModel", "TripWindow", "OperatingPoint", "CellStack", "CellLimits",
            "SwitchChannel", "Span", "ModelProblem", "Limits", "JUNCTION_LIMIT", "FUSE_DERATING",
-           "TRACE_RISE", "CHARGE_MARGIN", "Event"]
+           "TRACE_RISE", "CHARGE_MARGIN", "Event", "VDS_DERATING"]
 
 _HOMES = {**dict.fromkeys(["DesignModel", "TripWindow"], "design"),
           "OperatingPoint": "path", "Event": "events",
           **dict.fromkeys(["CellStack", "CellLimits", "SwitchChannel"], "topology"),
           **dict.fromkeys(["Span", "ModelProblem"], "values"),
           **dict.fromkeys(["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE",
-                           "CHARGE_MARGIN"], "limits")}
+                           "CHARGE_MARGIN", "VDS_DERATING"], "limits")}
 
 if TYPE_CHECKING:  # what editors and type checkers see
     from .design import DesignModel, TripWindow
     from .events import Event
-    from .limits import CHARGE_MARGIN, FUSE_DERATING, JUNCTION_LIMIT, TRACE_RISE, Limits
+    from .limits import CHARGE_MARGIN, FUSE_DERATING, JUNCTION_LIMIT, TRACE_RISE, VDS_DERATING, Limits
     from .path import OperatingPoint
     from .topology import CellLimits, CellStack, SwitchChannel
     from .values import ModelProblem, Span

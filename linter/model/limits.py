@@ -17,7 +17,7 @@ from .fuse import CONTINUOUS_DERATING, curve_ambient_factor, max_continuous_curr
 
 __all__ = ["Limits", "JUNCTION_LIMIT", "FUSE_DERATING", "TRACE_RISE", "CHARGE_MARGIN",
            "CELL_AGEING", "FAULT_RESISTANCE", "CONDUCTOR_FINAL", "BALANCE_CYCLE", "BALANCE_TIME",
-           "SELF_DISCHARGE_SPREAD", "SERVICE_CYCLES"]
+           "SELF_DISCHARGE_SPREAD", "SERVICE_CYCLES", "VDS_DERATING"]
 
 #: Highest junction temperature allowed in service, below the part's own tj_max [practice:
 #: commercial derating T_J ≤ 125 °C, docs/references.md "MOSFETs"].
@@ -60,7 +60,8 @@ SELF_DISCHARGE_SPREAD = 0.5
 #: capacity is the usual cycle-life rating of lithium-ion cells, docs/references.md "Balancing"].
 SERVICE_CYCLES = 500
 #: Share of its vds_max a switch may block [practice: commercial derating 80 %,
-#: docs/references.md "MOSFETs"]; switch-voltage-margin's ``vds_derating``.
+#: docs/references.md "MOSFETs"]; switch-voltage-margin's ``vds_derating``;
+#: the turn-off spike's hints (short-circuit-stress) propose values that meet it, so both rules agree.
 VDS_DERATING = 0.8
 
 
@@ -74,8 +75,8 @@ class Limits:
     short-circuit-reach's ``ageing`` and ``fault_resistance`` (the weakest short's corner);
     ``conductor_final``: conductor-withstand's ``final_temperature``; ``balance_cycle``,
     ``balance_time``, ``self_discharge_spread`` and ``service_cycles``: cell-balance's
-    ``cycle_time``, ``balancing_time``, ``self_discharge_spread`` and ``service_cycles``; ``vds_derating``:
-    switch-voltage-margin's ``vds_derating`` (the blocking-voltage chart draws it).
+    ``cycle_time``, ``balancing_time``, ``self_discharge_spread`` and ``service_cycles``;
+    ``vds_derating``: switch-voltage-margin's ``vds_derating`` (the blocking-voltage chart draws it).
     """
 
     junction: float = JUNCTION_LIMIT

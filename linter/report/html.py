@@ -72,6 +72,8 @@ class DesignView:
     conditions: list[tuple[str, str]]
     charts: list[Chart]
     assumptions: list[str] = field(default_factory=list)
+    #: ``packwarden assist``'s answer for the design (``Assistance.as_dict()``), or None.
+    assistant: dict[str, Any] | None = None
 
 
 def render(run: RunResult, opts: RenderOptions) -> str:
@@ -146,6 +148,7 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
         charts=charts_for(model) if model is not None and not d.errors else [])
     if model is not None:
         view.assumptions = _safely(_assumptions, model)
+    view.assistant = d.assistant
     return view
 
 

@@ -1,0 +1,167 @@
+"""Hints that fit: a value a hint proposes, applied to the flawed example and linted again, clears
+the finding it came from and raises no other (issue 18 item 2).
+
+The re-lint is the independent check: the hint is computed by its rule, the design with the hint
+applied is judged by every rule. A hint's value is read from its own text, as a reader would take
+it (the rounded figure shown), and applied where the format holds it: a field of the design, or a
+field of a library part, written inline in the component for the test.
+"""
+
+from __future__ import annotations
+
+import re
+from pathlib import Path
+
+import pytest
+
+from packwarden.engine import Session, lint_file, load_registry
+from packwarden.loader import load_file
+from packwarden.overrides import Override, apply_overrides
+from packwarden.quantities import parse_quantity
+
+REPO = Path(__file__).resolve().parent.parent
+FLAWED = "example_designs/flawed"
+
+
+def _library_part(doc, name: str) -> dict:
+    for lib in doc.data["libraries"]:
+        data = load_file(REPO / FLAWED / lib).data
+        if name in data["parts"]:
+            part = dict(data["parts"][name])
+            part.pop("pinout", None)
+            return part
+    raise AssertionError(f"{name} is in none of the design's libraries")
+
+
+def _inline(doc, component: str, **fields) -> Override:
+    """The component's library part written inline, with ``fields`` changed."""
+    written = doc.data["components"][component]
+    part = _library_part(doc, written["part"])
+    part.update(fields)
+    return Override("set", f"components.{component}", {**part, "pins": written["pins"]})
+
+
+def _field(path: str):
+    def apply(doc, value: str) -> list[Override]:
+        return [Override("set", path, value)]
+    return apply
+
+
+def _part_field(component: str, name: str):
+    def apply(doc, value: str) -> list[Override]:
+        return [_inline(doc, component, **{name: value})]
+    return apply
+
+
+def _scaled_value(component: str):
+    """The component's library resistor written inline, its value times the middle (geometric)
+    of the hinted factor range "A-B"."""
+    def apply(doc, value: str) -> list[Override]:
+        low, high = (float(x) for x in value.split("-"))
+        part = _library_part(doc, doc.data["components"][component]["part"])
+        ohms = parse_quantity(part["value"], "Ω") * (low * high) ** 0.5
+        return [_inline(doc, component, value=f"{ohms * 1e3:.6f} mΩ")]
+    return apply
+
+
+def _resistor(component: str, resistance: str):
+    """An inline resistor of ``resistance`` with the hinted power rating."""
+    def apply(doc, value: str) -> list[Override]:
+        pins = doc.data["components"][component]["pins"]
+        return [Override("set", f"components.{component}",
+                         {"kind": "resistor", "value": resistance, "power": value, "pins": pins})]
+    return apply
+
+
+# (design, rule, element, the hint's words before the value, the value's unit, how to apply it)
+HINTS = [
+    ("charger-current-too-high.yaml", "charge-conditions", "BT1", "charge current to ≤", "A",
+     _field("charger.current")),
+    ("narrow-trace.yaml", "conductor-capacity", "T1", "widen T1 to ≥", "m",
+     _field("components.T1.width")),
+    ("narrow-trace.yaml", "conductor-withstand", "T1", "widen T1 to ≥", "m",
+     _field("components.T1.width")),
+    ("fuse-too-small.yaml", "secondary-protection", "F1", "use a fuse rated ≥", "A",
+     _field("components.F1.rated_current")),
+    # no resistance in the sense pin's range keeps the power within the rating: the rating moves
+    ("fet-voltage-too-low.yaml", "support-network", "R2", "use 4 kΩ ± 1 % rated ≥", "W",
+     _resistor("R2", "4 kΩ")),
+    ("fet-voltage-too-low.yaml", "switch-voltage-margin", "Q1", "use a FET with vds_max ≥", "V",
+     _part_field("Q1", "vds_max")),
+    # the weakest short inside the over-current window: a factor on the shunt that moves the
+    # window below the short while its minimum stays above the 25 A peak
+    ("ridgeline-weak-short.yaml", "short-circuit-reach", "U1", "a factor", "",
+     _scaled_value("RSH")),
+    # the turn-off spike: both rules propose values meeting the derated limit, so either clears
+    # both findings
+    ("wiring-spike.yaml", "short-circuit-stress", "Q1", "keep pack.wiring_inductance ≤", "H",
+     _field("pack.wiring_inductance")),
+    ("wiring-spike.yaml", "short-circuit-stress", "Q1", "turn_off_time ≥", "s",
+     _part_field("Q1", "turn_off_time")),
+    ("wiring-spike.yaml", "short-circuit-stress", "Q1", "FETs with vds_max ≥", "V",
+     _part_field("Q1", "vds_max")),
+    ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "use a FET with vds_max ≥", "V",
+     _part_field("Q1", "vds_max")),
+    ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "keep pack.wiring_inductance ≤", "H",
+     _field("pack.wiring_inductance")),
+    ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "turn_off_time ≥", "s",
+     _part_field("Q1", "turn_off_time")),
+]
+
+
+@pytest.fixture(scope="module")
+def session() -> Session:
+    # Each rule's own hint is what is applied, so findings stay one per rule (a turn-off spike both
+    # spike rules see is one finding in a report, naming the other rule).
+    return Session(registry=load_registry(), grouping=False)
+
+
+def _identity(f) -> tuple:
+    return (f.rule, f.element, f.key)
+
+
+@pytest.mark.parametrize("design, rule, element, words, unit, apply", HINTS,
+                         ids=[f"{h[0]}-{h[1]}-{h[3]}" for h in HINTS])
+def test_a_hinted_value_applied_clears_its_finding_and_raises_no_other(
+        session, design, rule, element, words, unit, apply) -> None:
+    shown = f"{FLAWED}/{design}"
+    base = lint_file(session, REPO / shown, shown)
+    pattern = re.compile(re.escape(words) + (r" ([0-9.]+-[0-9.]+)" if not unit else
+                                             r" ([0-9.]+ ?[^\s,;)]*)"))
+    hinted = [(f, m.group(1)) for f in base.findings if f.rule == rule and f.element == element
+              for m in [pattern.search(f.hint or "")] if m]
+    assert hinted, f"no {rule} hint at {element} proposes '{words} <value>'"
+    for finding, value in hinted:
+        if unit:
+            parse_quantity(value, unit)  # the hint writes a value the format reads, in its unit
+        doc = load_file(REPO / shown, shown)
+        changed = lint_file(session, REPO / shown, shown,
+                            document=apply_overrides(doc, apply(doc, value)))
+        assert not changed.errors, changed.errors
+        after = {_identity(f) for f in changed.findings if not f.waived}
+        before = {_identity(f) for f in base.findings}
+        assert _identity(finding) not in after, f"{value} leaves: {finding.message}"
+        new = [f for f in changed.findings if _identity(f) not in before]
+        assert not new, f"{value} raises: " + "; ".join(f"{f.rule}: {f.message}" for f in new)
+
+
+@pytest.mark.parametrize("design", ["narrow-trace.yaml", "high-threshold-fet.yaml"])
+def test_an_empty_range_says_so_and_names_a_structural_change(session, design) -> None:
+    # narrow-trace: the trip window spans 1.62-7.72 A (× 4.75) and must sit above the 1.6 A peak
+    # and below the 6.89 A weakest short (× 4.31): no factor on the sense resistance fits both.
+    shown = f"{FLAWED}/{design}"
+    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings
+             if f.rule == "short-circuit-reach"]
+    assert hints and all(h.startswith("no sense resistance or detection voltage fits") and
+                         "shunt-sensed protector" in h for h in hints), hints
+
+
+def test_no_hint_names_a_component_the_format_cannot_describe(session) -> None:
+    # The format describes cells, protectors, FETs, fuses, PTCs, resistors, capacitors,
+    # conductors and pre-charge paths (linter/kinds.py); a hint proposing a clamp diode, a
+    # snubber or a gate zener would send the engineer to a part the review cannot check.
+    for path in sorted((REPO / FLAWED).glob("*.yaml")) + sorted((REPO / "example_designs").glob("*.yaml")):
+        shown = str(path.relative_to(REPO))
+        for f in lint_file(session, path, shown).findings:
+            for word in ("TVS", "snubber", "zener", "clamp the"):
+                assert word.lower() not in (f.hint or "").lower(), f"{shown} {f.rule}: {f.hint}"
