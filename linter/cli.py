@@ -320,7 +320,7 @@ def assist_command(
 
 def main() -> None:
     """The command with every subcommand, its help and its option errors (typer)."""
-    from .launch import finish, start
+    from .checking import finish, start
     start()
     try:
         app()

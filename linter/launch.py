@@ -97,37 +97,6 @@ def plain_check(argv: list[str]) -> Optional[dict[str, Any]]:
     return {"paths": paths, **opts}
 
 
-def start() -> None:
-    """What both ways in do before anything else is imported."""
-    from . import checking
-    checking.OWN_PROCESS = True
-    # Start-up imports pydantic and the rules, and builds the schema's models: many objects
-    # made, next to none freed, so the cycle collector's passes over them are wasted (about
-    # 15 ms of a single-file check). ``check`` turns it back on before linting; the other
-    # commands are short and end the process.
-    import gc
-    gc.disable()
-    # pydantic's own plugins (a package registering the 'pydantic' entry-point group, e.g. to
-    # observe every validation) have no part in a review: the findings must not depend on them,
-    # and looking for them scans every installed package when the first schema is built (about
-    # 8 ms). A value the user set, even an empty one, is kept.
-    os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "__all__")
-
-
-def finish(exc: SystemExit) -> None:
-    """Leave with the command's exit code, without the interpreter's teardown, which frees every
-    module and object one by one and is a twentieth of a short run."""
-    code = 0 if exc.code is None else exc.code
-    if not isinstance(code, int):
-        raise exc
-    try:
-        sys.stdout.flush()
-        sys.stderr.flush()
-    except (OSError, ValueError):
-        raise exc from None  # a closed pipe: let Python report it as it always does
-    os._exit(code)
-
-
 def _completing() -> bool:
     # a shell asking for completions (click's "_<PROG>_COMPLETE"): typer's business
     return any(k.startswith("_") and k.endswith("_COMPLETE") for k in os.environ)
@@ -139,8 +108,8 @@ def main() -> None:
         from .cli import main as full
         full()
         return
+    from .checking import run_check, start
     start()
-    from .checking import run_check
     try:
         code = run_check(**opts)
     except KeyboardInterrupt:  # pragma: no cover
@@ -156,6 +125,7 @@ def main() -> None:
         except (OSError, ValueError):
             pass
         os._exit(1)
+    from .checking import finish
     finish(SystemExit(code))
 
 
