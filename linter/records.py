@@ -41,6 +41,10 @@ def record(cls: T | None = None, /, *, frozen: bool = False) -> Any:
         own = c.__dict__
         if _plain(c, frozen):
             had_doc = bool(c.__doc__)
+            if not had_doc:
+                # dataclass would write the docstring from the signature of a class that has no
+                # __init__ yet (an inspection of object's, about 0.5 ms): written below instead
+                c.__doc__ = "(record)"
             c = dataclasses.dataclass(c, init=False, eq=False, repr=False)
             c.__dataclass_params__.init = True
             c.__dataclass_params__.frozen = frozen
