@@ -22,7 +22,6 @@ and ``PACKWARDEN_CACHE_DIR=""`` (empty) turns it off. ``tests/test_entrycache.py
 from __future__ import annotations
 
 import hashlib
-import json
 import os
 import sys
 from pathlib import Path
@@ -30,8 +29,9 @@ from typing import Any, Optional
 
 #: The groups kept, read together on a miss.
 GROUPS = ("packwarden.rules", "packwarden.formats")
-#: The cache file's layout; a file of another layout is read as a miss.
-LAYOUT = 1
+#: The cache file's first line: its layout, then the fingerprint. A plain text file, one entry
+#: point a line (group, name, value, distribution; tab-separated), read without importing json.
+HEADER = "packwarden entry points 1"
 _META_SUFFIXES = (".dist-info", ".egg-info")
 
 
@@ -110,36 +110,53 @@ def _cached_groups() -> dict[str, list[list]]:
     folder = cache_dir()
     if folder is None:
         return read_installed()
-    state = hashlib.sha256(json.dumps(environment_state()).encode()).hexdigest()
+    state = hashlib.sha256(repr(environment_state()).encode()).hexdigest()
     env = hashlib.sha256(f"{sys.prefix}\0{sys.executable}".encode()).hexdigest()[:16]
-    path = folder / f"entry-points-{env}.json"
+    path = folder / f"entry-points-{env}.txt"
     try:
-        kept = json.loads(path.read_text(encoding="utf-8"))
-        if (isinstance(kept, dict) and kept.get("layout") == LAYOUT
-                and kept.get("state") == state and _well_formed(kept.get("groups"))):
-            return kept["groups"]
-    except (OSError, ValueError, UnicodeError):
-        pass
+        kept = _parse(path.read_text(encoding="utf-8"), state)
+    except (OSError, UnicodeError):
+        kept = None
+    if kept is not None:
+        return kept
     groups = read_installed()
-    _write(path, {"layout": LAYOUT, "state": state, "groups": groups})
+    _write(path, _dump(groups, state))
     return groups
 
 
-def _well_formed(groups: Any) -> bool:
-    return (isinstance(groups, dict) and all(
-        isinstance(groups.get(g), list) and all(
-            isinstance(r, list) and len(r) == 3 and isinstance(r[0], str)
-            and isinstance(r[1], str) and (r[2] is None or isinstance(r[2], str))
-            for r in groups[g])
-        for g in GROUPS))
+def _dump(groups: dict[str, list[list]], state: str) -> Optional[str]:
+    lines = [f"{HEADER} {state}"]
+    for group in GROUPS:
+        for name, value, dist in groups[group]:
+            fields = [group, name, value, dist or ""]
+            if any("\t" in f or "\n" in f or "\r" in f for f in fields):
+                return None  # not kept: read from importlib.metadata every time
+            lines.append("\t".join(fields))
+    return "\n".join(lines) + "\n"
 
 
-def _write(path: Path, data: dict) -> None:
+def _parse(text: str, state: str) -> Optional[dict[str, list[list]]]:
+    """The groups of a cache file of this layout and fingerprint, else None."""
+    lines = text.split("\n")
+    if lines[0] != f"{HEADER} {state}" or lines[-1] != "":
+        return None
+    groups: dict[str, list[list]] = {g: [] for g in GROUPS}
+    for line in lines[1:-1]:
+        fields = line.split("\t")
+        if len(fields) != 4 or fields[0] not in groups or not fields[1] or not fields[2]:
+            return None
+        groups[fields[0]].append([fields[1], fields[2], fields[3] or None])
+    return groups
+
+
+def _write(path: Path, text: Optional[str]) -> None:
     # written beside and renamed over: a reader never sees half a file
+    if text is None:
+        return
     tmp = path.with_name(f"{path.name}.{os.getpid()}.tmp")
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
-        tmp.write_text(json.dumps(data), encoding="utf-8")
+        tmp.write_text(text, encoding="utf-8")
         os.replace(tmp, path)
     except OSError:
         try:

@@ -53,7 +53,7 @@ def test_installing_changing_and_removing_a_plugin_is_seen(
     monkeypatch.syspath_prepend(str(site))
     first = answer()
     assert first == read_installed()
-    assert list(cache.glob("entry-points-*.json"))  # written
+    assert list(cache.glob("entry-points-*.txt"))  # written
     assert answer() == first                          # and read back
 
     info = install(site)
@@ -88,24 +88,30 @@ def test_a_new_path_entry_is_another_environment_state(
     assert any(r[2] == "acme-review" for r in answer()["packwarden.rules"])
 
 
-@pytest.mark.parametrize("content", ["", "{", "[]", '{"layout": 1, "state": "x"}', "\x00\xff",
-                                     '{"layout": 1, "groups": {"packwarden.rules": [[1, 2, 3]]}}'])
+@pytest.mark.parametrize("content", [
+    "", "{", "\x00\xff", "packwarden entry points 1", "packwarden entry points 0 STATE\n",
+    "packwarden entry points 1 STATE\npackwarden.rules\tx\n",          # too few fields
+    "packwarden entry points 1 STATE\nother.group\tx\tm:f\t\n",       # an unknown group
+    "packwarden entry points 1 STATE\npackwarden.rules\t\tm:f\tacme\n",  # no name
+    "packwarden entry points 1 STATE\npackwarden.rules\tx\tm:f\tacme",    # cut short
+])
 def test_a_corrupt_or_stale_cache_is_read_again(cache: Path, content: str) -> None:
     answer()
-    (path,) = cache.glob("entry-points-*.json")
-    path.write_bytes(content.encode("latin-1"))
+    (path,) = cache.glob("entry-points-*.txt")
+    state = path.read_text(encoding="utf-8").split("\n")[0].split()[-1]
+    path.write_bytes(content.replace("STATE", state).encode("latin-1"))
     assert answer() == read_installed()
-    assert path.read_text(encoding="utf-8").startswith('{"layout"')  # written again
+    assert path.read_text(encoding="utf-8").startswith(entrycache.HEADER)  # written again
 
 
 def test_a_cache_of_another_state_is_not_believed(cache: Path) -> None:
     answer()
-    (path,) = cache.glob("entry-points-*.json")
-    text = path.read_text(encoding="utf-8")
-    forged = text.replace('"groups": {"packwarden.rules": [',
-                          '"groups": {"packwarden.rules": [["ghost", "ghost:check", null], ')
-    path.write_text(forged.replace('"state": "', '"state": "0', 1), encoding="utf-8")
+    (path,) = cache.glob("entry-points-*.txt")
+    header, rest = path.read_text(encoding="utf-8").split("\n", 1)
+    forged = f"{header[:-1]}0\npackwarden.rules\tghost\tghost:check\t\n{rest}"
+    path.write_text(forged, encoding="utf-8")
     assert answer() == read_installed()
+    assert not any(r[0] == "ghost" for r in answer()["packwarden.rules"])
 
 
 def test_an_unwritable_cache_still_answers(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
