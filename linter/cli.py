@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import os
 import sys
 from enum import Enum
 from pathlib import Path
@@ -31,12 +30,6 @@ class SchemaKind(str, Enum):
     design = "design"
     parts = "parts"
     policy = "policy"
-
-
-def _use_color(output: Optional[Path], fmt: str) -> bool:
-    if fmt != "text" or output is not None or os.environ.get("NO_COLOR"):
-        return False
-    return sys.stdout.isatty()
 
 
 @app.command()
@@ -81,121 +74,20 @@ def check(
              "process)"),
 ) -> None:
     """Lint designs; exit 0 clean, 1 findings at or above --fail-on, 2 input could not be used."""
-    from .api import Severity
-    from .engine import Registry, RequiredPluginError, lint
-    from .loader import InputError
-    from .progress import progress_for
-    from .report import DEFAULT_FORMAT, FormatUnavailable, RenderOptions, formatter, load_formats
-
-    format_problems: list[tuple[str, str]] = []
-    try:
-        if format == DEFAULT_FORMAT:  # found without reading the entry points (start-up time)
-            render = formatter(format)
-        else:
-            formats = load_formats()
-            render = formats.load(format)
-            format_problems = formats.broken
-    except FormatUnavailable as exc:
-        sys.stderr.write(f"packwarden check: {exc}\n")
-        raise typer.Exit(2)
-    if baseline is not None and since is not None:
-        sys.stderr.write("packwarden check: --baseline and --since cannot be combined\n")
-        raise typer.Exit(2)
-    if designs_only:
-        paths = _designs_only(paths)
-    level = Severity(fail_on.value) if fail_on else None
-    bar = progress_for(sys.stderr, quiet=quiet)
-    # The HTML report and the yield run read each design's model, which stays in the process
-    # that built it: they lint in this one.
-    needs_models = getattr(render, "needs_models", False) or bool(yield_samples)
-    if _OWN_PROCESS:
-        # What is loaded by now lives as long as the process: keep the cycle collector from
-        # walking it again and again while the designs are linted, and turn it back on (main
-        # turned it off for start-up) so a batch of thousands of designs frees its cycles.
-        import gc
-        gc.freeze()
-        gc.enable()
-    try:
-        run = lint(paths, config=config, fail_on=level, progress=bar,
-                   require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()],
-                   jobs=1 if needs_models else jobs, keep_models=needs_models,
-                   keep_events=getattr(render, "needs_events", False))
-    except RequiredPluginError as exc:
-        sys.stderr.write(f"{exc}\n")
-        raise typer.Exit(2)
-    finally:
-        if bar is not None:
-            bar.close()
-
-    def note(message: str) -> None:
-        if not quiet:
-            sys.stderr.write(message + "\n")
-
-    comparison = None
-    try:
-        if write_baseline is not None:
-            from .baseline import write_baseline as record_baseline
-            try:
-                n = record_baseline(run, write_baseline)
-            except OSError as exc:
-                raise InputError(str(write_baseline), 1, 1,
-                                 f"cannot write the baseline: {exc.strerror or exc}") from None
-            note(f"{n} finding(s) recorded in baseline {write_baseline}")
-        if baseline is not None:
-            from .baseline import compare, read_baseline
-            run, comparison = compare(run, read_baseline(baseline, str(baseline)), str(baseline))
-        elif since is not None:
-            from .baseline import compare, lint_since
-            entries, earlier_errors = lint_since(since, paths, Registry(rules=dict(run.rules)),
-                                                 config=config, fail_on=level)
-            run, comparison = compare(run, entries, f"git revision {since}")
-            comparison.earlier_errors = earlier_errors
-    except InputError as exc:  # one line, exit 2; the report of the run is still written
-        run.errors.append(exc)
-    # a format plugin that reuses a name: reported in the report like a broken rule plugin
-    run.broken_plugins.extend(format_problems)
-    text = render(run, RenderOptions(color=_use_color(output, format), quiet=quiet,
-                                     baseline=comparison))
-    if yield_samples:
-        from .montecarlo import add_yield
-        text = add_yield(text, format, run, yield_samples, seed, distribution.value)
-    _emit(text, output)
-    if comparison is not None:
-        note(comparison.summary())
-    code = run.exit_code()
-    if write_baseline is not None and comparison is None and code == 1:
-        code = 0  # every finding is now in the baseline just written
-    raise typer.Exit(code)
+    from .checking import run_check
+    raise typer.Exit(run_check(
+        paths, format=format, output=output, fail_on=fail_on.value if fail_on else None,
+        config=config, quiet=quiet, baseline=baseline, write_baseline=write_baseline,
+        since=since, designs_only=designs_only, require_plugins=require_plugins,
+        yield_samples=yield_samples, seed=seed, distribution=distribution.value, jobs=jobs))
 
 
 def _emit(text: str, output: Optional[Path]) -> None:
     """Write a command's report to ``output``, else to stdout; a file that cannot be written is
     one located line and exit code 2."""
-    if output is None:
-        sys.stdout.write(text)
-        return
-    try:
-        output.write_text(text, encoding="utf-8")
-    except OSError as exc:
-        sys.stderr.write(f"{output}:1:1: cannot write the report: {exc.strerror or exc}\n")
+    from .checking import emit
+    if emit(text, output):
         raise typer.Exit(2)
-
-
-def _designs_only(paths: List[str]) -> List[str]:
-    """Folders, and files that declare ``format: packwarden/1``; a file that is not read (a pipe,
-    a device, a link out of its repository) stays in, so the lint says why."""
-    from .engine import is_design_text
-    from .files import head
-    from .library import named_root
-    kept = []
-    for raw in paths:
-        p = Path(raw)
-        if not p.is_dir():
-            text = head(p, named_root(p.parent)) if "\x00" not in raw else None
-            if text is not None and not is_design_text(text):
-                continue
-        kept.append(raw)
-    return kept
 
 
 class DocsKind(str, Enum):
@@ -425,40 +317,16 @@ def assist_command(
     raise typer.Exit(run.exit_code())
 
 
-#: True when the command runs as its own process (``main``), not called from other code.
-_OWN_PROCESS = False
-
-
 def main() -> None:
-    global _OWN_PROCESS
-    _OWN_PROCESS = True
-    # Start-up imports pydantic, typer and the rules, and builds the schema's models: many
-    # objects made, next to none freed, so the cycle collector's passes over them are wasted
-    # (about 15 ms of a single-file check). ``check`` turns it back on before linting; the other
-    # commands are short and end the process.
-    import gc
-    gc.disable()
-    # pydantic's own plugins (a package registering the 'pydantic' entry-point group, e.g. to
-    # observe every validation) have no part in a review: the findings must not depend on them,
-    # and looking for them scans every installed package when the first schema is built (about
-    # 8 ms). A value the user set, even an empty one, is kept.
-    os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "__all__")
+    """The command with every subcommand, its help and its option errors (typer)."""
+    from .checking import finish, start
+    start()
     try:
         app()
     except KeyboardInterrupt:  # pragma: no cover
         sys.exit(130)
     except SystemExit as exc:
-        code = 0 if exc.code is None else exc.code
-        if not isinstance(code, int):
-            raise
-        # The command is done and its output written: leave without the interpreter's teardown,
-        # which frees every module and object one by one and is a twentieth of a short run.
-        try:
-            sys.stdout.flush()
-            sys.stderr.flush()
-        except (OSError, ValueError):
-            raise exc from None  # a closed pipe: let Python report it as it always does
-        os._exit(code)
+        finish(exc)
 
 
 if __name__ == "__main__":  # pragma: no cover

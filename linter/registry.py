@@ -47,31 +47,20 @@ class Registry:
 
 def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     """Every rule from installed entry points, then from the config's rule folders."""
-    from importlib.metadata import entry_points
+    from .entrycache import installed_entry_points
 
     reg = Registry()
-    names: dict[int, str] = {}
 
-    def dist_name(ep) -> str:
-        # A distribution's name is read from its metadata file on every access; its entry
-        # points share one distribution object, so each is read once.
-        key = id(ep.dist)
-        if key not in names:
-            names[key] = ep.dist.name
-        return names[key]
-
-    def order(ep) -> tuple:
+    def order(item) -> tuple:
         # packwarden's own rules first, then plugins by distribution: when a plugin reuses a
         # built-in id, the plugin is the one reported, and the outcome never depends on a name.
-        dist = dist_name(ep) if ep.dist else ""
-        return (dist != "packwarden", dist, ep.name)
+        dist, ep = item
+        return (dist != "packwarden", dist or "", ep.name)
 
-    found = list(entry_points(group=ENTRY_POINT_GROUP))
-    eps = sorted(found, key=order)
-    for ep in eps:
-        plugin = dist_name(ep) if ep.dist else ep.module
-        if ep.dist is not None:
-            reg.distributions.add(normalize_name(dist_name(ep)))
+    for dist, ep in sorted(installed_entry_points(ENTRY_POINT_GROUP), key=order):
+        plugin = dist if dist is not None else ep.module
+        if dist is not None:
+            reg.distributions.add(normalize_name(dist))
         origin = f"{plugin}:{ep.name}"
         try:
             obj = ep.load()

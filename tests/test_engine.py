@@ -117,6 +117,8 @@ def _with_entry_points(monkeypatch: pytest.MonkeyPatch, *extra: EntryPoint) -> N
         found = list(real(**kwargs))
         return found + [ep for ep in extra if ep.group == kwargs.get("group")]
     monkeypatch.setattr(importlib.metadata, "entry_points", fake)
+    # the per-environment cache cannot see a patched library function: read it every time
+    monkeypatch.setenv("PACKWARDEN_CACHE_DIR", "")
 
 
 def test_a_plugin_reusing_a_builtin_id_is_reported_and_the_builtin_kept(

@@ -90,3 +90,131 @@ def test_subclass_records_compare_all_their_fields() -> None:
     assert Child(1, 2) != Child(1, 3) and Child(1, 2) == Child(1, 2)
     assert repr(Child(1, 2)) == "test_subclass_records_compare_all_their_fields.<locals>.Child(a=1, b=2)"
     assert Base(1) != Child(1)  # a subclass instance is another class
+
+
+# --- __init__ from a template (no per-class compile) against the standard library's dataclass ---
+
+def twins(frozen: bool, annotations: dict, values: dict, methods: dict | None = None):
+    """The same class body made by ``dataclass`` and by ``record``."""
+    def body():
+        made = {"__annotations__": dict(annotations), "__module__": __name__}
+        for k, v in values.items():
+            made[k] = v() if callable(v) and getattr(v, "fresh", False) else v
+        made.update(methods or {})
+        return made
+    return (dataclass(frozen=frozen)(type("Part", (), body())),
+            record(frozen=frozen)(type("Part", (), body())))
+
+
+def fresh(make):
+    make.fresh = True  # a dataclasses.field() may serve one class only: made anew for each
+    return make
+
+
+SHAPES = [
+    ({}, {}),
+    ({"a": "int"}, {}),
+    ({"a": "int", "b": "str"}, {"b": "x"}),
+    ({"a": "int", "b": "list", "c": "float"},
+     {"b": fresh(lambda: field(default_factory=list)), "c": 2.5}),
+    ({"name": "str", "tags": "dict", "note": "str"},
+     {"tags": fresh(lambda: field(default_factory=dict)),
+      "note": fresh(lambda: field(default="", compare=False))}),
+]
+
+
+def outcome(call):
+    try:
+        return "ok", call()
+    except Exception as exc:  # the error's class and message are what must agree
+        return type(exc).__name__, str(exc)
+
+
+@pytest.mark.parametrize("frozen", [True, False])
+@pytest.mark.parametrize("shape", range(len(SHAPES)))
+def test_the_template_init_is_the_dataclass_init(frozen: bool, shape: int) -> None:
+    import inspect
+    annotations, values = SHAPES[shape]
+    ref, mine = twins(frozen, annotations, values)
+    assert "_rec_" not in repr(mine.__init__.__code__.co_varnames)
+    assert str(inspect.signature(mine)) == str(inspect.signature(ref))
+    assert mine.__doc__ == ref.__doc__ and mine.__match_args__ == ref.__match_args__
+    assert mine.__init__.__qualname__ == ref.__init__.__qualname__
+    assert mine.__init__.__annotations__ == ref.__init__.__annotations__
+    assert mine.__dataclass_params__.frozen == frozen and mine.__dataclass_params__.init
+    names = list(annotations)
+    calls = [(), (1,), (1, "y"), (1, [2], 3.0), (1, [2], 3.0, "extra"), ("n", {"k": 1}, "note")]
+    kwcalls = [{"a": 1}, {"b": "y"}, {"a": 1, "zz": 2}, {n: i for i, n in enumerate(names)}]
+    for args in calls:
+        got, want = outcome(lambda: mine(*args)), outcome(lambda: ref(*args))
+        assert got[0] == want[0] and (got[0] != "ok" or repr(got[1]).replace("Part", "") ==
+                                      repr(want[1]).replace("Part", "")), (args, got, want)
+        if got[0] != "ok":
+            assert got[1] == want[1]
+    for kwargs in kwcalls:
+        got, want = outcome(lambda: mine(**kwargs)), outcome(lambda: ref(**kwargs))
+        assert got[0] == want[0] and (got[0] == "ok" or got[1] == want[1]), (kwargs, got, want)
+    if names:
+        args = tuple(range(len(names)))
+        x, y = mine(*args), ref(*args)
+        assert dataclasses.asdict(x) == dataclasses.asdict(y)
+        # each default factory makes a new value for each instance
+        assert all(getattr(mine(*args[:1]), n) is not getattr(mine(*args[:1]), n)
+                   for n in names[1:] if isinstance(getattr(mine(*args[:1]), n), (list, dict)))
+        for act in (lambda o: setattr(o, names[0], 9), lambda o: delattr(o, names[0]),
+                    lambda o: setattr(o, "other", 1), lambda o: delattr(o, "missing")):
+            got, want = outcome(lambda: act(mine(*args))), outcome(lambda: act(ref(*args)))
+            assert got == want
+
+
+def test_post_init_runs_after_the_fields_are_set() -> None:
+    def post(self):
+        object.__setattr__(self, "total", self.a + self.b)
+    ref, mine = twins(True, {"a": "int", "b": "int"}, {"b": 2}, {"__post_init__": post})
+    assert mine(1).total == ref(1).total == 3 and mine(1, 5).total == 6
+
+
+def test_a_plain_subclass_of_a_frozen_record_is_frozen_where_the_dataclass_is() -> None:
+    ref, mine = twins(True, {"a": "int"}, {})
+    for base in (ref, mine):
+        sub = type("Sub", (base,), {})
+        o = sub(1)
+        o.extra = 2  # not a field, not the frozen class itself: allowed, as dataclass allows
+        assert o.extra == 2
+        with pytest.raises(dataclasses.FrozenInstanceError, match="cannot assign to field 'a'"):
+            o.a = 3
+
+
+def test_classes_of_unusual_kinds_are_made_by_dataclass_as_before() -> None:
+    # own __init__ kept; kw_only and init=False fields; a default before a required field
+    @record
+    class Own:
+        a: int
+
+        def __init__(self, text: str) -> None:
+            self.a = int(text)
+    assert Own("4").a == 4
+
+    @record(frozen=True)
+    class Flags:
+        a: int
+        b: int = field(default=0, kw_only=True)
+        c: int = field(default=5, init=False)
+    assert Flags(1, b=2) == Flags(1, b=2) and Flags(1).c == 5
+    with pytest.raises(TypeError, match="non-default argument 'b' follows default argument"):
+        @record
+        class Bad:
+            a: int = 0
+            b: int
+
+
+def test_every_record_of_the_engine_is_made_from_a_template() -> None:
+    import gc
+
+    import packwarden.engine  # noqa: F401 - the engine, the model and the rules' records
+    import packwarden.model.design  # noqa: F401
+    from packwarden import records
+    made = [c for c in gc.get_objects() if isinstance(c, type) and "__record_compare__" in c.__dict__]
+    templated = [c for c in made if c.__init__.__code__.co_filename == "<record __init__>"]
+    assert len(made) > 50 and len(templated) >= len(made) - 5
+    assert len(records._TEMPLATES) < len(templated) / 2

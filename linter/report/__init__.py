@@ -63,20 +63,10 @@ class FormatRegistry:
 
 def load_formats() -> FormatRegistry:
     """Every format of the ``packwarden.formats`` entry points, none of them imported yet."""
-    from importlib.metadata import entry_points
+    from ..entrycache import installed_entry_points
 
-    # A distribution's name is parsed from its metadata file on every access; the entry points of
-    # one distribution share one distribution object, so each name is read once.
-    names: dict[int, str] = {}
-
-    def dist(ep: Any) -> str:
-        if ep.dist is None:
-            return ep.module
-        if id(ep.dist) not in names:
-            names[id(ep.dist)] = ep.dist.name
-        return names[id(ep.dist)]
-
-    found = [(dist(ep), ep) for ep in entry_points(group=FORMAT_GROUP)]
+    found = [(dist if dist is not None else ep.module, ep)
+             for dist, ep in installed_entry_points(FORMAT_GROUP)]
     # packwarden's own formats first, then plugins by distribution: a plugin that reuses a name
     # is the one reported, and the outcome never depends on the order of the installation
     found.sort(key=lambda item: (item[0] != "packwarden", item[0], item[1].name))

@@ -1,0 +1,165 @@
+"""The ``packwarden.rules`` and ``packwarden.formats`` entry points, read once per environment.
+
+Finding them asks ``importlib.metadata`` to list every installed distribution and to parse the
+metadata file of each one that registers an entry point, for its name: a few tens of
+milliseconds of every start of ``packwarden check``, for an answer that changes only when a
+package is installed or removed. The answer is kept in a per-user cache file, one per Python
+environment, beside a fingerprint of everything the answer is read from:
+
+* the interpreter (``sys.prefix``, ``sys.executable``), ``sys.path`` in order, and the finders on
+  ``sys.meta_path`` (a finder may list distributions of its own);
+* for each folder on ``sys.path``, its modification time (installing or removing a package adds
+  or removes a ``*.dist-info`` folder there) and, for each ``*.dist-info`` / ``*.egg-info`` in it,
+  the modification times and sizes of that folder and of its ``entry_points.txt`` (a file
+  rewritten in place); for a file on ``sys.path`` (a zip), its own.
+
+When the fingerprint differs, or the file is missing, unreadable, corrupt or of another layout,
+the entry points are read from ``importlib.metadata`` as before and the file is written again;
+a cache that cannot be written is skipped silently. ``PACKWARDEN_CACHE_DIR`` moves the cache,
+and ``PACKWARDEN_CACHE_DIR=""`` (empty) turns it off. ``tests/test_entrycache.py`` holds it.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import os
+import sys
+from pathlib import Path
+from typing import Any, Optional
+
+#: The groups kept, read together on a miss.
+GROUPS = ("packwarden.rules", "packwarden.formats")
+#: The cache file's first line: its layout, then the fingerprint. A plain text file, one entry
+#: point a line (group, name, value, distribution; tab-separated), read without importing json.
+HEADER = "packwarden entry points 1"
+_META_SUFFIXES = (".dist-info", ".egg-info")
+
+
+def cache_dir() -> Optional[Path]:
+    """Where the cache files live (None: no cache): ``PACKWARDEN_CACHE_DIR``, else the user's
+    cache folder (``XDG_CACHE_HOME``, else ``~/.cache``) / packwarden."""
+    chosen = os.environ.get("PACKWARDEN_CACHE_DIR")
+    if chosen is not None:
+        return Path(chosen) if chosen else None
+    base = os.environ.get("XDG_CACHE_HOME") or os.path.join(os.path.expanduser("~"), ".cache")
+    return Path(base) / "packwarden"
+
+
+def environment_state() -> list:
+    """Everything the entry points are read from (see the module's docstring)."""
+    state: list = [sys.prefix, sys.executable,
+                   [f"{type(f).__module__}.{type(f).__qualname__}" for f in sys.meta_path]]
+    for entry in sys.path:
+        folder = entry or "."
+        try:
+            stat = os.stat(folder)
+        except OSError:
+            state.append([entry, None])
+            continue
+        metas: list = []
+        if os.path.isdir(folder):
+            try:
+                with os.scandir(folder) as found:
+                    names = sorted(e.name for e in found if e.name.endswith(_META_SUFFIXES))
+            except OSError:
+                names = ["(unreadable)"]
+            for name in names:
+                metas.append([name, _stamp(os.path.join(folder, name)),
+                              _stamp(os.path.join(folder, name, "entry_points.txt"))])
+        state.append([entry, stat.st_mtime_ns, metas])
+    return state
+
+
+def _stamp(path: str) -> Optional[list[int]]:
+    try:
+        stat = os.stat(path)
+    except OSError:
+        return None
+    return [stat.st_mtime_ns, stat.st_size]
+
+
+def read_installed() -> dict[str, list[list]]:
+    """The groups from ``importlib.metadata``: ``[name, value, distribution name or None]``."""
+    from importlib.metadata import entry_points
+
+    names: dict[int, str] = {}  # a distribution's name is parsed from its metadata at each access
+    out: dict[str, list[list]] = {}
+    for group in GROUPS:
+        rows = []
+        for ep in entry_points(group=group):
+            dist = None
+            if ep.dist is not None:
+                if id(ep.dist) not in names:
+                    names[id(ep.dist)] = ep.dist.name
+                dist = names[id(ep.dist)]
+            rows.append([ep.name, ep.value, dist])
+        out[group] = rows
+    return out
+
+
+def installed_entry_points(group: str) -> list[tuple[Optional[str], Any]]:
+    """``(distribution name or None, EntryPoint)`` for each entry point of ``group``, in the
+    order ``importlib.metadata`` lists them."""
+    from importlib.metadata import EntryPoint
+
+    rows = _cached_groups()[group]
+    return [(dist, EntryPoint(name, value, group)) for name, value, dist in rows]
+
+
+def _cached_groups() -> dict[str, list[list]]:
+    folder = cache_dir()
+    if folder is None:
+        return read_installed()
+    state = hashlib.sha256(repr(environment_state()).encode()).hexdigest()
+    env = hashlib.sha256(f"{sys.prefix}\0{sys.executable}".encode()).hexdigest()[:16]
+    path = folder / f"entry-points-{env}.txt"
+    try:
+        kept = _parse(path.read_text(encoding="utf-8"), state)
+    except (OSError, UnicodeError):
+        kept = None
+    if kept is not None:
+        return kept
+    groups = read_installed()
+    _write(path, _dump(groups, state))
+    return groups
+
+
+def _dump(groups: dict[str, list[list]], state: str) -> Optional[str]:
+    lines = [f"{HEADER} {state}"]
+    for group in GROUPS:
+        for name, value, dist in groups[group]:
+            fields = [group, name, value, dist or ""]
+            if any("\t" in f or "\n" in f or "\r" in f for f in fields):
+                return None  # not kept: read from importlib.metadata every time
+            lines.append("\t".join(fields))
+    return "\n".join(lines) + "\n"
+
+
+def _parse(text: str, state: str) -> Optional[dict[str, list[list]]]:
+    """The groups of a cache file of this layout and fingerprint, else None."""
+    lines = text.split("\n")
+    if lines[0] != f"{HEADER} {state}" or lines[-1] != "":
+        return None
+    groups: dict[str, list[list]] = {g: [] for g in GROUPS}
+    for line in lines[1:-1]:
+        fields = line.split("\t")
+        if len(fields) != 4 or fields[0] not in groups or not fields[1] or not fields[2]:
+            return None
+        groups[fields[0]].append([fields[1], fields[2], fields[3] or None])
+    return groups
+
+
+def _write(path: Path, text: Optional[str]) -> None:
+    # written beside and renamed over: a reader never sees half a file
+    if text is None:
+        return
+    tmp = path.with_name(f"{path.name}.{os.getpid()}.tmp")
+    try:
+        path.parent.mkdir(parents=True, exist_ok=True)
+        tmp.write_text(text, encoding="utf-8")
+        os.replace(tmp, path)
+    except OSError:
+        try:
+            tmp.unlink()
+        except OSError:
+            pass

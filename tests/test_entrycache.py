@@ -1,0 +1,152 @@
+"""The per-environment cache of the entry points (``packwarden.entrycache``).
+
+The reference is ``importlib.metadata`` itself (the standard library's reader of installed
+distributions, PEP 376 / the packaging "entry points" specification [published]): whatever the
+cache holds, what it answers must be what ``importlib.metadata`` answers at that moment. A fake
+distribution (a ``*.dist-info`` folder with ``METADATA`` and ``entry_points.txt``) in a temporary
+``sys.path`` entry is installed, changed and removed under it.
+"""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+
+import pytest
+
+from packwarden import entrycache
+from packwarden.entrycache import GROUPS, installed_entry_points, read_installed
+from packwarden.registry import load_registry
+
+
+def answer() -> dict:
+    return {g: [[ep.name, ep.value, dist] for dist, ep in installed_entry_points(g)]
+            for g in GROUPS}
+
+
+def install(site: Path, version: str = "1.0", rules: str = "team-rule = team_rules:check\n") -> Path:
+    info = site / f"acme_review-{version}.dist-info"
+    info.mkdir(parents=True)
+    (info / "METADATA").write_text(f"Metadata-Version: 2.1\nName: acme-review\nVersion: {version}\n",
+                                   encoding="utf-8")
+    (info / "entry_points.txt").write_text(f"[packwarden.rules]\n{rules}", encoding="utf-8")
+    return info
+
+
+def remove(info: Path) -> None:
+    for f in info.iterdir():
+        f.unlink()
+    info.rmdir()
+
+
+@pytest.fixture
+def cache(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
+    folder = tmp_path / "cache"
+    monkeypatch.setenv("PACKWARDEN_CACHE_DIR", str(folder))
+    return folder
+
+
+def test_installing_changing_and_removing_a_plugin_is_seen(
+        tmp_path: Path, cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    site = tmp_path / "site"
+    site.mkdir()
+    monkeypatch.syspath_prepend(str(site))
+    first = answer()
+    assert first == read_installed()
+    assert list(cache.glob("entry-points-*.txt"))  # written
+    assert answer() == first                          # and read back
+
+    info = install(site)
+    seen = answer()
+    assert seen == read_installed()
+    assert ["team-rule", "team_rules:check", "acme-review"] in seen["packwarden.rules"]
+
+    # the same distribution's entry_points.txt rewritten in place (a reinstall of one version):
+    # the file's size and time say so, even when the folder keeps its name
+    (info / "entry_points.txt").write_text("[packwarden.rules]\nother-rule = team_rules:other\n"
+                                           "[packwarden.formats]\nacme = team_rules:render\n",
+                                           encoding="utf-8")
+    seen = answer()
+    assert seen == read_installed()
+    assert ["acme", "team_rules:render", "acme-review"] in seen["packwarden.formats"]
+    assert not any(r[0] == "team-rule" for r in seen["packwarden.rules"])
+
+    remove(info)
+    assert answer() == read_installed() == first
+
+    install(site, version="2.0")  # upgraded: a new folder name
+    assert answer() == read_installed() != first
+
+
+def test_a_new_path_entry_is_another_environment_state(
+        tmp_path: Path, cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    answer()
+    site = tmp_path / "later"
+    install(site)
+    monkeypatch.syspath_prepend(str(site))
+    assert answer() == read_installed()
+    assert any(r[2] == "acme-review" for r in answer()["packwarden.rules"])
+
+
+@pytest.mark.parametrize("content", [
+    "", "{", "\x00\xff", "packwarden entry points 1", "packwarden entry points 0 STATE\n",
+    "packwarden entry points 1 STATE\npackwarden.rules\tx\n",          # too few fields
+    "packwarden entry points 1 STATE\nother.group\tx\tm:f\t\n",       # an unknown group
+    "packwarden entry points 1 STATE\npackwarden.rules\t\tm:f\tacme\n",  # no name
+    "packwarden entry points 1 STATE\npackwarden.rules\tx\tm:f\tacme",    # cut short
+])
+def test_a_corrupt_or_stale_cache_is_read_again(cache: Path, content: str) -> None:
+    answer()
+    (path,) = cache.glob("entry-points-*.txt")
+    state = path.read_text(encoding="utf-8").split("\n")[0].split()[-1]
+    path.write_bytes(content.replace("STATE", state).encode("latin-1"))
+    assert answer() == read_installed()
+    assert path.read_text(encoding="utf-8").startswith(entrycache.HEADER)  # written again
+
+
+def test_a_cache_of_another_state_is_not_believed(cache: Path) -> None:
+    answer()
+    (path,) = cache.glob("entry-points-*.txt")
+    header, rest = path.read_text(encoding="utf-8").split("\n", 1)
+    forged = f"{header[:-1]}0\npackwarden.rules\tghost\tghost:check\t\n{rest}"
+    path.write_text(forged, encoding="utf-8")
+    assert answer() == read_installed()
+    assert not any(r[0] == "ghost" for r in answer()["packwarden.rules"])
+
+
+def test_an_unwritable_cache_still_answers(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    blocker = tmp_path / "not-a-folder"
+    blocker.write_text("a file where the cache folder would be", encoding="utf-8")
+    monkeypatch.setenv("PACKWARDEN_CACHE_DIR", str(blocker / "cache"))
+    assert answer() == read_installed()
+    assert answer() == read_installed()
+
+
+def test_an_empty_cache_setting_turns_the_cache_off(tmp_path: Path,
+                                                     monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.setenv("PACKWARDEN_CACHE_DIR", "")
+    monkeypatch.setenv("XDG_CACHE_HOME", str(tmp_path))
+    assert entrycache.cache_dir() is None
+    assert answer() == read_installed()
+    assert not list(tmp_path.rglob("entry-points-*"))
+
+
+def test_the_registry_from_the_cache_is_the_registry_without_it(
+        cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    load_registry()  # fills the cache
+    cached = load_registry()
+    monkeypatch.setenv("PACKWARDEN_CACHE_DIR", "")
+    direct = load_registry()
+    assert list(cached.rules) == list(direct.rules)
+    assert {k: r.origin for k, r in cached.rules.items()} == {k: r.origin for k, r in direct.rules.items()}
+    assert cached.distributions == direct.distributions and cached.broken == direct.broken
+    assert cached.plugins == direct.plugins
+
+
+def test_the_state_reads_no_file_outside_the_path(tmp_path: Path,
+                                                  monkeypatch: pytest.MonkeyPatch) -> None:
+    # a missing or unreadable sys.path entry is part of the state, not an error
+    monkeypatch.syspath_prepend(str(tmp_path / "missing"))
+    state = entrycache.environment_state()
+    assert [str(tmp_path / "missing"), None] in state
+    assert os.fspath(tmp_path / "missing") not in os.listdir(tmp_path)
