@@ -130,6 +130,13 @@ def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
                f"no thermistor is on its temperature pin's net '{net}'")
         return [], [Unread(p.refdes, why, p.path + ("pins",), tuple(given))]
     ntc = ntcs[0]
+    far = [n for n in ntc.pins.values() if n != net]
+    if ground is not None and far and ground not in far:
+        # the divider is read against the protector's ground: with the thermistor's far end on
+        # another net its shares, and so its cut-off temperatures, are not the ones computed
+        return [], [Unread(p.refdes, f"the far end of {ntc.refdes} on its temperature pin is on "
+                                     f"net '{far[0]}', not on its ground '{ground}'",
+                           ntc.path, tuple(given))]
     if ti.pull_up is not None:
         bias = _span(ti.pull_up)
     else:
