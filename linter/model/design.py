@@ -575,6 +575,9 @@ class DesignModel:
             if c is not None:
                 out.update({f"{name}_cutoff_{end}": c.temperature.at(end)
                             for end in ("min", "typ", "max")})
+            if c is not None and c.release is not None:
+                out.update({f"{name}_release_{end}": c.release.at(end)
+                            for end in ("min", "typ", "max")})
         return out
 
 
