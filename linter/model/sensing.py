@@ -16,6 +16,7 @@ pin whose far end is not that ground.
 
 from __future__ import annotations
 
+import math
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
@@ -228,21 +229,35 @@ class CellHeating:
     power: float  # W per cell
     rise: float  # K
     theta: float  # K/W
+    #: the load that heats them: "continuous load", or "peak load" where the peak lasts long
+    #: enough to count as steady (``cell_heating``'s ``steady_after``)
+    load: str = "continuous load"
 
     @property
     def temperature(self) -> float:
         return self.ambient + self.rise
 
 
-def cell_heating(m: DesignModel, theta: float) -> CellHeating | None:
+def cell_heating(m: DesignModel, theta: float,
+                 steady_after: float = math.inf) -> CellHeating | None:
+    """The cells' steady temperature under the continuous load, or under the peak load where
+    the peak lasts ``steady_after`` seconds or more (long against the cell's thermal time
+    constant, it is as good as continuous)."""
     stack = m.stack
     if stack is None:
         return None
     event = m.event("continuous-load")
     pack_current = event.current if event is not None else m.design.load.continuous
+    load = "continuous load"
+    peak = m.design.load.peak
+    if peak is not None and peak.duration >= steady_after:
+        event = m.event("peak-load")
+        peak_current = event.current if event is not None else peak.current
+        if peak_current > pack_current:
+            pack_current, load = peak_current, "peak load"
     current = pack_current / stack.parallel
     power = current ** 2 * stack.part.internal_resistance.high
-    return CellHeating(m.ambient.max, current, power, power * theta, theta)
+    return CellHeating(m.ambient.max, current, power, power * theta, theta, load)
 
 
 def pack_energy(m: DesignModel) -> float | None:
