@@ -127,6 +127,11 @@ DRILL_INPUT = """      pull_up: {typ: 10 kΩ, tol: 1 %}
       charge_hot: {min: 35 %, typ: 35.5 %, max: 36 %}        # about 41 °C
       discharge_cold: {min: 85.5 %, typ: 86 %, max: 86.5 %}  # about -16 °C
       discharge_hot: {min: 25 %, typ: 25.5 %, max: 26 %}     # about 56 °C
+      release:                                               # each threshold's hysteresis
+        charge_cold: {min: 66.5 %, typ: 67 %, max: 67.5 %}   # charging resumes about 8 °C
+        charge_hot: {min: 39.5 %, typ: 40 %, max: 40.5 %}    # about 36 °C
+        discharge_cold: {min: 82.5 %, typ: 83 %, max: 83.5 %} # about -11 °C
+        discharge_hot: {min: 28 %, typ: 28.5 %, max: 29 %}   # about 51 °C
 """
 
 
@@ -170,3 +175,22 @@ def test_misused_threshold_forms_are_one_located_input_error(repo, thresholds, s
     assert proc.returncode == 2, proc.stdout + proc.stderr
     lines = [line for line in (proc.stdout + proc.stderr).splitlines() if "probe.yaml:" in line]
     assert len(lines) == 1 and says in lines[0], lines
+
+
+@pytest.mark.parametrize("block, where, says", [
+    ("      pull_up: 10 kΩ\n      volts: {charge_cold: 2.3 V}\n",
+     "temperature_input.volts.charge_cold:", "needs the input's reference voltage"),
+    ("      pull_up: 10 kΩ\n      bias_current: 20 µA\n      volts: {charge_cold: 0.5 V}\n",
+     "temperature_input.bias_current:", "an input that sources a current has no pull_up"),
+    ("      pull_up: 10 kΩ\n      reference: 3.3 V\n      volts: {charge_cold: 2.3 V}\n"
+     "      release_volts: {charge_cold: 2.5 V}\n",
+     "temperature_input.release_volts.charge_cold:", "the release of charge_cold is not below"),
+])
+def test_a_misused_protector_input_is_one_located_input_error_in_its_library(
+        repo, block, where, says) -> None:
+    proc = _check(repo, "bramblewood-drill-4s1p-lfp.yaml", [], fmt="text",
+                  lib=("bramblewood-parts.yaml", DRILL_INPUT, block))
+    assert proc.returncode == 2, proc.stdout + proc.stderr
+    lines = [line for line in (proc.stdout + proc.stderr).splitlines()
+             if line.startswith("parts/bramblewood-parts.yaml:")]
+    assert len(lines) == 1 and where in lines[0] and says in lines[0], lines
