@@ -1707,12 +1707,35 @@ class Ntc(Packaged):
         "(on the circuit board, reads the board's); shown in the findings about it"))
 
 
+class ThermalFuse(Packaged):
+    """A thermal fuse (a thermal cut-off): carries the pack current in series and opens, for
+    good, when its body reaches its opening temperature. It backs up the resettable temperature
+    cut-offs; it does not open on a short circuit, so it is no over-current backup."""
+
+    kind: Literal["thermal_fuse"] = Field(description="the part kind: 'thermal_fuse'")
+    opening_temperature: Tol("°C", ge=LOWEST_C, le=HIGHEST_C) = Field(description=(
+        "the temperature at which it opens, with its tolerance (toleranced °C, e.g. {typ: "
+        "90 °C, tol: 5}); above the resettable cut-offs and the pack's ambient "
+        "(thermal-fuse-window)"))
+    rated_current: PositiveAmps = Field(description=(
+        "the current it carries continuously, in amperes; at least the current the protection "
+        "permits for ever (thermal-fuse-window)"))
+    rated_voltage: PositiveVolts = Field(description=(
+        "rated voltage, in volts; at least the highest pack or charger voltage "
+        "(thermal-fuse-window)"))
+    resistance: PathOhms | None = Field(default=None, description=(
+        "resistance, in ohms; part of the power path's resistance (taken as near zero when "
+        "absent)"))
+    placement: Placement = Field(default=Placement.cells, description=(
+        "where it sits: 'cells' (on the cells, feels their temperature) or 'board'"))
+
+
 PART_KINDS: dict[str, type[Strict]] = {
     "cell": Cell, "protector": Protector, "fet": Fet, "fet_pair_common_drain": FetPair,
     "fuse": Fuse, "ptc": Ptc, "resistor": Resistor, "capacitor": Capacitor, "trace": Trace,
     "wire": Wire, "diode": Diode, "precharge": Precharge,
     "overvoltage_backup": OvervoltageBackup, "heater_fuse": HeaterFuse,
-    "ntc": Ntc,
+    "ntc": Ntc, "thermal_fuse": ThermalFuse,
 }
 
 Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items())],
