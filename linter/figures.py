@@ -93,6 +93,11 @@ DECLARED: dict[str, Declared] = {d.name: d for d in [
     *_range("charge_hot_cutoff", "°C", "charge-inhibit hot", ("ntc",)),
     *_range("discharge_cold_cutoff", "°C", "discharge cut-off cold", ("ntc",)),
     *_range("discharge_hot_cutoff", "°C", "discharge cut-off hot", ("ntc",)),
+    # where the input that acts first releases again, where it gives its release (hysteresis)
+    *_range("charge_cold_release", "°C", "charge-inhibit cold release", ("ntc",)),
+    *_range("charge_hot_release", "°C", "charge-inhibit hot release", ("ntc",)),
+    *_range("discharge_cold_release", "°C", "discharge cut-off cold release", ("ntc",)),
+    *_range("discharge_hot_release", "°C", "discharge cut-off hot release", ("ntc",)),
 ]}
 
 

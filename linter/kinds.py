@@ -122,6 +122,8 @@ KINDS: dict[str, Kind] = {k.name: k for k in (
         "1": "first terminal", "2": "second terminal",
         "heater": "heater element terminal: current into it melts the fuse",
     }, 3, _given_or_ideal),
+    # In the power path like a fuse; it opens on its body's temperature, not on current.
+    Kind("thermal_fuse", "thermal fuse", _ENDS, 2, _given_or_ideal),
 )}
 
 #: A multi-cell protector's numbered pins (``cellN``, ``balanceN``), described once for every N.

@@ -491,6 +491,7 @@ class ReversePolarity(str, Enum):
 
 
 Ratio = Tol("%", gt=0, lt=100)  # a share of a reference voltage
+ThresholdVolts = Tol("V", gt=0, le=MAX_VOLTS)  # a comparator threshold as a pin voltage
 
 
 class ChargerThermistor(Strict):
@@ -502,15 +503,42 @@ class ChargerThermistor(Strict):
     bias: Tol("Ω", gt=0, le=MAX_OHMS) = Field(description=(
         "the charger's bias resistor from its reference to the thermistor (toleranced ohms, "
         "e.g. {typ: 10 kΩ, tol: 1 %})"))
-    cold: Ratio = Field(description=(
+    cold: Ratio | None = Field(default=None, description=(
         "charging stops while the thermistor's voltage is above this share of the reference "
-        "(toleranced percent)"))
-    hot: Ratio = Field(description=(
+        "(toleranced percent); or give cold_voltage"))
+    hot: Ratio | None = Field(default=None, description=(
         "charging stops while the thermistor's voltage is below this share of the reference "
-        "(toleranced percent)"))
+        "(toleranced percent); or give hot_voltage"))
+    reference: Tol("V", gt=0, le=MAX_VOLTS) | None = Field(default=None, description=(
+        "the voltage the bias resistor is tied to, with its tolerance (toleranced volts); "
+        "needed for thresholds given in volts"))
+    cold_voltage: ThresholdVolts | None = Field(default=None, description=(
+        "the cold threshold as the thermistor's voltage (toleranced volts), instead of cold"))
+    hot_voltage: ThresholdVolts | None = Field(default=None, description=(
+        "the hot threshold as the thermistor's voltage (toleranced volts), instead of hot"))
+    cold_release: Ratio | None = Field(default=None, description=(
+        "charging resumes once the thermistor's voltage falls below this share of the "
+        "reference (toleranced percent): the cold threshold's hysteresis"))
+    hot_release: Ratio | None = Field(default=None, description=(
+        "charging resumes once the thermistor's voltage rises above this share of the "
+        "reference (toleranced percent): the hot threshold's hysteresis"))
+    cold_release_voltage: ThresholdVolts | None = Field(default=None, description=(
+        "cold_release as a voltage (toleranced volts)"))
+    hot_release_voltage: ThresholdVolts | None = Field(default=None, description=(
+        "hot_release as a voltage (toleranced volts)"))
 
     @model_validator(mode="after")
     def _ordered(self) -> "ChargerThermistor":
+        for end in ("cold", "hot"):
+            if getattr(self, end) is None and getattr(self, f"{end}_voltage") is None:
+                raise inconsistent(end, f"give the {end} threshold: {end} (a share) or "
+                                        f"{end}_voltage")
+        _threshold_forms(self, *({n: (f"{n}{suffix}", getattr(self, f"{n}{suffix}"))
+                                  for n in ("cold", "hot")}
+                                 for suffix in ("", "_voltage", "_release", "_release_voltage")),
+                         sourced=False)
+        if self.cold is None or self.hot is None:
+            return self
         if self.cold.nominal <= self.hot.nominal:
             raise inconsistent("hot", f"{_q(self.hot.nominal, '%')} is not below cold "
                                       f"{_q(self.cold.nominal, '%')}: a hot thermistor pulls "
@@ -927,6 +955,92 @@ class LowVoltageCharge(Strict):
         return self
 
 
+class ThresholdShares(Strict):
+    """The four thresholds of a temperature input as shares of its reference (toleranced
+    percent); here the levels at which a tripped threshold releases."""
+
+    charge_cold: Ratio | None = Field(default=None, description=(
+        "charging resumes once the pin falls below this share (toleranced percent)"))
+    charge_hot: Ratio | None = Field(default=None, description=(
+        "charging resumes once the pin rises above this share (toleranced percent)"))
+    discharge_cold: Ratio | None = Field(default=None, description=(
+        "discharge resumes once the pin falls below this share (toleranced percent)"))
+    discharge_hot: Ratio | None = Field(default=None, description=(
+        "discharge resumes once the pin rises above this share (toleranced percent)"))
+
+
+class ThresholdLevels(Strict):
+    """The four thresholds of a temperature input as pin voltages (toleranced volts): for a
+    data sheet that gives its comparators in volts against a stated reference, or an input that
+    sources a current into the thermistor."""
+
+    charge_cold: ThresholdVolts | None = Field(default=None, description=(
+        "charge-inhibit cold threshold as a pin voltage (toleranced volts)"))
+    charge_hot: ThresholdVolts | None = Field(default=None, description=(
+        "charge-inhibit hot threshold as a pin voltage (toleranced volts)"))
+    discharge_cold: ThresholdVolts | None = Field(default=None, description=(
+        "discharge cut-off cold threshold as a pin voltage (toleranced volts)"))
+    discharge_hot: ThresholdVolts | None = Field(default=None, description=(
+        "discharge over-temperature threshold as a pin voltage (toleranced volts)"))
+
+
+def _threshold_forms(model: Any, shares: dict, volts: dict, release: dict,
+                     release_volts: dict, sourced: bool) -> None:
+    """The checks a temperature input's thresholds share, whichever form they take: each given
+    once, as a share or as a voltage; volts need the reference (or the sourced current); a
+    release only beside its threshold, on the side a warming or cooling thermistor crosses it
+    after tripping (a hot thermistor pulls the pin low)."""
+    reference = model.reference
+
+    def share(value: Any, in_volts: bool) -> float | None:
+        if value is None:
+            return None
+        if not in_volts:
+            return value.nominal / 100.0
+        return value.nominal / reference.nominal if reference is not None else None
+
+    for name in shares:
+        s, v = shares[name][1], volts[name][1]
+        if s is not None and v is not None:
+            raise inconsistent(volts[name][0], f"{name} is given both as a share and as a "
+                                               f"voltage: give one")
+        if v is not None and reference is None and not sourced:
+            raise inconsistent(volts[name][0], "a threshold in volts needs the input's "
+                                               "reference voltage (reference)")
+        if v is not None and reference is not None and v.nominal >= reference.nominal:
+            raise inconsistent(volts[name][0], f"{_q(v.nominal, 'V')} is not below the "
+                                               f"reference {_q(reference.nominal, 'V')}: a "
+                                               f"divider's pin stays below its reference")
+    for name in shares:
+        for (where, r), in_volts in ((release[name], False), (release_volts[name], True)):
+            if r is None:
+                continue
+            if shares[name][1] is None and volts[name][1] is None:
+                raise inconsistent(where, f"a release for {name}, which has no threshold")
+            if in_volts and reference is None and not sourced:
+                raise inconsistent(where, "a release in volts needs the input's reference "
+                                          "voltage (reference)")
+    for name in shares:
+        trip = share(shares[name][1], False) or share(volts[name][1], True)
+        rel_s, rel_v = release[name][1], release_volts[name][1]
+        if rel_s is not None and rel_v is not None:
+            raise inconsistent(release_volts[name][0], f"the release of {name} is given both "
+                                                       f"as a share and as a voltage: give one")
+        rel = share(rel_s, False) if rel_s is not None else share(rel_v, True)
+        if sourced:  # a current into the thermistor: compare the voltages themselves
+            trip = volts[name][1].nominal if volts[name][1] is not None else None
+            rel = rel_v.nominal if rel_v is not None else None
+        if trip is None or rel is None:
+            continue
+        cold = name.endswith("cold")
+        if (rel >= trip) if cold else (rel <= trip):
+            where = release[name][0] if rel_s is not None else release_volts[name][0]
+            raise inconsistent(where, (
+                f"the release of {name} is not {'below' if cold else 'above'} its threshold: "
+                f"a {'cold' if cold else 'hot'} cut-off releases as the thermistor "
+                f"{'warms and the pin falls' if cold else 'cools and the pin rises'}"))
+
+
 class TemperatureInput(Strict):
     """A protector's temperature input: the thermistor on its pin forms a divider with a bias
     resistor from the input's reference, and comparators trip at shares of that reference.
@@ -951,11 +1065,47 @@ class TemperatureInput(Strict):
     discharge_hot: Ratio | None = Field(default=None, description=(
         "discharge over-temperature cut-off: discharge stops while the pin is below this share "
         "of the reference (toleranced percent)"))
+    reference: Tol("V", gt=0, le=MAX_VOLTS) | None = Field(default=None, description=(
+        "the voltage the bias resistor is tied to, with its tolerance (toleranced volts); "
+        "needed for thresholds given in volts (volts, release_volts)"))
+    volts: ThresholdLevels | None = Field(default=None, description=(
+        "the thresholds as pin voltages instead of shares, {charge_cold, charge_hot, "
+        "discharge_cold, discharge_hot} in toleranced volts: each is judged as its share of "
+        "the reference (or, with bias_current, as the thermistor resistance it means)"))
+    release: ThresholdShares | None = Field(default=None, description=(
+        "where a tripped threshold releases (its hysteresis), {charge_cold, ...} as shares of "
+        "the reference (toleranced percent): the release temperatures are computed and "
+        "reported beside the cut-offs"))
+    release_volts: ThresholdLevels | None = Field(default=None, description=(
+        "the releases as pin voltages (toleranced volts), for thresholds given in volts"))
+    bias_current: Tol("A", gt=0, le=1.0) | None = Field(default=None, description=(
+        "for an input that sources a current into the thermistor instead of a bias resistor: "
+        "that current with its tolerance (toleranced amperes, e.g. {typ: 20 µA, tol: 5 %}); "
+        "its thresholds are then in volts (volts), each the thermistor resistance volts / "
+        "current"))
 
     @model_validator(mode="after")
     def _some(self) -> "TemperatureInput":
-        if all(getattr(self, n) is None for n in THRESHOLDS):
-            raise ValueError("give at least one threshold: " + ", ".join(THRESHOLDS))
+        if all(getattr(self, n) is None for n in THRESHOLDS) and not (
+                self.volts is not None and any(getattr(self.volts, n) is not None
+                                               for n in THRESHOLDS)):
+            raise ValueError("give at least one threshold: " + ", ".join(THRESHOLDS)
+                             + " (as shares) or volts")
+        if self.bias_current is not None and (
+                self.pull_up is not None or any(getattr(self, n) is not None for n in THRESHOLDS)
+                or self.release is not None):
+            raise inconsistent("bias_current", "an input that sources a current has no pull_up "
+                                               "and its thresholds are in volts (volts, "
+                                               "release_volts)")
+
+        def each(block: Any, prefix: str) -> dict:
+            return {n: (f"{prefix}{n}", getattr(block, n) if block is not None else None)
+                    for n in THRESHOLDS}
+
+        _threshold_forms(self, {n: (n, getattr(self, n)) for n in THRESHOLDS},
+                         each(self.volts, "volts."), each(self.release, "release."),
+                         each(self.release_volts, "release_volts."),
+                         self.bias_current is not None)
         for cold, hot in (("charge_cold", "charge_hot"), ("discharge_cold", "discharge_hot")):
             c, h = getattr(self, cold), getattr(self, hot)
             if c is not None and h is not None and c.nominal <= h.nominal:
@@ -1557,12 +1707,35 @@ class Ntc(Packaged):
         "(on the circuit board, reads the board's); shown in the findings about it"))
 
 
+class ThermalFuse(Packaged):
+    """A thermal fuse (a thermal cut-off): carries the pack current in series and opens, for
+    good, when its body reaches its opening temperature. It backs up the resettable temperature
+    cut-offs; it does not open on a short circuit, so it is no over-current backup."""
+
+    kind: Literal["thermal_fuse"] = Field(description="the part kind: 'thermal_fuse'")
+    opening_temperature: Tol("°C", ge=LOWEST_C, le=HIGHEST_C) = Field(description=(
+        "the temperature at which it opens, with its tolerance (toleranced °C, e.g. {typ: "
+        "90 °C, tol: 5}); above the resettable cut-offs and the pack's ambient "
+        "(thermal-fuse-window)"))
+    rated_current: PositiveAmps = Field(description=(
+        "the current it carries continuously, in amperes; at least the current the protection "
+        "permits for ever (thermal-fuse-window)"))
+    rated_voltage: PositiveVolts = Field(description=(
+        "rated voltage, in volts; at least the highest pack or charger voltage "
+        "(thermal-fuse-window)"))
+    resistance: PathOhms | None = Field(default=None, description=(
+        "resistance, in ohms; part of the power path's resistance (taken as near zero when "
+        "absent)"))
+    placement: Placement = Field(default=Placement.cells, description=(
+        "where it sits: 'cells' (on the cells, feels their temperature) or 'board'"))
+
+
 PART_KINDS: dict[str, type[Strict]] = {
     "cell": Cell, "protector": Protector, "fet": Fet, "fet_pair_common_drain": FetPair,
     "fuse": Fuse, "ptc": Ptc, "resistor": Resistor, "capacitor": Capacitor, "trace": Trace,
     "wire": Wire, "diode": Diode, "precharge": Precharge,
     "overvoltage_backup": OvervoltageBackup, "heater_fuse": HeaterFuse,
-    "ntc": Ntc,
+    "ntc": Ntc, "thermal_fuse": ThermalFuse,
 }
 
 Part = Annotated[Union[tuple(Annotated[m, Tag(k)] for k, m in PART_KINDS.items())],

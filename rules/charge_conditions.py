@@ -16,7 +16,9 @@ def check(ctx, options):
     0 °C lithium plates on the anode, which costs capacity and can grow into an internal short;
     above the window the cell ages fast and the margin to thermal runaway shrinks. The design says
     how with ``charger.temperature_window`` (an NTC input, a charger's own sensing), which must
-    lie inside the cell's window; without it, a warning."""
+    lie inside the cell's window, or the netlist shows it: a thermistor read by the protector's
+    temperature input or by ``charger.thermistor`` with a threshold at that end (whose real
+    cut-off temperature charge-inhibit-window judges). With neither, a warning."""
     m = ctx.model
     ch, stack = m.design.charger, m.stack
     if ch is None or stack is None:
@@ -44,7 +46,14 @@ def check(ctx, options):
     figures = [Figure("ambient min", amb.min, "°C"), Figure("ambient max", amb.max, "°C"),
                Figure("charge temperature min", lo, "°C"), Figure("charge temperature max", hi, "°C")]
     if window is None:
-        outside = [t for t, out in ((cold, amb.min < lo), (hot, amb.max > hi)) if out]
+        # a thermistor input of the netlist that stops charging at an end answers for that end;
+        # charge-inhibit-window judges the temperature it really stops at
+        ts = m.temperature_sensing
+        outside = [t for t, out, end in ((cold, amb.min < lo, "charge_cold"),
+                                         (hot, amb.max > hi, "charge_hot"))
+                   if out and ts.effective(end) is None]
+        if not outside:
+            return
         yield ctx.finding(
             f"the pack operates {', and '.join(outside)}: outside the cell's charge temperature "
             f"window ({source}), and the design does not say how charging stops there",

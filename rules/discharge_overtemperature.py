@@ -8,6 +8,11 @@ class Options(RuleOptions):
         "continuous load heats it this much per watt [derived: 1/(h·A) with natural convection "
         "h ≈ 10 W/(m²·K) [practice] over an 18 mm × 65 mm cylinder's 42 cm²; cells packed "
         "together run hotter, a pack with airflow cooler]"))
+    peak_steady_after: Q("s") = Field(600.0, gt=0, le=86400, description=(
+        "a load peak lasting this long or longer heats the cells as a continuous load would, "
+        "and is judged in its place where it is the larger, in seconds [memory: a cylindrical "
+        "cell's thermal time constant is of the order of ten minutes to an hour; a peak much "
+        "shorter heats it less than its steady rise]"))
     error_energy: float = Field(100.0, gt=0, description=(
         "pack energy, in watt-hours, at or above which an unguarded pack is an error rather than a warning "
         "[memory: 100 Wh is the transport regulations' line for a lithium-ion battery carried "
@@ -31,7 +36,13 @@ def check(ctx, options):
     separator and electrolyte start to break down. The cells reach the pack's highest ambient
     plus their own heating: each cell's share of the continuous load squared, times its highest
     internal resistance, through a thermal resistance to the ambient (an option; no heat from the
-    switches or neighbouring cells is counted). Where that can pass the cell's
+    switches or neighbouring cells is counted). A load peak that lasts as long as the cells take
+    to warm through (``peak_steady_after``) counts as continuous where it is the larger; shorter
+    peaks heat the cells less than their steady rise and are left to the cells' pulse rating.
+    Charging is not counted here: the charge current is judged against the charge window, where
+    the charge-hot cut-off of a thermistor on the cells sees the cells' own charge heating
+    (charge-inhibit-window), and charging never adds to a discharge. Where that can pass the
+    cell's
     ``discharge_temperature`` maximum, something must stop the discharge: the protector's
     discharge over-temperature cut-off reading a thermistor on the cells. Without one it is a
     finding, an error for a large pack (its energy or continuous current at or above the
@@ -52,14 +63,15 @@ def check(ctx, options):
                        if {"discharge_cold", "discharge_hot"} & set(u.names))
     because = f" ({unread})" if unread else ""
     hot, cold = ts.effective("discharge_hot"), ts.effective("discharge_cold")
-    heat = m.cell_heating(options.cell_thermal_resistance)
+    heat = m.cell_heating(options.cell_thermal_resistance, options.peak_steady_after)
     if hot is None and heat is not None and heat.temperature > limits.max:
         energy = m.pack_energy or 0.0
         load = m.design.load.continuous
         large = energy >= options.error_energy or load >= options.error_current
         yield ctx.finding(
             f"the cells can reach {heat.temperature:.0f} °C (ambient {heat.ambient:.0f} °C plus "
-            f"{heat.rise:.1f} K from {fq(heat.power, 'W')} each at {fq(heat.current, 'A')}), "
+            f"{heat.rise:.1f} K from {fq(heat.power, 'W')} each at {fq(heat.current, 'A')} of the "
+            f"{heat.load}), "
             f"above their discharge limit {limits.max:.0f} °C, and nothing in the netlist stops "
             f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}{assumed}",
             path=cell_path, element=ref, key="unguarded",

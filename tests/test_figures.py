@@ -68,7 +68,8 @@ def test_declarations_are_consistent() -> None:
     assert set(ranges) == {"trip_current", "sense_resistance", "short_circuit_trip", "gate_drive",
                            "fast_trip", "balance_cell_voltage",
                            "charge_cold_cutoff", "charge_hot_cutoff", "discharge_cold_cutoff",
-                           "discharge_hot_cutoff"}
+                           "discharge_hot_cutoff", "charge_cold_release", "charge_hot_release",
+                           "discharge_cold_release", "discharge_hot_release"}
     for stem, members in ranges.items():
         # one unit, one label, one anchor per range, its ends in min/typ/max order
         assert len({(m.unit, m.label, m.element, m.headline) for m in members}) == 1, stem

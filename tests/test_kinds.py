@@ -34,4 +34,4 @@ def test_a_resistor_enters_the_path_at_the_corners_of_its_tolerance():
 
 
 def test_the_series_kinds_are_those_with_a_resistance():
-    assert SERIES_KINDS == ("fuse", "ptc", "resistor", "trace", "wire", "heater_fuse")
+    assert SERIES_KINDS == ("fuse", "ptc", "resistor", "trace", "wire", "heater_fuse", "thermal_fuse")

@@ -105,8 +105,8 @@ def time_current(m: "DesignModel") -> TimeCurrent:
                   if e.current > 0 and e.name not in OFF_CHART)
     limits: list[Limit] = []
     gates: list[GateBar] = []
-    for f in m.netlist.of_kind("fuse", "ptc"):
-        if f.kind == "fuse":
+    for f in m.netlist.of_kind("fuse", "heater_fuse", "ptc"):
+        if f.kind != "ptc":  # a heater fuse melts on over-current like any fuse
             limits += _fuse_limits(f, gates)
         else:
             limits += _ptc_limits(m, f)

@@ -502,9 +502,11 @@ class DesignModel:
         """The temperature inputs' cut-offs over every tolerance (sensing.py)."""
         return sensing.temperature_sensing(self)
 
-    def cell_heating(self, theta: float) -> sensing.CellHeating | None:
-        """The cells' highest temperature at the continuous load, through ``theta`` K/W."""
-        return sensing.cell_heating(self, theta)
+    def cell_heating(self, theta: float,
+                     steady_after: float = math.inf) -> sensing.CellHeating | None:
+        """The cells' highest temperature at the continuous load (or a peak lasting
+        ``steady_after`` or more), through ``theta`` K/W."""
+        return sensing.cell_heating(self, theta, steady_after)
 
     @cached_property
     def pack_energy(self) -> float | None:
@@ -574,6 +576,9 @@ class DesignModel:
             c = self.temperature_sensing.effective(name)
             if c is not None:
                 out.update({f"{name}_cutoff_{end}": c.temperature.at(end)
+                            for end in ("min", "typ", "max")})
+            if c is not None and c.release is not None:
+                out.update({f"{name}_release_{end}": c.release.at(end)
                             for end in ("min", "typ", "max")})
         return out
 

@@ -16,11 +16,12 @@ pin whose far end is not that ground.
 
 from __future__ import annotations
 
+import math
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from ..schema import HIGHEST_C, LOWEST_C, THRESHOLDS
-from .thermistor import trip_span
+from .thermistor import resistance_span, trip_span
 from .values import DesignMistake, Span
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -51,6 +52,9 @@ class Cutoff:
     temperature: Span
     #: the YAML path of the threshold (the protector's part, or the charger's block)
     path: tuple
+    #: where the tripped threshold releases, as a temperature over every tolerance, where the
+    #: input gives its release (hysteresis)
+    release: Span | None = None
 
     @property
     def cold(self) -> bool:
@@ -96,22 +100,43 @@ def _resistor_span(c: Component) -> Span:
     return Span(c.part.value * (1 - k), c.part.value, c.part.value * (1 + k))
 
 
-def _cutoffs(owner: str, ntc: Component, bias: Span,
-             thresholds: dict[str, tuple[Any, tuple]]) -> list[Cutoff]:
-    """Each threshold (name -> its toleranced percentage and YAML path) as a temperature."""
+def _level(share: Any, volts: Any, reference: Any, current: Any) -> Span | None:
+    """A threshold as the share of the reference its comparator trips at, over its tolerances;
+    given in volts, that voltage over the reference at their opposite corners. With a current
+    sourced into the thermistor (``current``), the thermistor resistance the voltage means."""
+    if share is not None:
+        return _span(share, 0.01)
+    if volts is None:
+        return None
+    by = current if current is not None else reference
+    return Span(volts.low / by.high, volts.nominal / by.nominal, volts.high / by.low)
+
+
+def _temperature(ntc: Component, owner: str, name: str, bias: Span | None, level: Span) -> Span:
     r25, beta = _span(ntc.part.r25), _span(ntc.part.beta)
+    span = (trip_span(r25, beta, bias, level) if bias is not None
+            else resistance_span(r25, beta, level))
+    if not (LOWEST_C <= span.min and span.max <= HIGHEST_C):
+        # far outside any pack's temperatures the beta form means nothing: a unit slip in
+        # R25, B, the bias or the threshold, not a cut-off to judge
+        raise DesignMistake(ntc.path, (
+            f"with {ntc.refdes} the {name.replace('_', ' ')} threshold of {owner} trips "
+            f"between {span.min:.4g} and {span.max:.4g} °C, outside {LOWEST_C:g} to "
+            f"{HIGHEST_C:g} °C: check the thermistor's r25 and beta, the bias resistor "
+            f"and the threshold"))
+    return span
+
+
+def _cutoffs(owner: str, ntc: Component, bias: Span | None,
+             thresholds: dict[str, tuple[Span, tuple, Span | None]]) -> list[Cutoff]:
+    """Each threshold (name -> its level, its YAML path and its release level, see
+    :func:`_level`) as a temperature; ``bias`` None for an input that sources a current."""
     out = []
-    for name, (t, at) in thresholds.items():
-        span = trip_span(r25, beta, bias, _span(t, 0.01))
-        if not (LOWEST_C <= span.min and span.max <= HIGHEST_C):
-            # far outside any pack's temperatures the beta form means nothing: a unit slip in
-            # R25, B, the bias or the threshold, not a cut-off to judge
-            raise DesignMistake(ntc.path, (
-                f"with {ntc.refdes} the {name.replace('_', ' ')} threshold of {owner} trips "
-                f"between {span.min:.4g} and {span.max:.4g} °C, outside {LOWEST_C:g} to "
-                f"{HIGHEST_C:g} °C: check the thermistor's r25 and beta, the bias resistor "
-                f"and the threshold"))
-        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at))
+    for name, (level, at, release) in thresholds.items():
+        span = _temperature(ntc, owner, name, bias, level)
+        back = (_temperature(ntc, owner, f"{name} release", bias, release)
+                if release is not None else None)
+        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at, back))
     return out
 
 
@@ -121,7 +146,14 @@ def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
     if ti is None:
         return [], []
     path = p.path + (("part",) if p.part_name else ()) + ("temperature_input",)
-    given = {n: getattr(ti, n) for n in THRESHOLDS if getattr(ti, n) is not None}
+    levels = {}
+    for n in THRESHOLDS:
+        trip = _level(getattr(ti, n), _of(ti.volts, n), ti.reference, ti.bias_current)
+        if trip is not None:
+            at = path + ((n,) if getattr(ti, n) is not None else ("volts", n))
+            levels[n] = (trip, at, _level(_of(ti.release, n), _of(ti.release_volts, n),
+                                          ti.reference, ti.bias_current))
+    given = levels
     net, ground = p.pins.get("temperature"), p.pins.get("ground")
     ntcs = [c for c in m.netlist.of_kind("ntc")
             if net is not None and net in c.pins.values() and c.part is not None]
@@ -130,7 +162,16 @@ def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
                f"no thermistor is on its temperature pin's net '{net}'")
         return [], [Unread(p.refdes, why, p.path + ("pins",), tuple(given))]
     ntc = ntcs[0]
-    if ti.pull_up is not None:
+    far = [n for n in ntc.pins.values() if n != net]
+    if ground is not None and far and ground not in far:
+        # the divider is read against the protector's ground: with the thermistor's far end on
+        # another net its shares, and so its cut-off temperatures, are not the ones computed
+        return [], [Unread(p.refdes, f"the far end of {ntc.refdes} on its temperature pin is on "
+                                     f"net '{far[0]}', not on its ground '{ground}'",
+                           ntc.path, tuple(given))]
+    if ti.bias_current is not None:
+        bias = None  # the input sources a current: the levels are resistances
+    elif ti.pull_up is not None:
         bias = _span(ti.pull_up)
     else:
         found = [r for r in m.topology.resistors_at.get(net, [])
@@ -139,7 +180,7 @@ def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
             return [], [Unread(p.refdes, f"its temperature input has no pull_up and no resistor "
                                          f"biases net '{net}'", path, tuple(given))]
         bias = _resistor_span(found[0])
-    return _cutoffs(p.refdes, ntc, bias, {n: (t, path + (n,)) for n, t in given.items()}), []
+    return _cutoffs(p.refdes, ntc, bias, levels), []
 
 
 def _charger_input(m: DesignModel) -> list[Cutoff]:
@@ -155,8 +196,18 @@ def _charger_input(m: DesignModel) -> list[Cutoff]:
         raise DesignMistake(("charger", "thermistor", "ntc"), (
             f"'{th.ntc}' is {what}: the charger reads a component of kind 'ntc'"))
     at = ("charger", "thermistor")
-    return _cutoffs("charger", ntc, _span(th.bias), {"charge_cold": (th.cold, at + ("cold",)),
-                                                      "charge_hot": (th.hot, at + ("hot",))})
+    levels = {}
+    for end in ("cold", "hot"):
+        trip = _level(getattr(th, end), getattr(th, f"{end}_voltage"), th.reference, None)
+        release = _level(getattr(th, f"{end}_release"), getattr(th, f"{end}_release_voltage"),
+                         th.reference, None)
+        field = end if getattr(th, end) is not None else f"{end}_voltage"
+        levels[f"charge_{end}"] = (trip, at + (field,), release)
+    return _cutoffs("charger", ntc, _span(th.bias), levels)
+
+
+def _of(block: Any, name: str) -> Any:
+    return getattr(block, name) if block is not None else None
 
 
 def temperature_sensing(m: DesignModel) -> TemperatureSensing:
@@ -178,21 +229,35 @@ class CellHeating:
     power: float  # W per cell
     rise: float  # K
     theta: float  # K/W
+    #: the load that heats them: "continuous load", or "peak load" where the peak lasts long
+    #: enough to count as steady (``cell_heating``'s ``steady_after``)
+    load: str = "continuous load"
 
     @property
     def temperature(self) -> float:
         return self.ambient + self.rise
 
 
-def cell_heating(m: DesignModel, theta: float) -> CellHeating | None:
+def cell_heating(m: DesignModel, theta: float,
+                 steady_after: float = math.inf) -> CellHeating | None:
+    """The cells' steady temperature under the continuous load, or under the peak load where
+    the peak lasts ``steady_after`` seconds or more (long against the cell's thermal time
+    constant, it is as good as continuous)."""
     stack = m.stack
     if stack is None:
         return None
     event = m.event("continuous-load")
     pack_current = event.current if event is not None else m.design.load.continuous
+    load = "continuous load"
+    peak = m.design.load.peak
+    if peak is not None and peak.duration >= steady_after:
+        event = m.event("peak-load")
+        peak_current = event.current if event is not None else peak.current
+        if peak_current > pack_current:
+            pack_current, load = peak_current, "peak load"
     current = pack_current / stack.parallel
     power = current ** 2 * stack.part.internal_resistance.high
-    return CellHeating(m.ambient.max, current, power, power * theta, theta)
+    return CellHeating(m.ambient.max, current, power, power * theta, theta, load)
 
 
 def pack_energy(m: DesignModel) -> float | None:

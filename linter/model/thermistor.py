@@ -23,7 +23,7 @@ import math
 from .values import Span
 
 __all__ = ["T25", "KELVIN", "resistance", "temperature_at", "divider_share", "ntc_for_share",
-           "trip_temperature", "trip_span"]
+           "trip_temperature", "trip_span", "resistance_span"]
 
 #: 0 °C in kelvin [published: SI].
 KELVIN = 273.15
@@ -65,4 +65,14 @@ def trip_span(r25: Span, beta: Span, r_bias: Span, share: Span) -> Span:
     temps = [trip_temperature(*c) for c in itertools.product(
         (r25.min, r25.max), (beta.min, beta.max), (r_bias.min, r_bias.max),
         (share.min, share.max))]
+    return Span(min(temps), typ, max(temps))
+
+
+def resistance_span(r25: Span, beta: Span, r: Span) -> Span:
+    """The temperature's own lowest, typical and highest at which the thermistor has the
+    resistance ``r`` (an input that sources a current into it and compares the voltage: ``r`` is
+    the threshold over the current), over every corner of R25, B and ``r``."""
+    typ = temperature_at(r25.typ, beta.typ, r.typ)
+    temps = [temperature_at(*c) for c in itertools.product(
+        (r25.min, r25.max), (beta.min, beta.max), (r.min, r.max))]
     return Span(min(temps), typ, max(temps))
