@@ -224,6 +224,7 @@ def lint_file(session: Session, path: Path, shown: str,
     result.figures = model_figures(model, result, doc)
     if session.keep_events:
         result.events = model_events(model, result, doc)
+        result.temperature_cutoffs = _from_model(result, doc, model.cutoffs_report, [])
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root),

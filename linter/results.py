@@ -27,6 +27,9 @@ class DesignResult:
     figures: dict[str, Any] = field(default_factory=dict)
     #: The model's events in time (``Event.as_dict()`` of each, docs/output-formats.md "Events").
     events: list[dict[str, Any]] = field(default_factory=list)
+    #: The thermistor inputs' cut-off temperatures with their tolerance stack
+    #: (``DesignModel.cutoffs_report``, docs/output-formats.md).
+    temperature_cutoffs: list[dict[str, Any]] = field(default_factory=list)
     errors: list[InputError] = field(default_factory=list)
     internal: list[InternalError] = field(default_factory=list)
     #: True once the design's rules ran (False when its file, config or libraries stopped it).

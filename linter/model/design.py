@@ -420,6 +420,12 @@ class DesignModel:
             out.append(d)
         return out
 
+    def cutoffs_report(self) -> list[dict[str, Any]]:
+        """Every temperature cut-off of the netlist's thermistor inputs as the JSON report writes
+        it: min/typ/max over every tolerance and what each tolerance alone moves it by
+        (sensing.Cutoff.as_dict)."""
+        return [c.as_dict() for c in self.temperature_sensing.cutoffs]
+
     def event(self, name: str):
         """The event called ``name`` (events.EVENT_NAMES), or None when the design has none."""
         return next((e for e in self.events if e.name == name), None)

@@ -21,7 +21,8 @@ from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from ..schema import HIGHEST_C, LOWEST_C, THRESHOLDS
-from .thermistor import resistance_span, trip_span
+from .thermistor import (resistance_span, temperature_at, tolerance_stack, trip_span,
+                         trip_temperature)
 from .values import DesignMistake, Span
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -55,6 +56,20 @@ class Cutoff:
     #: where the tripped threshold releases, as a temperature over every tolerance, where the
     #: input gives its release (hysteresis)
     release: Span | None = None
+    #: what each tolerance alone moves the trip by, K: ((quantity, most negative, most
+    #: positive), ...) for the thermistor's R25 and B, the bias and the threshold
+    stack: tuple = ()
+
+    def as_dict(self) -> dict:
+        """As the JSON report writes it."""
+        t = self.temperature
+        out = {"name": self.name, "owner": self.owner, "ntc": self.ntc,
+               "placement": self.placement, "min": t.min, "typ": t.typ, "max": t.max,
+               "tolerance_stack": {n: [lo, hi] for n, lo, hi in self.stack}}
+        if self.release is not None:
+            r = self.release
+            out["release"] = {"min": r.min, "typ": r.typ, "max": r.max}
+        return out
 
     @property
     def cold(self) -> bool:
@@ -127,6 +142,18 @@ def _temperature(ntc: Component, owner: str, name: str, bias: Span | None, level
     return span
 
 
+def _stack(ntc: Component, bias: Span | None, level: Span) -> tuple:
+    """Each tolerance's own share of a trip temperature's spread (thermistor.tolerance_stack)."""
+    spans = {"r25": _span(ntc.part.r25), "beta": _span(ntc.part.beta)}
+    if bias is not None:
+        spans.update(bias=bias, threshold=level)
+        parts = tolerance_stack(trip_temperature, spans)
+    else:  # a sourced current: the threshold is the thermistor's resistance itself
+        spans.update(threshold=level)
+        parts = tolerance_stack(temperature_at, spans)
+    return tuple((n, lo, hi) for n, (lo, hi) in parts.items())
+
+
 def _cutoffs(owner: str, ntc: Component, bias: Span | None,
              thresholds: dict[str, tuple[Span, tuple, Span | None]]) -> list[Cutoff]:
     """Each threshold (name -> its level, its YAML path and its release level, see
@@ -136,7 +163,8 @@ def _cutoffs(owner: str, ntc: Component, bias: Span | None,
         span = _temperature(ntc, owner, name, bias, level)
         back = (_temperature(ntc, owner, f"{name} release", bias, release)
                 if release is not None else None)
-        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at, back))
+        out.append(Cutoff(name, owner, ntc.refdes, ntc.part.placement.value, span, at, back,
+                          _stack(ntc, bias, level)))
     return out
 
 

@@ -76,3 +76,22 @@ def resistance_span(r25: Span, beta: Span, r: Span) -> Span:
     temps = [temperature_at(*c) for c in itertools.product(
         (r25.min, r25.max), (beta.min, beta.max), (r.min, r.max))]
     return Span(min(temps), typ, max(temps))
+
+
+def tolerance_stack(f, spans: dict[str, Span]) -> dict[str, tuple[float, float]]:
+    """What each tolerance alone moves ``f``'s result by: ``f`` with that one quantity at its
+    lowest and at its highest and every other at its typical value, less ``f`` at typical, in
+    the result's unit, as (most negative, most positive). The corners of :func:`trip_span` stack
+    these [derived: for a monotone function of each quantity the one-at-a-time ends add up to
+    about the corner's spread when the spreads are small]."""
+    typ = [s.typ for s in spans.values()]
+    base = f(*typ)
+    out = {}
+    for i, (name, span) in enumerate(spans.items()):
+        ends = []
+        for v in (span.min, span.max):
+            args = list(typ)
+            args[i] = v
+            ends.append(f(*args) - base)
+        out[name] = (min(ends), max(ends))
+    return out

@@ -74,6 +74,8 @@ class DesignView:
     assumptions: list[str] = field(default_factory=list)
     #: ``packwarden assist``'s answer for the design (``Assistance.as_dict()``), or None.
     assistant: dict[str, Any] | None = None
+    #: the thermistor inputs' cut-offs: (what, min, typ, max, the tolerance stack in words)
+    cutoffs: list[tuple[str, str, str, str, str]] = field(default_factory=list)
 
 
 def render(run: RunResult, opts: RenderOptions) -> str:
@@ -149,7 +151,22 @@ def _design_view(k: int, d: DesignResult, run: RunResult) -> DesignView:
     if model is not None:
         view.assumptions = _safely(_assumptions, model)
     view.assistant = d.assistant
+    cutoffs = d.temperature_cutoffs
+    if not cutoffs and model is not None:
+        cutoffs = _safely(lambda m: m.cutoffs_report(), model)
+    view.cutoffs = [_cutoff_row(c) for c in cutoffs]
     return view
+
+
+_STACK_WORDS = {"r25": "R25", "beta": "B", "bias": "bias", "threshold": "threshold"}
+
+
+def _cutoff_row(c: dict[str, Any]) -> tuple[str, str, str, str, str]:
+    """One cut-off of the JSON form (sensing.Cutoff.as_dict) as a row of the report's table."""
+    what = f"{c['name'].replace('_', ' ')} ({c['owner']} reading {c['ntc']} on the {c['placement']})"
+    stack = ", ".join(f"{_STACK_WORDS.get(n, n)} {lo:+.2f}/{hi:+.2f} K"
+                      for n, (lo, hi) in c["tolerance_stack"].items())
+    return (what, f"{c['min']:.1f} °C", f"{c['typ']:.1f} °C", f"{c['max']:.1f} °C", stack)
 
 
 def _safely(build: Any, model: Any) -> list:

@@ -46,6 +46,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         "designs": [{
             "file": d.file, "name": d.name, "figures": key_figures(d.figures),
             "events": [event_dict(e) for e in d.events],
+            "temperature_cutoffs": [_deep_rounded(c) for c in d.temperature_cutoffs],
             "findings": [finding_dict(f) for f in d.findings],
             "internal_errors": [asdict(i) for i in d.internal],
             "skipped_rules": d.skipped,
