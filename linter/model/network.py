@@ -609,8 +609,8 @@ class Network:
         # owner, sign, p, q, g, e / owner, sign, p, q, vf, g_on; and the bound on voltages
         linear, diodes, volt_scale = self._terms(index)
         key = (_solve_key(self, ground, max_iterations, linear, diodes)
-               if len(self._branches) <= SOLVED_MAX_BRANCHES else None)
-        known = _SOLVED.get(key) if key is not None else None
+               if len(self._branches) <= SOLVED_LARGE_BRANCHES else None)
+        known = _recall(key) if key is not None else None
         if known is not None:
             return known
         g_min = min([item[4] for item in linear], default=math.inf)
@@ -926,6 +926,34 @@ def _solve_key(network: Network, ground: str, max_iterations: int, linear: list,
 
 
 def _remember(key: tuple, solution: Solution) -> None:
+    if len(key[3]) > SOLVED_MAX_BRANCHES:
+        _remember_large(key, solution)
+        return
     if len(_SOLVED) >= SOLVED_MAX:
         _SOLVED.pop(next(iter(_SOLVED)), None)
     _SOLVED[key] = solution
+
+
+#: A large pack's solves, kept apart so they never push the small networks out: bounded by the
+#: branches they hold in all (the oldest go first), about 50 solves of a 400-component pack, which
+#: is what its lint asks for; a warm re-lint then solves again only what an edit changed, and
+#: a quarter of a lint's own solves are repeats [measured: bench/run.py's large pack, issue 19].
+#: A network of more branches than the whole bound is solved afresh every time.
+_SOLVED_LARGE: dict[tuple, Solution] = {}
+_SOLVED_LARGE_HELD = [0]
+SOLVED_LARGE_BRANCHES = 24_000
+
+
+def _recall(key: tuple) -> Solution | None:
+    known = _SOLVED.get(key)
+    return known if known is not None else _SOLVED_LARGE.get(key)
+
+
+def _remember_large(key: tuple, solution: Solution) -> None:
+    size = len(key[3])
+    while _SOLVED_LARGE and _SOLVED_LARGE_HELD[0] + size > SOLVED_LARGE_BRANCHES:
+        oldest = next(iter(_SOLVED_LARGE))
+        del _SOLVED_LARGE[oldest]
+        _SOLVED_LARGE_HELD[0] -= len(oldest[3])
+    _SOLVED_LARGE[key] = solution
+    _SOLVED_LARGE_HELD[0] += size

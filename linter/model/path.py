@@ -102,10 +102,7 @@ class PowerPath:
             key = ("cells", memo_key(cell_emf), memo_key(cell_r))
             base = memo.get(key)
             if base is None:
-                base = Network()
-                for c in self.topology.stack.cells:
-                    base.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
-                memo[key] = base
+                base = memo[key] = cell_stack(self.topology.stack.cells, cell_emf, cell_r)
             net = base.copy()
         else:
             net = Network()
@@ -408,3 +405,25 @@ class PowerPath:
                 return True
         return False
 
+
+#: Cell stacks' networks by their cells' names and nets and the cells' EMF and resistance, kept
+#: between lints: building and checking a large pack's 320 cells was about a sixth of its warm
+#: re-lint's model [measured: cProfile, bench/run.py's large pack, issue 19]. A network is only
+#: ever copied from, never changed, so a kept one is the very network the loop would build.
+_STACKS: dict[tuple, Network] = {}
+STACKS_MAX = 16
+
+
+def cell_stack(cells, cell_emf: float, cell_r: float) -> Network:
+    """Every cell of ``cells`` as a source of ``cell_emf`` behind ``cell_r``, in order."""
+    key = (tuple((c.refdes, c.pins["pos"], c.pins["neg"]) for c in cells),
+           memo_key(cell_emf), memo_key(cell_r))
+    base = _STACKS.get(key)
+    if base is None:
+        base = Network()
+        for c in cells:
+            base.add_source(c.refdes, c.pins["pos"], c.pins["neg"], cell_emf, cell_r)
+        if len(_STACKS) >= STACKS_MAX:
+            del _STACKS[next(iter(_STACKS))]
+        _STACKS[key] = base
+    return base

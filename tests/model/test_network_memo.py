@@ -78,6 +78,7 @@ def test_the_memory_is_bounded():
 
 def test_a_network_above_the_size_bound_is_solved_afresh(monkeypatch):
     monkeypatch.setattr(network, "SOLVED_MAX_BRANCHES", 3)
+    monkeypatch.setattr(network, "SOLVED_LARGE_BRANCHES", 3)
     first = chain().solve("B-")
     again = chain().solve("B-")
     assert again is not first and repr(again) == repr(first)
