@@ -106,6 +106,11 @@ HINTS = [
      _field("pack.wiring_inductance")),
     ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "turn_off_time ≥", "s",
      _part_field("Q1", "turn_off_time")),
+    # the turn-off time's upper end: slow enough for the spike, fast enough for the FET's heat
+    ("wiring-spike.yaml", "short-circuit-stress", "Q1", "and ≤", "s",
+     _part_field("Q1", "turn_off_time")),
+    ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "and ≤", "s",
+     _part_field("Q1", "turn_off_time")),
 ]
 
 
