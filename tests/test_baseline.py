@@ -174,9 +174,12 @@ def test_adopt_with_a_baseline_then_gate_new_findings(project: Path) -> None:
     reported = [ln for ln in proc.stdout.splitlines() if ": error " in ln]
     assert reported and all(ln.startswith("designs/orchard-probe.yaml:") for ln in reported)
     assert all("trip-current-window" in ln for ln in reported)
-    # the 3 A peak also heats the pair past the 125 °C limit (a warning): new as well
+    # the 3 A peak also heats the pair past the 125 °C limit, and the 2.5 A load the cells past
+    # their 60 °C discharge limit with nothing to cut it off (two warnings): new as well
     shown = [ln for ln in proc.stdout.splitlines() if ": error " in ln or ": warning " in ln]
-    assert len(shown) == len(reported) + 1
+    warned = sorted(ln.split(": warning ")[1].split(":")[0] for ln in shown if ": warning " in ln)
+    assert warned == ["discharge-overtemperature", "switch-temperature"]
+    assert len(shown) == len(reported) + 2
     assert f"{len(shown)} new, {n} unchanged" in proc.stderr
 
     # the SARIF of the same run marks the states
@@ -252,12 +255,12 @@ def test_since_reads_libraries_as_they_were(repo: Path) -> None:
     assert proc.returncode == 1
     reported = [ln for ln in proc.stdout.splitlines() if ": error " in ln]
     # F1 of the two fused designs lost its part; no-fuse has no F1, so its finding is unchanged,
-    # and trip-below-load's trip findings and its peak's heat warning are held back behind the
-    # netlist error, so "fixed"
+    # and trip-below-load's trip findings, its peak's heat warning and its cells' discharge
+    # overtemperature warning are held back behind the netlist error, so "fixed"
     assert [ln.split(":")[0] for ln in reported] == ["designs/orchard-probe.yaml",
                                                      "designs/trip-below-load.yaml"]
     assert all("unknown-part: F1: part 'OR-FUSE-12A'" in ln for ln in reported)
-    assert "2 new, 1 unchanged (not shown), 3 fixed" in proc.stderr
+    assert "2 new, 1 unchanged (not shown), 4 fixed" in proc.stderr
 
 
 def test_a_design_new_since_the_revision_is_all_new(repo: Path) -> None:
