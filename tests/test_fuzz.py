@@ -123,7 +123,9 @@ def lint_and_check(root: Path, design: bytes, library: bytes) -> None:
         summary.startswith("0 design(s) linted, 1 could not be read;"), summary
     assert caution.startswith("Caution: lithium cells")
     for line in out.split("\n")[:-3]:
-        if not line or line.startswith("    hint: ") or ": note: " in line or ": figures: " in line:
+        # a finding's hint and the assumptions its figures rest on are its indented lines
+        if not line or line.startswith(("    hint: ", "    assumes: ")) or ": note: " in line \
+                or ": figures: " in line:
             continue
         assert POSITIONED.match(line), f"output line without file:line:column: {line!r}"
 
