@@ -91,6 +91,12 @@ class Finding:
     #: What the finding's figures rest on that the design does not give: the model's assumption
     #: notes (an on-resistance extrapolated, a minimum taken from the typical and maximum).
     assumptions: tuple[str, ...] = ()
+    #: The name of the headline figure, the one whose change makes the finding worse (a waiver's
+    #: bound applies to it); empty: the first figure.
+    headline_figure: str = ""
+    #: The headline figure makes the finding worse as it falls (a trip minimum below the load):
+    #: a waiver bounds it with ``down_to``, not ``up_to``.
+    lower_is_worse: bool = False
 
     @property
     def subject(self) -> str | None:
@@ -99,8 +105,10 @@ class Finding:
 
     @property
     def headline(self) -> Figure | None:
-        """The finding's headline figure, the one a waiver's ceiling bounds: its first."""
-        return self.figures[0] if self.figures else None
+        """The finding's headline figure, the one a waiver's bound applies to: the figure the
+        rule named (``ctx.finding(headline=...)``), else the first."""
+        named = [g for g in self.figures if g.name == self.headline_figure]
+        return named[0] if named else self.figures[0] if self.figures else None
 
     def with_fingerprint(self, design_id: str) -> "Finding":
         # Keyed on what the finding is about, never on line numbers, so baselines survive edits
@@ -186,16 +194,23 @@ class RuleContext:
     def finding(self, message: str, *, path: Iterable = (), hint: str | None = None,
                 element: str | None = None, figures: Iterable[Figure] = (), key: str = "",
                 severity: Severity | str | None = None, cause: str = "",
-                assumptions: Iterable[str] = ()) -> Finding:
-        """Make a finding of the running rule, located at ``path`` in the design file."""
+                assumptions: Iterable[str] = (), headline: str = "",
+                lower_is_worse: bool = False) -> Finding:
+        """Make a finding of the running rule, located at ``path`` in the design file.
+        ``headline`` names the figure a waiver's bound applies to (default: the first);
+        ``lower_is_worse`` says the finding worsens as that figure falls."""
+        figures = tuple(figures)
+        if headline and headline not in {g.name for g in figures}:
+            raise ValueError(f"headline {headline!r} names none of the finding's figures")
         path = tuple(path)
         location = self._elsewhere(path)
         if location is None:
             location = Location(self.file, path, *self._where(path))
         return Finding(rule=self.rule_id, severity=Severity(severity) if severity else self.severity,
                        message=message, location=location, hint=hint,
-                       element=element, figures=tuple(figures), key=key, cause=cause,
-                       assumptions=tuple(dict.fromkeys(assumptions)))
+                       element=element, figures=figures, key=key, cause=cause,
+                       assumptions=tuple(dict.fromkeys(assumptions)), headline_figure=headline,
+                       lower_is_worse=lower_is_worse)
 
     def component_path(self, refdes: str, *rest: str) -> tuple:
         return ("components", refdes, *rest)

@@ -37,7 +37,8 @@ from .schema import HIGHEST_C, LOWEST_C, MAX_AMPS
 __all__ = ["COUNTED", "CURRENT_RESOLUTION", "TEMPERATURE_RESOLUTION", "HEADROOM_CEILING",
            "Blocker", "Limit", "Suggestion", "PartAdvice", "Assistance", "Relinter",
            "continuous_overrides", "peak_overrides", "ambient_overrides", "scaled_load_overrides",
-           "envelope", "suggestions", "assist", "headroom"]
+           "envelope", "suggestions", "assist", "headroom", "assist_run", "render_text",
+           "render_json"]
 
 #: Severities that stop a design from passing. An info finding states a fact, not a fault.
 COUNTED = (Severity.error, Severity.warning)
@@ -474,7 +475,8 @@ def suggestions(relint: Relinter, design: Any, findings: list[Finding],
             key, kind = part, parts[part].kind
             users = [c for c, v in components.items() if isinstance(v, dict) and v.get("part") == part]
         elif part is None and isinstance(written.get("kind"), str) and "pins" in written:
-            key, kind, users = f"inline {written['kind']} of {name}", written["kind"], [name]
+            users = _same_inline_part(components, written)
+            key, kind = f"inline {written['kind']} of {', '.join(users)}", written["kind"]
         else:
             continue
         advice = at_fault.get(key)
@@ -484,6 +486,15 @@ def suggestions(relint: Relinter, design: Any, findings: list[Finding],
     for advice in at_fault.values():
         _try_parts(relint, design, advice, parts)
     return list(at_fault.values())
+
+
+def _same_inline_part(components: dict, written: dict) -> list[str]:
+    """The components whose inline part is written exactly as ``written``'s (pins aside): one
+    line of the bill of materials, so a substitute goes into all of them at once, as a library
+    part does into every component that names it."""
+    fields = {k: v for k, v in written.items() if k != "pins"}
+    return [c for c, v in components.items() if isinstance(v, dict) and "part" not in v
+            and "pins" in v and {k: x for k, x in v.items() if k != "pins"} == fields]
 
 
 def _substitution(components: dict, name: str, part: str) -> Override:

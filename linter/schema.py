@@ -642,8 +642,14 @@ class Waiver(Strict):
         "waiver-hygiene reports the expired waiver as an error"))
     up_to: Annotated[str, AfterValidator(lambda v: _ceiling(v))] | None = Field(
         default=None, description=(
-            "the highest value of the finding's headline figure (its first) the waiver accepts, "
-            "with its unit, e.g. '1.5 A': a finding beyond it is not waived and says why"))
+            "the highest value of the finding's headline figure the waiver accepts, with its "
+            "unit, e.g. '1.5 A', for a finding that worsens as the figure grows: a finding beyond "
+            "it is not waived and says why"))
+    down_to: Annotated[str, AfterValidator(lambda v: _ceiling(v))] | None = Field(
+        default=None, description=(
+            "the lowest value of the finding's headline figure the waiver accepts, with its unit, "
+            "e.g. '1.2 A', for a finding that worsens as the figure falls (a trip minimum below "
+            "the load): a finding below it is not waived and says why"))
 
 
 def _ceiling(text: str) -> str:

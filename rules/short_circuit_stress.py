@@ -83,7 +83,7 @@ def check(ctx, options):
                          Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V"),
                          Figure("avalanche energy", av.energy, "J")]
                 + ([Figure("e_as", e_as, "J")] if e_as is not None else []),
-                hint=_spike_hint(spike, ch.part.vds_max, m.limits.vds_derating) + (
+                hint=_spike_hint(m, spike, ch.part.vds_max, m.limits.vds_derating) + (
                     "" if e_as is not None or not math.isfinite(av.energy) else
                     f"; or, if its data sheet rates E_AS ≥ {fq(av.energy, 'J')}, give it as e_as"))
 
@@ -105,10 +105,10 @@ def _energy(av, e_as):
     return e + f", above its e_as {fq(e_as, 'J')}"
 
 
-def _spike_hint(spike, vds_max, derating):
+def _spike_hint(m, spike, vds_max, derating):
     # The values proposed meet the derated limit switch-voltage-margin holds the same spike to
     # (Limits.vds_derating), not only the bare rating: a hint that fits one rule fits both.
     limit = vds_max * derating
-    within = spike_within(spike, limit)
+    within = spike_within(spike, limit, m.turn_off_window(spike, limit))
     rated = f"FETs with vds_max ≥ {fq(spike.total / derating, 'V', toward='up')}"
     return f"{within}, or {rated}" if within else f"use {rated}"

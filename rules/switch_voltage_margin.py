@@ -66,8 +66,8 @@ def check(ctx, options):
                              Figure("derated limit", limit, "V")],
                     hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V', toward='up')}"
                          + (", or prevent reverse charger connection" if "reversed" in what else "")
-                         + (f", or {spike_within(spike, limit)}" if "wiring spike" in what
-                            and spike_within(spike, limit) else ""))
+                         + (f", or {spike_within(spike, limit, m.turn_off_window(spike, limit))}"
+                            if "wiring spike" in what and spike_within(spike, limit) else ""))
         if gd is None or ch.package in seen:
             continue
         seen.add(ch.package)

@@ -53,7 +53,8 @@ def check(ctx, options):
             f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
             f"just below the trip is never cut off{held}{notes}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
-            key="max-vs-cell", assumptions=permitted.assumptions, figures=window + [Figure("permitted current", ever, "A"),
+            key="max-vs-cell", assumptions=permitted.assumptions, headline="permitted current",
+            figures=window + [Figure("permitted current", ever, "A"),
                                                  Figure("cell limit", cell_limit, "A")],
             hint=_resistance_hint(t, ever / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
     # FET channels: current divides across parallel packages as their resistances do
@@ -68,6 +69,7 @@ def check(ctx, options):
                 path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
                 cause=f"max-vs-fet{ch.name[len(ch.package):]}", assumptions=permitted.assumptions,
                 figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
+                headline="channel current",
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
                      f"with a lower over-current detection voltage")
     oc = p.part.overcurrent
@@ -85,7 +87,7 @@ def check(ctx, options):
                 f"{fq(t.at_min.vgs, 'V')} gate drive, highest "
                 f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min.assumptions)}",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
-                assumptions=t.at_min.assumptions,
+                assumptions=t.at_min.assumptions, headline="trip min", lower_is_worse=True,
                 figures=window + [Figure(what, current, "A")],
                 hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
     sc, psc = m.short_circuit_trip, m.prospective_short_circuit
@@ -93,7 +95,7 @@ def check(ctx, options):
         yield ctx.finding(
             f"prospective short-circuit current {fq(psc, 'A')} does not exceed the short-circuit trip "
             f"max {fq(sc.max, 'A')}: a hard short may be caught only by the slower over-current path",
-            path=ppath, element=p.refdes, key="short-circuit",
+            path=ppath, element=p.refdes, key="short-circuit", lower_is_worse=True,
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
 

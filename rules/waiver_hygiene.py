@@ -24,9 +24,10 @@ def check(ctx, options):
     than forgotten. A waiver that matches no finding is a warning: the finding was fixed or the
     waiver names the wrong rule or element, and a stale waiver would silently cover a later
     finding. A waiver without a reason is not valid at all (an input error). A waiver may bound
-    what it accepts (``up_to: 1.5 A`` on the finding's headline figure): a finding beyond the
-    ceiling is not waived and says which waiver does not cover it; the waiver still counts as
-    matching, so it is not called unused. A group of parallel packages is waived only when each
+    what it accepts (``up_to: 1.5 A`` on the finding's headline figure, or ``down_to: 1.2 A``
+    where the finding worsens as that figure falls): a finding beyond the bound is not waived
+    and says which waiver does not cover it; the waiver still counts as matching, so it is not
+    called unused. A group of parallel packages is waived only when each
     member is (docs/output-formats.md, "One cause, one finding").
 
     The engine emits these findings itself, after every rule has run (``packwarden.waivers``), so

@@ -7,12 +7,17 @@ judge), and one envelope limit against the protector's trip condition worked by 
 
 from __future__ import annotations
 
+import inspect
 import json
+import shutil
 import subprocess
 import sys
 from pathlib import Path
 
 import pytest
+import yaml
+
+import packwarden.assist
 
 from packwarden.assist import (CURRENT_RESOLUTION, Relinter, assist, continuous_overrides,
                                peak_overrides)
@@ -166,3 +171,44 @@ def test_bad_input_gives_one_located_line_and_exit_2_never_a_traceback(tmp_path)
     assert out.returncode == 2 and "Traceback" not in out.stdout + out.stderr
     first = out.stdout.splitlines()[0]
     assert first.startswith(f"{broken}:") and first.split(":")[1].isdigit()
+
+
+def test_identical_inline_parts_are_one_bill_of_materials_line(tmp_path: Path) -> None:
+    # The four parallel FETs of the flawed Ridgeline pack, each written inline as a copy of the
+    # library's RL-PFET-30C: one part on the bill of materials, so one piece of advice for all
+    # four, and the suggested part goes into all four (one alone would leave three at fault).
+    shutil.copytree(REPO / "example_designs", tmp_path / "designs")
+    (tmp_path / "packwarden.toml").write_text("", encoding="utf-8")
+    library = yaml.safe_load((REPO / "example_designs/parts/ridgeline-parts.yaml")
+                             .read_text(encoding="utf-8"))
+    fields = library["parts"]["RL-PFET-30C"]
+    design = tmp_path / "designs/flawed/ridgeline-fet-share.yaml"
+    text = design.read_text(encoding="utf-8")
+    for name in ("Q1", "Q2", "Q3", "Q4"):
+        start = text.index(f"  {name}: {{part: RL-PFET-30C, pins: ")
+        pins = text[start:text.index("}}", start) + 1].split("pins: ", 1)[1]
+        inline = json.dumps(fields, ensure_ascii=False)[:-1] + f", \"pins\": {pins}}}"
+        text = text[:start] + f"  {name}: {inline}" + text[text.index("\n", start):]
+    design.write_text(text, encoding="utf-8")
+    shown = "designs/flawed/ridgeline-fet-share.yaml"
+    session = Session(registry=load_registry())
+    help_ = assist(session, design, shown)
+    inline = [a for a in help_.advice if a.kind == "fet"]
+    assert [a.components for a in inline] == [["Q1", "Q2", "Q3", "Q4"]]
+    assert "RL-PFET-30" in [s.part for s in inline[0].passing]
+    # the independent check: a fresh session lints the design with the part in all four places
+    base = load_file(design, shown)
+    written = base.data["components"]
+    changes = [Override("set", f"components.{c}", {"part": "RL-PFET-30", "pins": written[c]["pins"]})
+               for c in ("Q1", "Q2", "Q3", "Q4")]
+    fresh = Session(registry=load_registry())
+    assert Relinter(fresh, design, shown, base).blockers(changes) == []
+
+
+def test_the_assistant_module_exports_every_public_name_it_defines() -> None:
+    module = packwarden.assist
+
+    defined = {n for n, v in vars(module).items() if not n.startswith("_")
+               and (inspect.isfunction(v) or inspect.isclass(v)) and v.__module__ == module.__name__}
+    assert defined <= set(module.__all__)
+    assert all(hasattr(module, n) for n in module.__all__)

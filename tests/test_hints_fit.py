@@ -34,9 +34,11 @@ def _library_part(doc, name: str) -> dict:
 
 
 def _inline(doc, component: str, **fields) -> Override:
-    """The component's library part written inline, with ``fields`` changed."""
+    """The component's part written inline (from its library, or as it is), with ``fields``
+    changed."""
     written = doc.data["components"][component]
-    part = _library_part(doc, written["part"])
+    part = (_library_part(doc, written["part"]) if "part" in written else
+            {k: v for k, v in written.items() if k != "pins"})
     part.update(fields)
     return Override("set", f"components.{component}", {**part, "pins": written["pins"]})
 
@@ -105,6 +107,21 @@ HINTS = [
     ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "keep pack.wiring_inductance ≤", "H",
      _field("pack.wiring_inductance")),
     ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "turn_off_time ≥", "s",
+     _part_field("Q1", "turn_off_time")),
+    # the charger's current limit that keeps a failed-high charger's overshoot within the cell
+    ("charger-too-high.yaml", "charger-fault-overshoot", "BT1", "at or below", "A",
+     _field("charger.current")),
+    ("probe-charger-fault-overshoot.yaml", "charger-fault-overshoot", "BT1", "at or below", "A",
+     _field("charger.current")),
+    # the thermal resistance that keeps the switch below its junction limit at the permitted current
+    ("trip-below-load.yaml", "switch-temperature", "Q1", "θJA ≤", "K/W",
+     _part_field("Q1", "theta_ja")),
+    ("fet-cooks-below-trip.yaml", "switch-temperature", "Q1", "θJA ≤", "K/W",
+     _part_field("Q1", "theta_ja")),
+    # the turn-off time's upper end: slow enough for the spike, fast enough for the FET's heat
+    ("wiring-spike.yaml", "short-circuit-stress", "Q1", "and ≤", "s",
+     _part_field("Q1", "turn_off_time")),
+    ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "and ≤", "s",
      _part_field("Q1", "turn_off_time")),
 ]
 

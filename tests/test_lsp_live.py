@@ -8,6 +8,7 @@ open documents.
 
 from __future__ import annotations
 
+import json
 import shutil
 import subprocess
 import sys
@@ -163,12 +164,34 @@ def test_without_pygls_the_command_says_which_extra_to_install() -> None:
 def test_an_editor_note_carries_the_assumptions_and_a_waivers_ceiling(project: Path) -> None:
     # The trip-below-load example's trip window rests on a gate drive the path lowers (an
     # assumption the model states, shown under the finding); the finding's headline figure is
-    # the trip minimum 1.4 A, so a waiver up to 1 A leaves it counting and says so.
+    # the trip minimum 1.4 A, worse as it falls, so a waiver down to 1.5 A leaves it counting
+    # and says so.
     design = project / "flawed/trip-below-load.yaml"
     text = design.read_text(encoding="utf-8") + (
         "waivers:\n"
-        "  - {rule: trip-current-window, element: U1, reason: bench-tested, up_to: 1 A}\n")
+        "  - {rule: trip-current-window, element: U1, reason: bench-tested, down_to: 1.5 A}\n")
     notes = [n for n in LiveLinter().lint_design(design, text) if n.code == "trip-current-window"]
     assert notes and all(n.severity == "error" for n in notes)
     assert all("\nassumes: " in n.message for n in notes)
-    assert all("up to 1 A does not cover trip min 1.4 A" in n.message for n in notes)
+    assert all("down to 1.5 A does not cover trip min 1.4 A" in n.message for n in notes)
+
+
+def test_a_grouped_finding_is_shown_on_every_members_line() -> None:
+    # The command line's JSON report is the reference: it gives the grouped finding's first
+    # place and its members' places; the editor must mark each of those lines with the finding.
+    design = REPO / "tests/rules/designs/grouping/four-parallel.yaml"
+    report = subprocess.run(
+        [sys.executable, "-m", "packwarden.cli", "check", "-f", "json", str(design)],
+        capture_output=True, text=True, cwd=REPO)
+    found = [f for d in json.loads(report.stdout)["designs"] for f in d["findings"]
+             if f["rule"] == "switch-current-sharing"]
+    assert found and all(len(f["members"]) == 4 for f in found)
+    notes = [n for n in LiveLinter().lint_design(design, design.read_text(encoding="utf-8"))
+             if n.code == "switch-current-sharing"]
+    for f in found:
+        lines = {f["location"]["line"]} | {m["line"] for m in f["member_locations"]}
+        assert len(lines) == 4  # Q1–Q4 (or Q5–Q8) are four components on four lines
+        shown = {n.line for n in notes if n.message == f["message"] + f"\nhint: {f['hint']}"
+                 + "".join(f"\nassumes: {a}" for a in f.get("assumptions", []))}
+        assert shown == lines
+        assert all(n.file == design for n in notes)

@@ -22,7 +22,7 @@ import os
 import shutil
 import re
 import tempfile
-from dataclasses import field
+from dataclasses import field, replace
 from pathlib import Path
 from typing import Annotated, Any, get_args, get_origin
 
@@ -181,7 +181,7 @@ class LiveLinter:
                 depends.add(cfg.policy.resolve())
         self.designs[path] = OpenDesign(result, config, frozenset(depends))
         self._drop_unused()
-        notes = [_finding_note(path, f) for f in result.findings]
+        notes = [note for f in result.findings for note in _finding_notes(path, f)]
         for ie in result.internal:
             notes.append(Note(path, 1, 1, "error", f"rule '{ie.rule}' failed, so this design is "
                               f"only partly reviewed (a fault in the rule or in packwarden, not "
@@ -323,6 +323,23 @@ def _finding_note(path: Path, f: Finding) -> Note:
         return Note(path, f.location.line, f.location.column, "hint",
                     f"waived ({f.waived}): {message}", f.rule)
     return Note(path, f.location.line, f.location.column, f.severity.value, message, f.rule)
+
+
+def _finding_notes(path: Path, f: Finding) -> list[Note]:
+    """A finding's note on its first member's line and on every other member's: a grouped
+    finding (four parallel packages) is seen wherever the editor shows one of them."""
+    first = _finding_note(path, f)
+    notes = [first]
+    for place in f.locations:
+        if place.file == f.location.file:
+            where, line, column = path, place.line, place.column
+        elif place.related is not None:  # a netlist member: its line in the design names it
+            where, line, column = path, place.related.line, place.related.column
+        else:
+            where, line, column = absolute(place.file), place.line, place.column
+        if (where, line, column) != (first.file, first.line, first.column):
+            notes.append(replace(first, file=where, line=line, column=column))
+    return notes
 
 
 def _error_note(e: InputError) -> Note:

@@ -460,6 +460,11 @@ class DesignModel:
         """The avalanche energy of turning off a short past vds_max (survival.Avalanche), or None."""
         return survival.avalanche(self, ch)
 
+    def turn_off_window(self, spike, limit: float):
+        """The turn-off times between the spike's voltage limit and the switch's heat limit
+        (survival.TurnOffWindow), or None when the stack alone reaches the limit."""
+        return survival.turn_off_window(self, spike, limit)
+
     @cached_property
     def storage_budget(self):
         """Months in storage to the cut-off and on to the cell's lower limit (storage.StorageBudget)."""

@@ -23,7 +23,8 @@ if TYPE_CHECKING:  # pragma: no cover
     from .topology import SwitchChannel
 
 __all__ = ["Spread", "current_spread", "ShareCase", "current_sharing", "PulseHeat", "pulse_heat",
-           "zth_at", "Avalanche", "avalanche"]
+           "zth_at", "Avalanche", "avalanche", "TURN_OFF_SEARCH_MAX", "TURN_OFF_RESOLUTION",
+           "TurnOffWindow", "turn_off_window"]
 
 #: A channel carrying at least this share of the pack current has no parallel peer to share it.
 _ALONE = 1.0 - 1e-9
@@ -228,3 +229,72 @@ def avalanche(m: "DesignModel", ch: "SwitchChannel") -> Avalanche | None:
         return None
     e = avalanche_energy(spike.inductance, spike.current, ch.part.vds_max, spike.stack)
     return Avalanche(ch.name, e, spike.current, spike.inductance, ch.part.vds_max, spike.stack)
+
+
+# --- the turn-off times a discharge switch may have -------------------------------------------
+
+#: The longest turn-off time the window searches up to: a switch that takes longer to turn off
+#: is no longer turning off a short but conducting it (the protector's delays are shorter).
+TURN_OFF_SEARCH_MAX = 1.0  # s
+#: The upper end is found to within this share of itself.
+TURN_OFF_RESOLUTION = 1e-3
+
+
+@record(frozen=True)
+class TurnOffWindow:
+    """The turn-off times that keep a discharge switch within its limits on interrupting a
+    short: at least ``low``, which keeps the spike V_stack + L·I/t within the voltage limit, and
+    at most ``high``, which keeps the hottest discharge package below tj_max at the end of the
+    turn-off (``high`` None: no Z_th to judge by, or none reached up to
+    :data:`TURN_OFF_SEARCH_MAX`). A slower fall lowers the spike but dissipates ½·V·I for longer
+    [derived, docs/references.md "Events in time"]. Empty when ``high`` < ``low``."""
+
+    low: float
+    high: float | None
+    package: str = ""
+
+    @property
+    def empty(self) -> bool:
+        return self.high is not None and self.high < self.low
+
+
+def turn_off_window(m: "DesignModel", spike: Any, limit: float) -> TurnOffWindow | None:
+    """The :class:`TurnOffWindow` of the turn-off spike ``spike`` (events.TurnOffSpike) against
+    ``limit`` (volts), or None when the stack alone reaches the limit. Each package's dissipation
+    in the turn-off-spike event scales with the voltage over the fall, V_stack + L·I/t (the
+    current and its share stay), and its junction at the end is start + P(t)·Z_th(t), the same
+    sum switch-pulse-heat judges; the first t at which one package passes tj_max is bisected."""
+    room = limit - spike.stack
+    if room <= 0:
+        return None
+    low = spike.inductance * spike.current / room
+    heats = [h for h in m.pulse_heat if h.event.name == "turn-off-spike" and h.zth is not None
+             and h.zth.exact and h.start < h.part.tj_max]
+    if not heats:
+        return TurnOffWindow(low, None)
+
+    def over(t: float) -> tuple[float, str]:
+        scale = (spike.stack + spike.inductance * spike.current / t) / spike.total
+        return max((h.start + h.power * scale * zth_at(h.part, t).value - h.part.tj_max,
+                    h.package) for h in heats)
+
+    # P(t)·Z_th(t) grows with t over the range searched (Z_th grows; the energy ½·I·(V_stack·t +
+    # L·I) grows), so the first failure on a rising grid, bisected, is the upper end.
+    passing, t = None, min(low, TURN_OFF_SEARCH_MAX) / 1e3
+    while t <= TURN_OFF_SEARCH_MAX:
+        excess, package = over(t)
+        if excess > 0:
+            break
+        passing, t = t, t * 1.25
+    else:
+        return TurnOffWindow(low, None)
+    if passing is None:
+        return TurnOffWindow(low, 0.0, package)
+    failing = t
+    while failing - passing > TURN_OFF_RESOLUTION * passing:
+        mid = (passing + failing) / 2
+        if over(mid)[0] > 0:
+            failing = mid
+        else:
+            passing = mid
+    return TurnOffWindow(low, passing, package)
