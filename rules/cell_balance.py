@@ -93,8 +93,9 @@ def check(ctx, options):
         figures.append(Figure("cycles to overcharge detection", cb.cycles_to_detection, ""))
     assumed = f" (assumed: {'; '.join(cb.assumptions)})" if cb.assumptions else ""
     if cb.design_drift > _NOISE and most.level != worst.level:
-        head = (f"level {worst.level} ({cells}) gains {fq(worst.need, 'Ah')} per {per} on level "
-                f"{most.level} ({drains} on level {most.level}; {spread}); {bleed}")
+        head = (f"level {worst.level} ({cells}) ends each {per} {fq(worst.need, 'Ah')} fuller "
+                f"than level {most.level}, which is drained more ({drains} on level "
+                f"{most.level}; {spread}); {bleed}")
     else:
         head = (f"level {worst.level} ({cells}) may gain {fq(worst.need, 'Ah')} per {per} on the "
                 f"others ({spread}); {bleed}")
