@@ -34,7 +34,7 @@ Units are SI: amperes, ohms, volts, watts, seconds, °C.
 from __future__ import annotations
 
 import math
-from dataclasses import field
+from dataclasses import field, replace
 from typing import TYPE_CHECKING, Any
 
 from ..records import record
@@ -1017,7 +1017,7 @@ _CHARGE_WAY = ("the path's resistances at that current either way; the drive is 
 
 def _into_pack(m: "DesignModel", name: str, current: float, duration: float | None,
                what: str, detection: str | None = None, voltage: float | None = None,
-               figures: dict | None = None) -> Event:
+               figures: dict | None = None, assumptions: tuple = ()) -> Event:
     """An event of ``current`` flowing into the pack, read off the operating point of the same
     current with the switches self-heated at the highest ambient, every part at its highest
     resistance (as the fixed loads are)."""
@@ -1026,9 +1026,8 @@ def _into_pack(m: "DesignModel", name: str, current: float, duration: float | No
     words = (f"{what}, highest ambient {a.max:g} °C, {_drive(gd.min, 'max')}, switches at their "
              f"self-heated steady state")
     e = _at_point(m, name, op, duration, words, detection, voltage)
-    return Event(e.name, e.corner, e.ambient, e.current, e.duration, e.element_current,
-                 e.dissipation, e.voltage, e.detection, e.assumptions + (_CHARGE_WAY,),
-                 figures=dict(figures or {}))
+    return replace(e, assumptions=e.assumptions + (_CHARGE_WAY,) + tuple(assumptions),
+                   figures=dict(figures or {}))
 
 
 def _charge(m: "DesignModel") -> list[Event]:
@@ -1061,11 +1060,8 @@ def _charger_fault(m: "DesignModel") -> list[Event]:
                "cell start": f.start, "OCV rise": f.rise, "cell peak": f.peak,
                "overcharge limit": f.limit, "cell current": f.current,
                "cell resistance": f.resistance}
-    e = _into_pack(m, "charger-fault", ch.current, f.delay,
-                   f"a charger failed high ({f.fault_voltage * stack.series:.4g} V) at its current "
-                   f"limit {ch.current:.4g} A until the overcharge detection's longest delay "
-                   f"{f.delay:.4g} s ends it", "overcharge", f.fault_voltage * stack.series,
-                   figures)
-    return [Event(e.name, e.corner, e.ambient, e.current, e.duration, e.element_current,
-                  e.dissipation, e.voltage, e.detection, e.assumptions + f.assumptions,
-                  figures=e.figures)]
+    return [_into_pack(m, "charger-fault", ch.current, f.delay,
+                       f"a charger failed high ({f.fault_voltage * stack.series:.4g} V) at its "
+                       f"current limit {ch.current:.4g} A until the overcharge detection's longest "
+                       f"delay {f.delay:.4g} s ends it", "overcharge", f.fault_voltage * stack.series,
+                       figures, f.assumptions)]

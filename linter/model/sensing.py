@@ -106,21 +106,12 @@ class TemperatureSensing:
         return min(found, key=lambda c: c.temperature.max)
 
 
-def _span(t: Any, scale: float = 1.0) -> Span:
-    return Span(t.low * scale, t.nominal * scale, t.high * scale)
-
-
-def _resistor_span(c: Component) -> Span:
-    k = c.part.tol / 100.0
-    return Span(c.part.value * (1 - k), c.part.value, c.part.value * (1 + k))
-
-
 def _level(share: Any, volts: Any, reference: Any, current: Any) -> Span | None:
     """A threshold as the share of the reference its comparator trips at, over its tolerances;
     given in volts, that voltage over the reference at their opposite corners. With a current
     sourced into the thermistor (``current``), the thermistor resistance the voltage means."""
     if share is not None:
-        return _span(share, 0.01)
+        return Span.of(share).scaled(0.01)
     if volts is None:
         return None
     by = current if current is not None else reference
@@ -128,7 +119,7 @@ def _level(share: Any, volts: Any, reference: Any, current: Any) -> Span | None:
 
 
 def _temperature(ntc: Component, owner: str, name: str, bias: Span | None, level: Span) -> Span:
-    r25, beta = _span(ntc.part.r25), _span(ntc.part.beta)
+    r25, beta = Span.of(ntc.part.r25), Span.of(ntc.part.beta)
     span = (trip_span(r25, beta, bias, level) if bias is not None
             else resistance_span(r25, beta, level))
     if not (LOWEST_C <= span.min and span.max <= HIGHEST_C):
@@ -144,7 +135,7 @@ def _temperature(ntc: Component, owner: str, name: str, bias: Span | None, level
 
 def _stack(ntc: Component, bias: Span | None, level: Span) -> tuple:
     """Each tolerance's own share of a trip temperature's spread (thermistor.tolerance_stack)."""
-    spans = {"r25": _span(ntc.part.r25), "beta": _span(ntc.part.beta)}
+    spans = {"r25": Span.of(ntc.part.r25), "beta": Span.of(ntc.part.beta)}
     if bias is not None:
         spans.update(bias=bias, threshold=level)
         parts = tolerance_stack(trip_temperature, spans)
@@ -200,14 +191,14 @@ def _protector_input(m: DesignModel) -> tuple[list[Cutoff], list[Unread]]:
     if ti.bias_current is not None:
         bias = None  # the input sources a current: the levels are resistances
     elif ti.pull_up is not None:
-        bias = _span(ti.pull_up)
+        bias = Span.of(ti.pull_up)
     else:
         found = [r for r in m.topology.resistors_at.get(net, [])
                  if ground not in (r.pins.get("1"), r.pins.get("2"))]
         if not found:
             return [], [Unread(p.refdes, f"its temperature input has no pull_up and no resistor "
                                          f"biases net '{net}'", path, tuple(given))]
-        bias = _resistor_span(found[0])
+        bias = Span(*(m.part_resistance(found[0], 25.0, c) for c in ("min", "typ", "max")))
     return _cutoffs(p.refdes, ntc, bias, levels), []
 
 
@@ -231,7 +222,7 @@ def _charger_input(m: DesignModel) -> list[Cutoff]:
                          th.reference, None)
         field = end if getattr(th, end) is not None else f"{end}_voltage"
         levels[f"charge_{end}"] = (trip, at + (field,), release)
-    return _cutoffs("charger", ntc, _span(th.bias), levels)
+    return _cutoffs("charger", ntc, Span.of(th.bias), levels)
 
 
 def _of(block: Any, name: str) -> Any:
