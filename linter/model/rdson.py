@@ -107,7 +107,7 @@ def rds_on(points: Iterable[Point], vgs: float, tj: float, hot_ratio: float,
         used = (highest,)
         base = highest.corner(corner)
         assumptions.append(
-            f"V_GS {vgs:g} V above the highest tabulated {highest.vgs:g} V: value held at "
+            f"V_GS above the highest tabulated {highest.vgs:g} V: value held at "
             f"{highest.vgs:g} V (more gate drive never raises R_DS(on); this errs high)")
     elif vgs < lowest.vgs:
         used = (lowest,)
@@ -171,11 +171,11 @@ def below_table(v_low: float, r_low: float, vgs: float,
     unknown = " (no gate threshold given: taken as 0 V, which understates the rise)" if vth is None else ""
     if v_low <= t or (vgs - t) * OFF_RATIO <= v_low - t:
         return r_low * OFF_RATIO, (
-            f"V_GS {vgs:g} V is not clear of the gate threshold {t:g} V{unknown}: the channel is "
+            f"V_GS {vgs:.3g} V is not clear of the gate threshold {t:g} V{unknown}: the channel is "
             f"off; its resistance is taken as {OFF_RATIO:g} × the {v_low:g} V row"), True
     value = r_low * (v_low - t) / (vgs - t)
     return value, (
-        f"V_GS {vgs:g} V below the lowest tabulated {v_low:g} V: R_DS(on) extrapolated as "
+        f"V_GS {vgs:.3g} V below the lowest tabulated {v_low:g} V: R_DS(on) extrapolated as "
         f"1/(V_GS − V_th) with V_th {t:g} V{unknown} through the {v_low:g} V row, "
         f"{value / r_low:.3g} × that row"), False
 
