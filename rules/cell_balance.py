@@ -132,6 +132,7 @@ def check(ctx, options):
                 f"{fq(cb.imbalance_to_detection, 'Ah')}")
     yield ctx.finding(f"{head}: {grows}{tail}{assumed}", path=path, element=element,
                       key="drift", figures=figures, severity=severity,
+                      headline="drift per cycle",
                       hint=f"{hint}; or {more}" if hint else more)
 
 

@@ -46,4 +46,5 @@ def check(ctx, options):
         f"overcharge delay {fq(f.delay, 's')}: {fq(f.peak, 'V')}, {fq(f.overshoot, 'V')} above "
         f"the cell's overcharge limit {fq(f.limit, 'V')}{notes}",
         path=("charger", "current"), element=ref, key="overshoot", figures=figures,
+        headline="cell peak",
         hint=hint)

@@ -76,6 +76,7 @@ def check(ctx, options):
             f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}{assumed}",
             path=cell_path, element=ref, key="unguarded",
             severity=None if large else "warning",
+            headline="cell temperature",
             figures=[Figure("cell temperature", heat.temperature, "°C"),
                      Figure("self-heating", heat.rise, "K"),
                      Figure("discharge limit", limits.max, "°C"),
@@ -94,6 +95,7 @@ def check(ctx, options):
                 f"(typical {t.typ:.1f} °C), {'below' if c.cold else 'above'} the cell's "
                 f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C{assumed}",
                 path=c.path, element=c.ntc, key=c.name,
+                headline=f"{c.name} cut-off {'min' if c.cold else 'max'}", lower_is_worse=c.cold,
                 figures=[Figure(f"{c.name} cut-off min", t.min, "°C"),
                          Figure(f"{c.name} cut-off max", t.max, "°C"),
                          Figure("cell limit", limit, "°C")],
@@ -105,6 +107,7 @@ def check(ctx, options):
             f"the pack operates down to {amb.min:.0f} °C, below the cells' discharge minimum "
             f"{limits.min:.0f} °C, and nothing in the netlist stops the discharge there{assumed}",
             path=("pack", "ambient", "min"), element=ref, key="cold", severity="warning",
+            headline="ambient min", lower_is_worse=True,
             figures=[Figure("ambient min", amb.min, "°C"),
                      Figure("discharge minimum", limits.min, "°C")],
             hint="give the protector's temperature_input a discharge_cold threshold, or narrow "

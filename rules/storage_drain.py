@@ -56,6 +56,7 @@ def check(ctx, options):
             f"cell), at or below the over-discharge detection maximum "
             f"{fq(b.cutoff_voltage, 'V')}: the pack is cut off from the day it ships{assumed}",
             path=("storage", "soc"), element=element, key="below-cutoff", figures=figures,
+            headline="months to cut-off", lower_is_worse=True,
             assumptions=b.assumptions,
             hint=f"store at a state of charge well above {first.end_soc * 100:.2g} % "
                  f"(docs/references.md: about 40 % is the usual shelf charge)")
@@ -81,6 +82,7 @@ def check(ctx, options):
             f"{fq(first.months, 'months')} ({drains}, {sd}); {tail}: the cells may be damaged "
             f"before the pack is used{assumed}",
             path=("storage", "duration"), element=element, key="lower-limit", figures=figures,
+            headline="months from cut-off to lower limit", lower_is_worse=True,
             assumptions=b.assumptions,
             hint=hint)
         return
@@ -90,5 +92,6 @@ def check(ctx, options):
         f"{fq(first.months, 'months')} ({drains}, {sd}): the pack ships cut off and needs a charger "
         f"to wake{assumed}",
         path=("storage", "duration"), element=element, key="cutoff", figures=figures,
+        headline="months to cut-off", lower_is_worse=True,
         assumptions=b.assumptions,
         severity=Severity.warning, hint=hint)

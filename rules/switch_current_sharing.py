@@ -52,6 +52,7 @@ def check(ctx, options):
             + "".join(f" ({a.removeprefix('min: ')})" for a in sp.assumptions),
             path=ctx.part_path(ch.package), element=ch.package, key=f"share-{name}-{rating}",
             cause=f"share{name[len(ch.package):]}-{rating}", assumptions=sp.assumptions,
+            headline="worst share",
             figures=[Figure("worst share", s.worst, "A"), Figure("equal share", s.equal, "A"),
                      Figure(rating, limit, "A"), Figure("share factor", sp.factor, "")],
             hint=f"use FETs with {rating} ≥ {fq(s.worst, 'A')}, or with a tighter on-resistance "

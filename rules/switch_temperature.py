@@ -86,6 +86,7 @@ def check(ctx, options):
             bound += f" (assumed: {'; '.join(notes)})"
         yield ctx.finding(message + bound, path=path, element=h.package, key=h.case,
                           assumptions=h.assumptions,
+                          headline="junction temperature",
                           severity=severity, figures=figures, hint=_hint(h, budget, ceiling))
 
 

@@ -96,6 +96,7 @@ def check(ctx, options):
             f"prospective short-circuit current {fq(psc, 'A')} does not exceed the short-circuit trip "
             f"max {fq(sc.max, 'A')}: a hard short may be caught only by the slower over-current path",
             path=ppath, element=p.refdes, key="short-circuit", lower_is_worse=True,
+            headline="prospective short circuit",
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
 
