@@ -95,7 +95,8 @@ def check(ctx, options):
                 f"(typical {t.typ:.1f} °C), {'below' if c.cold else 'above'} the cell's "
                 f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C{assumed}",
                 path=c.path, element=c.ntc, key=c.name,
-                headline=f"{c.name} cut-off {'min' if c.cold else 'max'}", lower_is_worse=c.cold,
+                headline=f"{c.name} cut-off min" if c.cold else f"{c.name} cut-off max",
+                lower_is_worse=c.cold,
                 figures=[Figure(f"{c.name} cut-off min", t.min, "°C"),
                          Figure(f"{c.name} cut-off max", t.max, "°C"),
                          Figure("cell limit", limit, "°C")],

@@ -17,6 +17,7 @@ import pytest
 
 from packwarden.api import Finding
 from packwarden.engine import Session, lint, lint_file, load_registry
+from packwarden.headlines import headlines
 from packwarden.loader import load_file
 from packwarden.overrides import Override, apply_overrides
 from packwarden.report import RenderOptions, formatter
@@ -63,6 +64,17 @@ def test_every_finding_names_a_headline_among_its_figures(path: Path) -> None:
         expected = EXPECTED.get((f.rule, f.key))
         if expected is not None:
             assert (f.headline.name, f.worse) == expected
+
+
+@pytest.mark.parametrize("path", FLAWED, ids=lambda p: p.stem)
+def test_the_rule_reference_names_each_findings_headline_and_bound(path: Path) -> None:
+    # docs/rules.md's "Waiver bounds" are read from the rules' code (packwarden.headlines): each
+    # finding met on the flawed examples must be one of the calls it lists, with its direction.
+    rules = SESSION.registry.rules
+    for f in with_figures(path):
+        listed = headlines(rules[f.rule])
+        assert any(h.matches(f.key, f.headline.name, f.lower_is_worse) for h in listed), (
+            f.rule, f.key, f.headline.name, f.worse, listed)
 
 
 def _bound(f: Finding, beyond: bool) -> dict[str, str]:
@@ -113,6 +125,8 @@ def test_a_bound_just_beyond_the_headline_waives_and_just_inside_does_not(path: 
                 assert bool(g.waived) == beyond, (f.rule, f.key, f.headline, g.message)
                 if not beyond:
                     assert "not waived" in g.message and f.headline.name in g.message
+                    way = "falls" if f.lower_is_worse else "grows"
+                    assert f"(worse as it {way})" in g.message
 
 
 def test_a_count_cannot_be_bounded_and_says_so() -> None:
