@@ -38,7 +38,7 @@ def check(ctx, options):
     found = m.backup_protection
     if stack is None or not found:
         return
-    assumed = "; ".join(m.cell_limits.assumptions) if m.cell_limits is not None else ""
+    assumed = m.cell_limits.assumptions if m.cell_limits is not None else ()
     for b in found:
         c = m.netlist.components[b.refdes]
         yield from _window(ctx, options, m, b, c, assumed)
@@ -83,12 +83,11 @@ def _window(ctx, options, m, b, c, assumed):
             hint=f"a backup detection of at least "
                  f"{fq(b.primary_max + options.primary_margin, 'V', 4)} at its minimum")
     if b.below_limit is not None and b.below_limit < 0:
-        note = f" (assumed: {assumed})" if assumed else ""
         yield ctx.finding(
             f"{b.refdes}'s highest detection {fq(b.detect.max, 'V', 4)} per cell is above the "
             f"cell's overcharge limit {fq(b.cell_limit, 'V', 4)}: the cell may pass its "
-            f"never-exceed voltage before the backup acts{note}",
-            path=path, element=b.refdes, key="above-cell-limit",
+            f"never-exceed voltage before the backup acts",
+            path=path, element=b.refdes, key="above-cell-limit", assumptions=assumed,
             headline="backup detection max",
             figures=window + [Figure("cell overcharge limit", b.cell_limit, "V")],
             hint=f"a backup detection of at most {fq(b.cell_limit, 'V', 4)} at its maximum")

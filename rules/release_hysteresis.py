@@ -78,8 +78,8 @@ def check(ctx, options):
                 hint=f"a protector with overcharge release ≤ {fq(r.detect - r.rebound, 'V')} at its "
                      f"highest, or a lower charge current")
     for heat in stress.retry_heat(m, options.retry_period):
-        assumed = (f" (retry period not given: {fq(heat.period, 's')} assumed [memory] — add "
-                   f"{heat.threshold}.retry_period)" if heat.period_assumed else "")
+        assumed = ([f"retry period not given: {fq(heat.period, 's')} assumed [memory] — add "
+                    f"{heat.threshold}.retry_period"] if heat.period_assumed else [])
         for pk, part in heat.parts.items():
             ceiling = min(options.retry_limit, part.tj_max)
             if not heat.runaway[pk] and heat.tj[pk] <= ceiling:
@@ -96,8 +96,8 @@ def check(ctx, options):
                 f"release retries automatically into {heat.event}: {pk} takes "
                 f"{fq(heat.energy[pk], 'J')} per retry ({fq(max(chans.values(), default=0.0), 'A')} "
                 f"for {fq(heat.duration, 's')}, I²t {fq(i2t, 'A²s')} per channel) every "
-                f"{fq(heat.period, 's')}, {fq(heat.power[pk], 'W')} on average, and {state}{assumed}",
-                path=ppath, element=pk, key=f"retry-{heat.threshold}-{pk}",
+                f"{fq(heat.period, 's')}, {fq(heat.power[pk], 'W')} on average, and {state}",
+                path=ppath, element=pk, key=f"retry-{heat.threshold}-{pk}", assumptions=assumed,
                 headline="junction temperature",
                 figures=[Figure("energy per retry", heat.energy[pk], "J"),
                          Figure("average power", heat.power[pk], "W"),

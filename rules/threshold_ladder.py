@@ -33,11 +33,6 @@ def check(ctx, options):
         return
     part = p.part
     ppath = ("components", p.refdes, "part")
-    assumed = "; ".join(limits.assumptions)
-
-    def note(text):
-        return f"{text} (assumed: {assumed})" if assumed else text
-
     if part.cells != stack.series:
         yield ctx.finding(
             f"{p.refdes} protects {part.cells} cell(s) in series but the pack has {stack.series}",
@@ -66,7 +61,7 @@ def check(ctx, options):
     if ch is not None:
         if ch.max > limits.upper_limit + 1e-9:
             yield ctx.finding(
-                note(f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
+                (f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
                      f"limit {fq(limits.upper_limit, 'V')}"),
                 path=("charger", "voltage"), element=stack.cells[0].refdes, key="charger-vs-upper",
                 assumptions=limits.assumptions,
@@ -89,7 +84,7 @@ def check(ctx, options):
                      f"charger with a tighter tolerance")
     if oc.detect.high > limits.overcharge_limit + 1e-9:
         yield ctx.finding(
-            note(f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
+            (f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
                  f"limit {fq(limits.overcharge_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overcharge-vs-limit",
             assumptions=limits.assumptions,
@@ -108,7 +103,7 @@ def check(ctx, options):
             hint="check the data sheet: release must sit below detection at every tolerance")
     if od.detect.low < limits.lower_limit - 1e-9:
         yield ctx.finding(
-            note(f"over-discharge detection min {fq(od.detect.low, 'V')} is below the cell's lower "
+            (f"over-discharge detection min {fq(od.detect.low, 'V')} is below the cell's lower "
                  f"limit {fq(limits.lower_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overdischarge-vs-limit",
             assumptions=limits.assumptions,
