@@ -44,7 +44,11 @@ PSEUDO_RULES = [
 
 
 def shipped_schema(which: str) -> dict:
-    """The JSON Schema shipped as ``schemas/{which}.schema.json``: design, parts or policy."""
+    """The JSON Schema shipped as ``schemas/{which}.schema.json``: design, parts, policy or
+    report (the JSON report's)."""
+    if which == "report":  # the JSON report's, beside its formatter
+        from .report.json_schema import report_schema
+        return report_schema()
     if which == "policy":  # the team policy's model lives with its checks in policy.py
         from .policy import policy_json_schema
         return policy_json_schema()

@@ -81,7 +81,7 @@ def check(ctx, options):
             f"{fq(first.months, 'months')} ({drains}, {sd}); {tail}: the cells may be damaged "
             f"before the pack is used",
             path=("storage", "duration"), element=element, key="lower-limit", figures=figures,
-            headline="months from cut-off to lower limit", lower_is_worse=True,
+            headline="months to cut-off", lower_is_worse=True,
             assumptions=b.assumptions,
             hint=hint)
         return

@@ -33,7 +33,7 @@ EXPECTED = {
     ("switch-voltage-margin", "vds-Q1.1"): ("blocking voltage", "higher"),
     ("switch-temperature", "continuous"): ("junction temperature", "higher"),
     ("short-circuit-reach", "weakest-short-uncleared"): ("weakest short", "lower"),
-    ("storage-drain", "lower-limit"): ("months from cut-off to lower limit", "lower"),
+    ("storage-drain", "lower-limit"): ("months to cut-off", "lower"),
     ("release-hysteresis", "overdischarge"): ("hysteresis", "lower"),
     ("secondary-protection", "rating"): ("permitted current", "higher"),
     ("threshold-ladder", "overcharge-vs-charger"): ("overcharge detect min", "lower"),
