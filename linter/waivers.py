@@ -86,4 +86,4 @@ def _beyond_bound(up_to: str | None, down_to: str | None, f: Finding, line: int)
     if (head.value >= loose) if f.lower_is_worse else (head.value <= loose):
         return None
     return (f"not waived: the waiver at line {line} {key.replace('_', ' ')} {shown} does not "
-            f"cover {head.name} {format_quantity(head.value, unit)} ({way})")
+            f"cover {head.name} {format_quantity(head.value, unit)}, {way}")

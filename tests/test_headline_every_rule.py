@@ -126,7 +126,7 @@ def test_a_bound_just_beyond_the_headline_waives_and_just_inside_does_not(path: 
                 if not beyond:
                     assert "not waived" in g.message and f.headline.name in g.message
                     way = "falls" if f.lower_is_worse else "grows"
-                    assert f"(worse as it {way})" in g.message
+                    assert f", worse as it {way}" in g.message
 
 
 def test_a_count_cannot_be_bounded_and_says_so() -> None:
