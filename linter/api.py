@@ -110,6 +110,19 @@ class Finding:
         named = [g for g in self.figures if g.name == self.headline_figure]
         return named[0] if named else self.figures[0] if self.figures else None
 
+    @property
+    def worse(self) -> str:
+        """Which way the headline figure makes the finding worse: "higher" or "lower"."""
+        return "lower" if self.lower_is_worse else "higher"
+
+    def headline_dict(self) -> dict | None:
+        """The headline figure and its direction as the machine formats write it (JSON
+        ``headline``, SARIF ``properties.headline``), or None for a finding without figures."""
+        head = self.headline
+        if head is None:
+            return None
+        return {"figure": head.name, "value": head.value, "unit": head.unit, "worse": self.worse}
+
     def with_fingerprint(self, design_id: str) -> "Finding":
         # Keyed on what the finding is about, never on line numbers, so baselines survive edits
         # elsewhere in the file and re-ordering of components.

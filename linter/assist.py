@@ -21,6 +21,7 @@ below, no finer.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import field
 from pathlib import Path
 from typing import Any, Callable
@@ -38,7 +39,7 @@ __all__ = ["COUNTED", "CURRENT_RESOLUTION", "TEMPERATURE_RESOLUTION", "HEADROOM_
            "Blocker", "Limit", "Suggestion", "PartAdvice", "Assistance", "Relinter",
            "continuous_overrides", "peak_overrides", "ambient_overrides", "scaled_load_overrides",
            "envelope", "suggestions", "assist", "headroom", "assist_run", "render_text",
-           "render_json"]
+           "render_json", "ValueAdvice", "values_to_change"]
 
 #: Severities that stop a design from passing. An info finding states a fact, not a fault.
 COUNTED = (Severity.error, Severity.warning)
@@ -174,6 +175,8 @@ class Assistance:
     blockers: list[Blocker] = field(default_factory=list)
     limits: list[Limit] = field(default_factory=list)
     advice: list[PartAdvice] = field(default_factory=list)
+    #: For findings no library part fixes: a value from the finding's hint, re-linted.
+    values: list["ValueAdvice"] = field(default_factory=list)
     #: Why the assistant could not work on the design (it does not lint), else "".
     unusable: str = ""
     seconds: float = 0.0
@@ -187,6 +190,7 @@ class Assistance:
                 "blockers": [b.as_dict() for b in self.blockers],
                 "envelope": [lim.as_dict() for lim in self.limits],
                 "parts": [a.as_dict() for a in self.advice],
+                "values": [v.as_dict() for v in self.values],
                 "lints": self.lints, "seconds": round(self.seconds, 2)}
 
     def text(self) -> str:
@@ -205,6 +209,10 @@ class Assistance:
         if not self.advice:
             out.append("    no finding at a library part")
         out += ["    " + line for a in self.advice for line in a.text().splitlines()]
+        if self.values:
+            out.append("  Values to change (findings no library part fixes; each value from the "
+                       "finding's hint, linted again):")
+            out += [f"    {v.text()}" for v in self.values]
         out.append(f"  ({self.lints} lints in {self.seconds:.1f} s)")
         return "\n".join(out) + "\n"
 
@@ -551,6 +559,9 @@ def assist(session: Session, path: Path, shown: str, peak_duration: float | None
     if not out.blockers:
         out.limits = envelope(relint, design, peak_duration)
     out.advice = suggestions(relint, design, result.findings, resolved.parts)
+    fixed = {_identity(f) for f in result.findings
+             if any(a.passing and _blocker(f) in a.findings for a in out.advice)}
+    out.values = values_to_change(relint, result.findings, fixed)
     out.lints = relint.lints + 1
     out.seconds = time.perf_counter() - began
     return out
@@ -594,3 +605,203 @@ def render_json(run: Any, helped: list[Assistance]) -> str:
                       for e in run.input_errors()],
            "designs": [h.as_dict() for h in helped]}
     return json.dumps(out, indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+
+
+# --- values to change, for findings no library part fixes ---------------------------------------
+
+#: A quantity as a hint writes it: a number and the unit word after it ("3.14 mm", "98.6 K/W").
+_HINTED = re.compile(r"(?<![\w.])(-?\d+(?:\.\d+)?(?:e-?\d+)?) ?([^\s,;()]+)")
+#: At most this many hinted values are tried per finding (a hint names one or two).
+VALUES_TRIED = 3
+
+
+@record
+class ValueAdvice:
+    """For one finding no library part fixes: a value its hint proposes, put where the design
+    holds it and linted again (``fits``: the finding is gone and nothing new counts), or why
+    nothing can be suggested (``note``)."""
+
+    finding: Blocker
+    #: The design fields the value went into (several for an inline part written alike in
+    #: several components: one line of the bill of materials).
+    paths: list[str] = field(default_factory=list)
+    value: str = ""
+    fits: bool = False
+    #: What still counts with the value in place (the finding itself, or one it raised).
+    still: Blocker | None = None
+    note: str = ""
+
+    def as_dict(self) -> dict[str, Any]:
+        return {"finding": self.finding.as_dict(), "paths": self.paths, "value": self.value,
+                "fits": self.fits, "still": self.still.as_dict() if self.still else None,
+                "note": self.note}
+
+    def text(self) -> str:
+        head = f"{self.finding.rule}{' at ' + self.finding.element if self.finding.element else ''}"
+        if not self.value:
+            return f"{head}: nothing to suggest: {self.note}"
+        where = ", ".join(self.paths)
+        if self.fits:
+            return f"{head}: {where} = {self.value} (from its hint) clears it and raises nothing new"
+        return (f"{head}: {where} = {self.value} (from its hint) does not fit: "
+                f"{self.still.text() if self.still else 'it still counts'}")
+
+
+def _identity(f: Finding) -> tuple:
+    return (f.rule, f.element or "", f.key)
+
+
+def _hinted_values(hint: str | None) -> list[tuple[str, str]]:
+    """The quantities a hint writes, as written and with their units, in order."""
+    from .quantities import QuantityError, parse_any_quantity
+    out = []
+    for m in _HINTED.finditer(hint or ""):
+        text = f"{m.group(1)} {m.group(2)}"
+        try:
+            _, unit = parse_any_quantity(text)
+        except QuantityError:
+            continue
+        out.append((text, unit))
+    return out
+
+
+def _node(data: Any, path: tuple) -> Any:
+    for step in path:
+        if isinstance(data, dict) and step in data:
+            data = data[step]
+        elif isinstance(data, list) and isinstance(step, int) and 0 <= step < len(data):
+            data = data[step]
+        else:
+            return None
+    return data
+
+
+def _unit_of(value: Any) -> str | None:
+    from .quantities import QuantityError, parse_any_quantity
+    if not isinstance(value, str):
+        return None
+    try:
+        return parse_any_quantity(value)[1]
+    except QuantityError:
+        return None
+
+
+def _value_fields(data: Any, path: tuple, hint: str) -> dict[str, tuple | str]:
+    """The design fields a finding at ``path`` may be fixed by, by unit: the value at ``path``
+    itself, else the values beside it (the fields of the mapping it is, or is in). Where fields
+    share a unit, the one the hint names (a word of it starts as the field does: "widen" for
+    ``width``); if the hint names none or several, why not (a text in place of the path)."""
+    node = _node(data, path)
+    if _unit_of(node) is not None:
+        return {_unit_of(node): path}
+    if not isinstance(node, dict):
+        path = path[:-1]
+        node = _node(data, path)
+    if not isinstance(node, dict):
+        return {}
+    by_unit: dict[str, list[tuple]] = {}
+    for key, value in node.items():
+        unit = _unit_of(value)
+        if unit is not None:
+            by_unit.setdefault(unit, []).append(path + (key,))
+    words = re.findall(r"[a-z_]+", hint.lower())
+    out: dict[str, tuple | str] = {}
+    for unit, paths in by_unit.items():
+        named = [p for p in paths if any(w.startswith(str(p[-1])[:3].lower()) for w in words)]
+        out[unit] = paths[0] if len(paths) == 1 else named[0] if len(named) == 1 else (
+            f"its hint's value in {unit} could go into "
+            f"{' or '.join(str(p[-1]) for p in paths)} at {_dotted(path)}, and the hint does not "
+            f"say which")
+    return out
+
+
+def _already(data: Any, path: tuple | str, text: str) -> bool:
+    """Whether the design already holds ``text``'s value at ``path`` (a hint that restates a
+    figure of the design proposes nothing)."""
+    from .quantities import parse_any_quantity
+    if isinstance(path, str) or _unit_of(_node(data, path)) is None:
+        return False
+    return math.isclose(parse_any_quantity(_node(data, path))[0], parse_any_quantity(text)[0],
+                        rel_tol=1e-9)
+
+
+def _dotted(path: tuple) -> str:
+    return ".".join(str(p) for p in path)
+
+
+def _alike(components: dict, path: tuple) -> list[tuple]:
+    """``path`` in every component whose inline part is written as the one ``path`` is in (one
+    line of the bill of materials); ``path`` alone otherwise."""
+    if len(path) < 3 or path[0] != "components" or not isinstance(components, dict):
+        return [path]
+    written = components.get(path[1])
+    if not isinstance(written, dict) or "part" in written or "pins" not in written:
+        return [path]
+    return [("components", c) + path[2:] for c in _same_inline_part(components, written)]
+
+
+def values_to_change(relint: Relinter, findings: list[Finding],
+                     fixed: set[tuple]) -> list[ValueAdvice]:
+    """For each counted finding no library part fixes (``fixed``: identities a suggestion
+    clears), the value its hint proposes, put into the design field the finding points at (or
+    the one beside it in the hinted unit) and linted again; or why nothing can be suggested."""
+    counted = [f for f in findings if f.severity in relint.counted and not f.waived]
+    before = {_identity(f) for f in counted}
+    components = relint.base.data.get("components")
+    out = []
+    for f in counted:
+        if _identity(f) in fixed:
+            continue
+        advice = ValueAdvice(_blocker(f))
+        out.append(advice)
+        hinted = _hinted_values(f.hint)
+        if f.location.related is not None:
+            advice.note = "it is at a component of the schematic's netlist: change it there"
+            continue
+        if not hinted:
+            advice.note = ("its hint proposes no value" if f.hint else "it has no hint") + \
+                ": the change it needs is not one value of the design (a part to add, a " \
+                "structure to change)"
+            continue
+        node = _node(relint.base.data, tuple(f.location.path))
+        if f.location.path and f.location.path[-1] == "part" and isinstance(node, str):
+            advice.note = (f"its hint asks for other ratings of library part {node} (see the "
+                           f"part suggestions), not a value written in the design")
+            continue
+        fields = _value_fields(relint.base.data, tuple(f.location.path), f.hint or "")
+        tried = [(text, fields[unit]) for text, unit in hinted if unit in fields
+                 and not _already(relint.base.data, fields[unit], text)][:VALUES_TRIED]
+        unsure = [why for text, unit in hinted if isinstance(why := fields.get(unit), str)]
+        if unsure:
+            advice.note = unsure[0]
+            continue
+        if not tried and any(unit in fields for _, unit in hinted):
+            advice.note = (f"its hint restates the design's own {f.location.dotted} and proposes "
+                           f"no other value there")
+            continue
+        if not tried:
+            units = ", ".join(dict.fromkeys(u or "count" for _, u in hinted))
+            advice.note = (f"its hint proposes values in {units}, and the design holds none "
+                           f"there at {f.location.dotted or 'its top level'}: the change is "
+                           f"to a part or the structure, not to a value written here")
+            continue
+        for text, path in tried:
+            paths = _alike(components, path)
+            advice.paths, advice.value = [_dotted(p) for p in paths], text
+            relint.lints += 1
+            try:
+                doc = apply_overrides(relint.base, [Override("set", _dotted(p), text)
+                                                    for p in paths])
+            except OverrideError as exc:
+                advice.still = Blocker("input", "", str(exc))
+                continue
+            result = lint_file(relint.session, relint.path, relint.shown, document=doc)
+            after = [g for g in result.findings if g.severity in relint.counted and not g.waived]
+            still = [g for g in after if _identity(g) == _identity(f)] + \
+                [g for g in after if _identity(g) not in before]
+            errors = [Blocker("input", "", _error_text(e)) for e in result.errors]
+            advice.still = errors[0] if errors else _blocker(still[0]) if still else None
+            advice.fits = advice.still is None
+            if advice.fits:
+                break
+    return out

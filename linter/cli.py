@@ -30,6 +30,7 @@ class SchemaKind(str, Enum):
     design = "design"
     parts = "parts"
     policy = "policy"
+    report = "report"
 
 
 @app.command()
@@ -119,12 +120,12 @@ def docs(
 
 
 @app.command()
-def schema(kind: Optional[SchemaKind] = typer.Argument(None, help="design (the default), parts or policy"),
+def schema(kind: Optional[SchemaKind] = typer.Argument(None, help="design (the default), parts, policy or report (the JSON report)"),
            write: Optional[Path] = typer.Option(
                None, "--write", metavar="DIR",
                help="write the schema (without a kind: every schema) into DIR as KIND.schema.json, "
                     "for your repository's $schema lines")) -> None:
-    """Print the JSON Schema of design files, part libraries or team policy files."""
+    """Print the JSON Schema of design files, part libraries, team policy files or the JSON report."""
     import json
 
     from .docs import shipped_schema

@@ -25,6 +25,7 @@ from types import UnionType
 from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origin
 
 from .api import Rule
+from .headlines import bound_words, headlines
 from .kinds import KINDS, NUMBERED_PINS
 from .schema import bounds_of
 from .schema import quantity_of as _quantity_of
@@ -43,7 +44,11 @@ PSEUDO_RULES = [
 
 
 def shipped_schema(which: str) -> dict:
-    """The JSON Schema shipped as ``schemas/{which}.schema.json``: design, parts or policy."""
+    """The JSON Schema shipped as ``schemas/{which}.schema.json``: design, parts, policy or
+    report (the JSON report's)."""
+    if which == "report":  # the JSON report's, beside its formatter
+        from .report.json_schema import report_schema
+        return report_schema()
     if which == "policy":  # the team policy's model lives with its checks in policy.py
         from .policy import policy_json_schema
         return policy_json_schema()
@@ -78,6 +83,12 @@ def render_rules(rules: Iterable[Rule]) -> str:
            "rules off with `ignore = [...]`. `packwarden explain <id>` prints the same text.", "",
            "A rule whose scope is *netlist* checks the netlist itself and always runs; the other "
            "(*electrical*) rules are held back while a design's netlist has integrity errors.", "",
+           "Each rule's **waiver bounds** name, for each finding with figures, its headline figure "
+           "(the one whose change makes the finding worse) and the bound a waiver puts on it: "
+           "`up_to` where the finding worsens as the figure grows, `down_to` where it worsens as "
+           "the figure falls; a waiver with the other bound only does not cover the finding. "
+           "Read from the rules' own code; `…` stands for what the design fills in (an event's "
+           "or a switch's name).", "",
            "| rule | default severity | checks that |", "|---|---|---|"]
     for r in rules:
         out.append(f"| [`{r.id}`](#{r.id}) | {r.severity.value} | {_cell(r.summary)} |")
@@ -105,6 +116,11 @@ def _rule_section(r: Rule) -> list[str]:
         out.append("")
     else:
         out += ["No options.", ""]
+    heads = headlines(r)
+    if heads:
+        out += ["**Waiver bounds:**", "", "| finding key | headline figure | bound |", "|---|---|---|"]
+        out += [f"| `{h.key or '—'}` | {_cell(h.figure)} | {bound_words(h.bound)} |" for h in heads]
+        out.append("")
     if r.example is not None:
         out += ["**Fails:**", "", "```yaml", r.example.bad.strip("\n"), "```", "",
                 "**Passes:**", "", "```yaml", r.example.good.strip("\n"), "```", ""]

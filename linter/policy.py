@@ -453,6 +453,7 @@ def _bound_findings(limit: Limit, ctx: RuleContext, name: str, value: Any,
             yield ctx.finding(
                 f"{name} {_fmt(value, unit)} is {word} the policy {side} {_fmt(target, unit)}",
                 path=path, element=element, key=bound, hint=_hint(limit),
+                headline=name, lower_is_worse=bound == "min",
                 figures=[Figure(name, value, unit), Figure(f"policy {bound}", target, unit)])
 
 
@@ -497,6 +498,6 @@ def _part_findings(limit: Limit, ctx: RuleContext, netlist: Any) -> Iterable[Fin
                 yield ctx.finding(
                     f"{refdes}: {what} has {shown} {_fmt(v, limit.unit)}, {word} the policy "
                     f"{side} {_fmt(target, limit.unit)}", path=path, element=refdes, key=bound,
-                    hint=_hint(limit),
+                    hint=_hint(limit), headline=dotted, lower_is_worse=bound == "min",
                     figures=[Figure(dotted, v, limit.unit), Figure(f"policy {bound}", target,
                                                                    limit.unit)])

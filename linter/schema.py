@@ -644,7 +644,8 @@ class Waiver(Strict):
         default=None, description=(
             "the highest value of the finding's headline figure the waiver accepts, with its "
             "unit, e.g. '1.5 A', for a finding that worsens as the figure grows: a finding beyond "
-            "it is not waived and says why"))
+            "it is not waived and says why; docs/rules.md names each rule's headline figures "
+            "and their bound"))
     down_to: Annotated[str, AfterValidator(lambda v: _ceiling(v))] | None = Field(
         default=None, description=(
             "the lowest value of the finding's headline figure the waiver accepts, with its unit, "

@@ -19,8 +19,8 @@ it tests::
 The repository root is the nearest folder at or above the case file that holds ``pyproject.toml``.
 A changed design is linted as if it were the base file, so findings point into the base file: at
 the value a change replaced, or at the nearest key the base has above a value it lacks.
-An expected finding may give ``element``, ``severity``, ``message_contains``, ``hint_contains`` and
-``path`` (the dotted YAML path, e.g. ``components.Q1.part``); only what it gives is compared. Line
+An expected finding may give ``element``, ``severity``, ``message_contains``, ``hint_contains``,
+``assumption_contains`` (one of the finding's assumptions contains it) and ``path`` (the dotted YAML path, e.g. ``components.Q1.part``); only what it gives is compared. Line
 numbers are deliberately not comparable: a case should survive an edit elsewhere in the design.
 A case may give ``options`` for its rule, as they would be written in the project's config.
 
@@ -60,7 +60,8 @@ __all__ = ["Case", "Expected", "CaseError", "Override", "load_cases", "run_case"
 
 _FILE_KEYS = ("rule", "cases")
 _CASE_KEYS = ("name", "design", "set", "add", "delete", "expect", "options")
-_EXPECT_KEYS = ("element", "severity", "message_contains", "hint_contains", "path")
+_EXPECT_KEYS = ("element", "severity", "message_contains", "hint_contains", "path",
+                "assumption_contains")
 
 
 class CaseError(Exception):
@@ -80,13 +81,18 @@ class Expected:
     message_contains: str | None = None
     hint_contains: str | None = None
     path: str | None = None
+    #: Text one of the finding's assumptions contains (an assumption is not repeated in the
+    #: message).
+    assumption_contains: str | None = None
 
     def matches(self, f: Finding) -> bool:
         return ((self.element is None or f.element == self.element)
                 and (self.severity is None or f.severity == self.severity)
                 and (self.message_contains is None or self.message_contains in f.message)
                 and (self.hint_contains is None or self.hint_contains in (f.hint or ""))
-                and (self.path is None or f.location.dotted == self.path))
+                and (self.path is None or f.location.dotted == self.path)
+                and (self.assumption_contains is None
+                     or any(self.assumption_contains in a for a in f.assumptions)))
 
     def describe(self) -> str:
         parts = []
@@ -100,6 +106,8 @@ class Expected:
             parts.append(f"hint containing {self.hint_contains!r}")
         if self.path is not None:
             parts.append(f"at {self.path}")
+        if self.assumption_contains is not None:
+            parts.append(f"an assumption containing {self.assumption_contains!r}")
         return ", ".join(parts) or "any finding"
 
 

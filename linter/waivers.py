@@ -74,14 +74,16 @@ def _beyond_bound(up_to: str | None, down_to: str | None, f: Finding, line: int)
     from .quantities import format_quantity, parse_any_quantity
     limit, unit = parse_any_quantity(bound)  # validated with the design: it parses
     shown = format_quantity(limit, unit)
+    way = f"worse as it {'falls' if f.lower_is_worse else 'grows'}"
     if head is None or head.unit != unit:
         return (f"not waived: the waiver at line {line} bounds a figure in {unit} "
                 f"{key.replace('_', ' ')} {shown}, and this finding's headline figure is " +
-                (f"{head.name} in {head.unit or 'a count'}" if head is not None else "missing"))
+                (f"{head.name} in {head.unit or 'a count'}, {way}" if head is not None
+                 else "missing"))
     # A hair of relative slack: a bound copied from a report's three digits still covers the
     # figure it was copied from when that rounds to it.
     loose = limit * (1 + 5e-4) if (limit >= 0) != f.lower_is_worse else limit * (1 - 5e-4)
     if (head.value >= loose) if f.lower_is_worse else (head.value <= loose):
         return None
     return (f"not waived: the waiver at line {line} {key.replace('_', ' ')} {shown} does not "
-            f"cover {head.name} {format_quantity(head.value, unit)}")
+            f"cover {head.name} {format_quantity(head.value, unit)}, {way}")

@@ -38,7 +38,7 @@ def check(ctx, options):
     found = m.backup_protection
     if stack is None or not found:
         return
-    assumed = "; ".join(m.cell_limits.assumptions) if m.cell_limits is not None else ""
+    assumed = m.cell_limits.assumptions if m.cell_limits is not None else ()
     for b in found:
         c = m.netlist.components[b.refdes]
         yield from _window(ctx, options, m, b, c, assumed)
@@ -78,16 +78,17 @@ def _window(ctx, options, m, b, c, assumed):
             f"{p.refdes}'s highest overcharge detection {fq(b.primary_max, 'V', 4)}{margin}: the "
             f"backup may blow its fuse, for good, where the primary would have cut off",
             path=path, element=b.refdes, key="below-primary",
+            headline="backup detection min", lower_is_worse=True,
             figures=window + [Figure("primary overcharge max", b.primary_max, "V")],
             hint=f"a backup detection of at least "
                  f"{fq(b.primary_max + options.primary_margin, 'V', 4)} at its minimum")
     if b.below_limit is not None and b.below_limit < 0:
-        note = f" (assumed: {assumed})" if assumed else ""
         yield ctx.finding(
             f"{b.refdes}'s highest detection {fq(b.detect.max, 'V', 4)} per cell is above the "
             f"cell's overcharge limit {fq(b.cell_limit, 'V', 4)}: the cell may pass its "
-            f"never-exceed voltage before the backup acts{note}",
-            path=path, element=b.refdes, key="above-cell-limit",
+            f"never-exceed voltage before the backup acts",
+            path=path, element=b.refdes, key="above-cell-limit", assumptions=assumed,
+            headline="backup detection max",
             figures=window + [Figure("cell overcharge limit", b.cell_limit, "V")],
             hint=f"a backup detection of at most {fq(b.cell_limit, 'V', 4)} at its maximum")
 
@@ -116,6 +117,7 @@ def _output(ctx, b, c):
                 f"detection, the others at the over-discharge detection), below the "
                 f"{fq(d.needed, 'W')} that melts it",
                 path=ctx.part_path(d.fuse), element=d.fuse, key=f"heater-power-{d.fuse}",
+                headline="heater power", lower_is_worse=True,
                 figures=[Figure("heater power", d.power, "W"),
                          Figure("heater power needed", d.needed, "W")],
                 hint="a heater fuse rated for a lower stack voltage (lower heater resistance)")

@@ -91,7 +91,6 @@ def check(ctx, options):
                     Figure("overcharge detection min", cb.detection_min, "V")]
     if cb.cycles_to_detection is not None:
         figures.append(Figure("cycles to overcharge detection", cb.cycles_to_detection, ""))
-    assumed = f" (assumed: {'; '.join(cb.assumptions)})" if cb.assumptions else ""
     if cb.design_drift > _NOISE and most.level != worst.level:
         head = (f"level {worst.level} ({cells}) ends each {per} {fq(worst.need, 'Ah')} fuller "
                 f"than level {most.level}, which is drained more ({drains} on level "
@@ -130,8 +129,9 @@ def check(ctx, options):
     if cb.holds and cb.imbalance_to_detection is not None:
         more = (f"charge more often, so that one cycle's drift stays below "
                 f"{fq(cb.imbalance_to_detection, 'Ah')}")
-    yield ctx.finding(f"{head}: {grows}{tail}{assumed}", path=path, element=element,
-                      key="drift", figures=figures, severity=severity,
+    yield ctx.finding(f"{head}: {grows}{tail}", path=path, element=element,
+                      key="drift", figures=figures, severity=severity, assumptions=cb.assumptions,
+                      headline="drift per cycle",
                       hint=f"{hint}; or {more}" if hint else more)
 
 

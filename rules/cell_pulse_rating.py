@@ -45,6 +45,7 @@ def check(ctx, options):
                 f"{name} gives no pulse rating: {what}; its data sheet must allow at least "
                 f"{fq(i, 'A')} for {fq(e.duration, 's')}",
                 path=path, element=first.refdes, key=f"pulse-data-{e.name}", severity="info",
+                headline="current per cell",
                 figures=figures, assumptions=e.assumptions,
                 hint=f"add pulse_discharge: [{{current: {fq(i, 'A')}, duration: "
                      f"{fq(e.duration, 's')}}}] or higher from the cell data sheet, or ask the "
@@ -56,6 +57,7 @@ def check(ctx, options):
         yield ctx.finding(
             f"{what}, and no pulse rating of {name} covers it ({listed})",
             path=path, element=first.refdes, key=f"pulse-{e.name}", figures=figures,
+            headline="current per cell",
             assumptions=e.assumptions,
             hint=f"use cells rated for ≥ {fq(i, 'A')} for {fq(e.duration, 's')}, more cells in "
                  f"parallel, or a protector with a lower detection voltage or shorter delay")

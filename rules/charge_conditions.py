@@ -30,6 +30,7 @@ def check(ctx, options):
             f"charger current {fq(ch.current, 'A')} exceeds the cells' maximum charge current "
             f"{fq(limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.charge, 'A')})",
             path=("charger", "current"), element=ref, key="current",
+            headline="charger current",
             figures=[Figure("charger current", ch.current, "A"), Figure("cell limit", limit, "A")],
             hint=f"set the charge current to ≤ {fq(limit, 'A')}, or add cells in parallel")
     lo, hi, assumed = stress.charge_temperature(cell)
@@ -58,6 +59,7 @@ def check(ctx, options):
             f"the pack operates {', and '.join(outside)}: outside the cell's charge temperature "
             f"window ({source}), and the design does not say how charging stops there",
             path=("charger",), element=ref, key="temperature", severity="warning", figures=figures,
+            headline="ambient min" if amb.min < lo else "ambient max", lower_is_worse=amb.min < lo,
             hint=f"declare charger.temperature_window (e.g. {{min: {max(lo, 0):.0f} °C, max: {hi:.0f} °C}}) "
                  f"and provide it: an NTC on the cells wired to the charger's temperature input")
         return
@@ -73,5 +75,7 @@ def check(ctx, options):
             f"charger.temperature_window {'; it '.join(wide)} (cell window {source})",
             path=("charger", "temperature_window"), element=ref, key="temperature",
             severity="warning",
+            headline="window min" if window.min < lo else "window max",
+            lower_is_worse=window.min < lo,
             figures=figures + [Figure("window min", window.min, "°C"), Figure("window max", window.max, "°C")],
             hint=f"narrow the charger's window to within {lo:.0f}–{hi:.0f} °C")

@@ -41,6 +41,7 @@ def check(ctx, options):
             f"({stack.parallel}P × {fq(stack.part.max_current.charge, 'A')}), and {why}",
             path=("load", "regen", "current"), element=p.refdes, key="regen-unchecked",
             severity="warning",
+            headline="regen current",
             figures=[Figure("regen current", regen.current, "A"),
                      Figure("cell charge limit", limit, "A")],
             hint=f"limit the controller's regenerative current to ≤ {fq(limit, 'A')}, or use "
@@ -57,6 +58,7 @@ def check(ctx, options):
             f"the charge over-current trip minimum {fq(t.min, 'A')} ({corner}) does not clear "
             f"the charger's current {fq(charger.current, 'A')}: charging is cut off in normal use",
             path=("charger", "current"), element=p.refdes, key="charger",
+            headline="charge trip min", lower_is_worse=True,
             figures=window + [Figure("charger current", charger.current, "A")],
             hint=f"a charge detection of at least {fq(charger.current / t.min * t.detect.min, 'V')} "
                  f"minimum, or a lower charge current")
@@ -74,6 +76,7 @@ def check(ctx, options):
         f"the braking current then has nowhere to go",
         path=("load", "regen", "current"), element=p.refdes, key="regen",
         severity="error" if always else "warning",
+        headline="regen current",
         figures=window + [Figure("regen current", regen.current, "A"),
                           Figure("regen duration", regen.duration, "s"),
                           Figure("charge delay min", delay, "s")],

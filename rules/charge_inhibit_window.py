@@ -69,6 +69,8 @@ def check(ctx, options):
                 f"{reads}: charging goes on {'down' if c.cold else 'up'} to {worst:.1f} °C at "
                 f"the worst tolerance corner (typical {t.typ:.1f} °C), {side} the cell's charge "
                 f"temperature window {cell_text}", path=c.path, element=c.ntc, key=c.name,
+                headline=f"{c.name} cut-off min" if c.cold else f"{c.name} cut-off max",
+                lower_is_worse=c.cold,
                 figures=figures + [Figure("cell limit", limit, "°C")],
                 hint=f"{fix} {limit:.0f} °C")
         elif own is not None and beyond(worst, own):
@@ -77,5 +79,7 @@ def check(ctx, options):
                 f"the worst tolerance corner (typical {t.typ:.1f} °C), {side} the "
                 f"{own:.0f} °C that charger.temperature_window declares",
                 path=c.path, element=c.ntc, key=c.name, severity="warning",
+                headline=f"{c.name} cut-off min" if c.cold else f"{c.name} cut-off max",
+                lower_is_worse=c.cold,
                 figures=figures + [Figure("declared window end", own, "°C")],
                 hint=f"{fix} {own:.0f} °C, or declare the window the netlist really holds")

@@ -29,8 +29,6 @@ def check(ctx, options):
     figures = [Figure("cell peak", f.peak, "V"), Figure("overcharge limit", f.limit, "V"),
                Figure("detection max", f.detect, "V"), Figure("charge current per cell", f.current, "A"),
                Figure("cell resistance max", f.resistance, "Ω"), Figure("delay max", f.delay, "s")]
-    notes = "; ".join(n for n in f.assumptions if "[memory]" in n or "extrapolated" in n)
-    notes = f" ({notes})" if notes else ""
     jump = f.start > f.detect
     how = (f"a cell resting at the charger's {fq(f.rest, 'V')} jumps by I·R = {fq(f.current, 'A')} "
            f"× {fq(f.resistance, 'Ω')} = {fq(f.ir, 'V')} to {fq(f.start, 'V')} at once"
@@ -44,6 +42,8 @@ def check(ctx, options):
     yield ctx.finding(
         f"with a charger failed high, {how}, and rises {fq(f.rise, 'V')} more over the longest "
         f"overcharge delay {fq(f.delay, 's')}: {fq(f.peak, 'V')}, {fq(f.overshoot, 'V')} above "
-        f"the cell's overcharge limit {fq(f.limit, 'V')}{notes}",
+        f"the cell's overcharge limit {fq(f.limit, 'V')}",
         path=("charger", "current"), element=ref, key="overshoot", figures=figures,
+        assumptions=[n for n in f.assumptions if "[memory]" in n or "extrapolated" in n],
+        headline="cell peak",
         hint=hint)

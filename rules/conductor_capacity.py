@@ -56,6 +56,7 @@ def check(ctx, options):
                     f"{c.refdes} ({desc}) {carried}, but IPC-2221 rates it {fq(rating.current, 'A')} "
                     f"for a {m.limits.trace_rise:g} K rise ({rating.area_mil2:.4g} mil²){stretched}{sense}",
                     path=path, element=c.refdes, key="capacity",
+                    headline="current",
                     figures=base + [Figure("IPC-2221 capacity", rating.current, "A"),
                                     Figure("cross-section", rating.area_mil2, "mil²"),
                                     Figure("width needed", need.width, "m")],
@@ -68,6 +69,7 @@ def check(ctx, options):
                 yield ctx.finding(
                     f"{c.refdes} (wire rated {fq(c.part.rated_current, 'A')}) {carried}{sense}",
                     path=path, element=c.refdes, key="capacity",
+                    headline="current",
                     figures=base + [Figure("rated current", c.part.rated_current, "A")],
                     hint=f"use a wire rated ≥ {fq(load.current, 'A')} (a larger cross-section), or a "
                          f"protector with a lower over-current detection voltage")
@@ -80,6 +82,7 @@ def check(ctx, options):
                 f"etched width and copper thickness, taken at nominal, and on its temperature "
                 f"(copper +0.393 %/K)",
                 path=path, element=c.refdes, key="sense-share", severity="info",
+                headline="share of sense resistance",
                 figures=[Figure("share of sense resistance", load.sense_share * 100, "%"),
                          Figure("conductor resistance", load.sense_share * load.sense_resistance, "Ω")],
                 hint=f"route {c.refdes} outside the stretch between the protector's ground and sense "

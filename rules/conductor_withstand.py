@@ -73,6 +73,7 @@ def check(ctx, options):
                 f"it carries {fq(can, 'A')} for that time before passing {final:g} °C "
                 f"(IEC 60949 adiabatic){melts}",
                 path=path, element=c.refdes, key=f"withstand-{e.name}",
+                headline="current",
                 figures=[Figure("current", i, "A"), Figure("duration", e.duration, "s"),
                          Figure("withstand current", can, "A"),
                          Figure("melting current", melt, "A"),
@@ -105,6 +106,7 @@ def _wire_needs(ctx, c, path, carried, start, final, start_words):
         f"{start_words} without passing {final:g} °C it needs ≥ {need * 1e6:.3g} mm² of "
         f"copper (IEC 60949 adiabatic)",
         path=path, element=c.refdes, key="withstand-data", severity="info",
+        headline="current",
         figures=[Figure("current", i, "A"), Figure("duration", e.duration, "s"),
                  Figure("cross-section needed", need * 1e6, "mm²")],
         hint=f"give {c.refdes} its awg: it needs {_size(need)}")

@@ -31,6 +31,7 @@ def check(ctx, options):
             f"{p.refdes} charges a cell {where}, below its lower limit {fq(lv.lower_limit, 'V')}, "
             f"and the cell maker forbids charging a cell that fell below it",
             path=path, element=p.refdes, key="forbidden", figures=figures,
+            headline="charged down to", lower_is_worse=True,
             hint=f"inhibit charging below the cell's lower limit (a part or setting with "
                  f"low_voltage_charge: {{allowed: false, inhibit_below: ≥ "
                  f"{fq(lv.lower_limit, 'V')}}})")
@@ -47,6 +48,7 @@ def check(ctx, options):
         f"{through} at {fq(lv.current, 'A')} per cell: above {fq(lv.precharge_limit, 'A')} "
         f"({source}) until it passes {fq(lv.recovery_voltage, 'V')}",
         path=path, element=p.refdes, key="current",
+        headline="charge current per cell",
         figures=figures + [Figure("charge current per cell", lv.current, "A"),
                            Figure("pre-charge limit", lv.precharge_limit, "A")],
         hint=f"inhibit charging below the lower limit, or limit the low-voltage charge current to "

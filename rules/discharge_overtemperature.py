@@ -58,7 +58,7 @@ def check(ctx, options):
     ts = m.temperature_sensing
     ref = stack.cells[0].refdes
     cell_path = ctx.part_path(ref) + (("discharge_temperature",) if limits.given else ())
-    assumed = f" ({limits.assumption})" if limits.assumption else ""
+    assumed = [limits.assumption] if limits.assumption else []
     unread = "; ".join(f"{u.owner}: {u.why}" for u in ts.unread
                        if {"discharge_cold", "discharge_hot"} & set(u.names))
     because = f" ({unread})" if unread else ""
@@ -73,9 +73,10 @@ def check(ctx, options):
             f"{heat.rise:.1f} K from {fq(heat.power, 'W')} each at {fq(heat.current, 'A')} of the "
             f"{heat.load}), "
             f"above their discharge limit {limits.max:.0f} °C, and nothing in the netlist stops "
-            f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}{assumed}",
-            path=cell_path, element=ref, key="unguarded",
+            f"the discharge there{because}; a {energy:.0f} Wh pack at {fq(load, 'A')}",
+            path=cell_path, element=ref, key="unguarded", assumptions=assumed,
             severity=None if large else "warning",
+            headline="cell temperature",
             figures=[Figure("cell temperature", heat.temperature, "°C"),
                      Figure("self-heating", heat.rise, "K"),
                      Figure("discharge limit", limits.max, "°C"),
@@ -92,8 +93,10 @@ def check(ctx, options):
                 f"{c.owner} reads {c.ntc} (on the {c.placement}): discharge goes on "
                 f"{'down' if c.cold else 'up'} to {worst:.1f} °C at the worst tolerance corner "
                 f"(typical {t.typ:.1f} °C), {'below' if c.cold else 'above'} the cell's "
-                f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C{assumed}",
-                path=c.path, element=c.ntc, key=c.name,
+                f"discharge {'minimum' if c.cold else 'maximum'} {limit:.0f} °C",
+                path=c.path, element=c.ntc, key=c.name, assumptions=assumed,
+                headline=f"{c.name} cut-off min" if c.cold else f"{c.name} cut-off max",
+                lower_is_worse=c.cold,
                 figures=[Figure(f"{c.name} cut-off min", t.min, "°C"),
                          Figure(f"{c.name} cut-off max", t.max, "°C"),
                          Figure("cell limit", limit, "°C")],
@@ -103,8 +106,9 @@ def check(ctx, options):
     if cold is None and amb.min < limits.min:
         yield ctx.finding(
             f"the pack operates down to {amb.min:.0f} °C, below the cells' discharge minimum "
-            f"{limits.min:.0f} °C, and nothing in the netlist stops the discharge there{assumed}",
-            path=("pack", "ambient", "min"), element=ref, key="cold", severity="warning",
+            f"{limits.min:.0f} °C, and nothing in the netlist stops the discharge there",
+            path=("pack", "ambient", "min"), element=ref, key="cold", assumptions=assumed, severity="warning",
+            headline="ambient min", lower_is_worse=True,
             figures=[Figure("ambient min", amb.min, "°C"),
                      Figure("discharge minimum", limits.min, "°C")],
             hint="give the protector's temperature_input a discharge_cold threshold, or narrow "

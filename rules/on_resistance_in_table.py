@@ -55,6 +55,7 @@ def check(ctx, options):
             f"there rests on an extrapolation, {how}{also}",
             path=ctx.part_path(ch.package), element=ch.package, key=f"table-{ch.package}",
             severity="error" if off else None,
+            headline="gate drive", lower_is_worse=True,
             figures=[Figure("gate drive", vgs, "V"), Figure("lowest tabulated gate drive", row, "V"),
                      Figure("extrapolated rds_on", r_at, "Ω")],
             hint=f"give R_DS(on) at {fq(vgs, 'V')} or below from the data sheet (a row of rds_on), "

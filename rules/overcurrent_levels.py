@@ -41,6 +41,7 @@ def check(ctx, options):
             f"{fq(fast.min, 'A')} and {fq(slow.max, 'A')} may be cleared by the fast level, after "
             f"its short delay, in one part and by the slow level in another",
             path=_field(ctx, p, "overcurrent_fast", "detect"), element=p.refdes, key="slow-vs-fast",
+            headline="fast trip min", lower_is_worse=True,
             figures=window("over-current", slow) + window("fast", fast),
             hint=f"a fast detection of at least "
                  f"{fq(fast.detect.min * slow.max / fast.min, 'V')} at its minimum, or a slow "
@@ -53,6 +54,7 @@ def check(ctx, options):
             f"{fq(sc.min, 'A')} and {fq(fast.max, 'A')} may be left to either level",
             path=_field(ctx, p, "overcurrent_fast", "detect"), element=p.refdes,
             key="fast-vs-short",
+            headline="fast trip max",
             figures=window("fast", fast) + [Figure("short-circuit trip min", sc.min, "A")],
             hint="a fast detection maximum below the short-circuit detection minimum separates "
                  "the windows")
@@ -68,6 +70,7 @@ def check(ctx, options):
                 f"sooner, or it does not shorten the fault it is there for",
                 path=_field(ctx, p, *fp), element=p.refdes,
                 key=f"delay-{fp[0]}",
+                headline=f"{faster} delay max",
                 figures=[Figure(f"{slower} delay min", s.delay.low, "s"),
                          Figure(f"{faster} delay max", f.delay.high, "s")],
                 hint=f"a {faster} delay below {fq(s.delay.low, 's')} at its longest")
@@ -80,6 +83,7 @@ def check(ctx, options):
             f"exceeds the fast trip min {fq(fast.min, 'A')}: the pack may cut out at every peak "
             f"(at {fast.at_min.ambient:.0f} °C ambient, highest sense resistance)",
             path=("load", "peak", "current"), element=p.refdes, key="peak-vs-fast",
+            headline="peak load",
             figures=window("fast", fast) + [Figure("peak load", peak.current, "A")],
             hint=f"a fast detection above {fq(fast.detect.min * peak.current / fast.min, 'V')} "
                  f"at its minimum, or a longer fast delay than the peak")

@@ -61,6 +61,7 @@ def check(ctx, options):
                 f"rebound {fq(r.rebound, 'V')} when the {r.basis} {fq(r.current, 'A')}{per_cell} "
                 f"is cut ({cold}): the output can switch on and off at the end of discharge",
                 path=ppath, element=p.refdes, key="overdischarge",
+                headline="hysteresis", lower_is_worse=True,
                 figures=figures,
                 hint=f"a protector with release ≥ {fq(r.detect + r.rebound, 'V')} at its lowest, or one "
                      f"that releases only on charger connection (release_on: [charger])")
@@ -72,12 +73,13 @@ def check(ctx, options):
                 f"{fq(r.current, 'A')}{per_cell} stops ({cold}): the charge switch chatters at the "
                 f"overcharge detection (each cycle stops there, so the cell is not overcharged)",
                 path=ppath, element=p.refdes, key="overcharge", severity="warning",
+                headline="hysteresis", lower_is_worse=True,
                 figures=figures,
                 hint=f"a protector with overcharge release ≤ {fq(r.detect - r.rebound, 'V')} at its "
                      f"highest, or a lower charge current")
     for heat in stress.retry_heat(m, options.retry_period):
-        assumed = (f" (retry period not given: {fq(heat.period, 's')} assumed [memory] — add "
-                   f"{heat.threshold}.retry_period)" if heat.period_assumed else "")
+        assumed = ([f"retry period not given: {fq(heat.period, 's')} assumed [memory] — add "
+                    f"{heat.threshold}.retry_period"] if heat.period_assumed else [])
         for pk, part in heat.parts.items():
             ceiling = min(options.retry_limit, part.tj_max)
             if not heat.runaway[pk] and heat.tj[pk] <= ceiling:
@@ -94,8 +96,9 @@ def check(ctx, options):
                 f"release retries automatically into {heat.event}: {pk} takes "
                 f"{fq(heat.energy[pk], 'J')} per retry ({fq(max(chans.values(), default=0.0), 'A')} "
                 f"for {fq(heat.duration, 's')}, I²t {fq(i2t, 'A²s')} per channel) every "
-                f"{fq(heat.period, 's')}, {fq(heat.power[pk], 'W')} on average, and {state}{assumed}",
-                path=ppath, element=pk, key=f"retry-{heat.threshold}-{pk}",
+                f"{fq(heat.period, 's')}, {fq(heat.power[pk], 'W')} on average, and {state}",
+                path=ppath, element=pk, key=f"retry-{heat.threshold}-{pk}", assumptions=assumed,
+                headline="junction temperature",
                 figures=[Figure("energy per retry", heat.energy[pk], "J"),
                          Figure("average power", heat.power[pk], "W"),
                          Figure("junction temperature", heat.tj[pk], "°C"),

@@ -66,6 +66,7 @@ def check(ctx, options):
                     f"through it for ever (the permitted event, at {fq(permitted.ambient, '°C')} ambient): the fuse, not "
                     f"the protector, would act",
                     path=path, element=f.refdes, key="rating",
+                    headline="permitted current",
                     figures=[Figure("derated rating", derated, "A"),
                              Figure("permitted current", i_ever, "A")],
                     hint=f"use a fuse rated ≥ {fq(i_ever * part.rated_current / derated, 'A')}")
@@ -75,6 +76,7 @@ def check(ctx, options):
                 f"{f.refdes} is rated {fq(part.rated_voltage, 'V')}, below the highest pack or charger "
                 f"voltage {fq(vmax, 'V')}: it may not clear an arc",
                 path=path, element=f.refdes, key="voltage",
+                headline="highest voltage",
                 figures=[Figure("rated voltage", part.rated_voltage, "V"), Figure("highest voltage", vmax, "V")],
                 hint=f"use a part rated ≥ {fq(vmax, 'V')}")
         if f.kind != "ptc" and psc is not None and part.breaking_capacity < psc:
@@ -82,6 +84,7 @@ def check(ctx, options):
                 f"{f.refdes} breaks {fq(part.breaking_capacity, 'A')} but the prospective short-circuit "
                 f"current is {fq(psc, 'A')}",
                 path=path, element=f.refdes, key="breaking",
+                headline="prospective short circuit",
                 figures=[Figure("breaking capacity", part.breaking_capacity, "A"),
                          Figure("prospective short circuit", psc, "A")],
                 hint=f"use a fuse with breaking capacity ≥ {fq(psc, 'A')}")
@@ -119,6 +122,7 @@ def _coordination(ctx, options, m, f, path):
             f"{fq(i2t / limit.i2t * 100, '%', 2)} of the {fq(limit.i2t, 'A²s')} that melts it in that time "
             f"({limit.basis}), above {fq(options.i2t_margin * 100, '%', 2)}: the fuse may blow before "
             f"the protector acts", path=path, element=f.refdes, key=f"i2t-{event.name}",
+            headline="let-through I²t",
             figures=[Figure("let-through I²t", i2t, "A²s"), Figure("fuse limit I²t", limit.i2t, "A²s"),
                      Figure("duration", event.duration, "s"), Figure("current", current, "A")],
             hint=_hint(part, event, i2t / options.i2t_margin, points is None and limit.i2t == part.melting_i2t))
@@ -145,6 +149,7 @@ def _ptc(ctx, m, f, path):
             f"({fq(part.hold_current, 'A')} at 25 °C; {hold.basis}), below the continuous load "
             f"{fq(load, 'A')}: it trips in normal use",
             path=path, element=f.refdes, key="hold",
+            headline="hold current at the highest ambient", lower_is_worse=True,
             figures=[Figure("hold current at the highest ambient", hold.current, "A"),
                      Figure("continuous load", load, "A")],
             hint=f"use a PTC with hold current ≥ {fq(load, 'A')} at {hot:g} °C")
@@ -160,5 +165,6 @@ def _ptc(ctx, m, f, path):
             f"{f.refdes} withstands {fq(part.max_current, 'A')} (I_max) but carries {fq(worst, 'A')} "
             f"({what}): it may fail before it trips, or fail to interrupt",
             path=path, element=f.refdes, key="interrupt",
+            headline="highest current",
             figures=[Figure("I_max", part.max_current, "A"), Figure("highest current", worst, "A")],
             hint=f"use a PTC with I_max ≥ {fq(worst, 'A')}")

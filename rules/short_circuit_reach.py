@@ -67,6 +67,7 @@ def check(ctx, options):
             f"the weakest short to catch draws only {fq(i, 'A')} ({loop}), {below}, so it may "
             f"never be cleared ({event.corner})",
             path=path, element=p.refdes, key="weakest-short-uncleared", figures=figures,
+            headline="weakest short", lower_is_worse=True,
             hint=_uncleared_hint(m, p, oc, i))
     elif event.detection == "over-current" and sc is not None and options.note_slow_clearing:
         yield ctx.finding(
@@ -76,6 +77,7 @@ def check(ctx, options):
             f"{fq(p.part.short_circuit.delay.high, 's')}; the parts are judged against that "
             f"event (weakest-short)",
             path=path, element=p.refdes, key="weakest-short-over-current", figures=figures,
+            headline="weakest short", lower_is_worse=True,
             severity=Severity.info,
             hint=f"a protector with a short-circuit trip max below {fq(i, 'A')} would catch it "
                  f"fast")

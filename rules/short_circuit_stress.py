@@ -52,6 +52,7 @@ def check(ctx, options):
                     f"{ch.package} gives no id_pulse_max, so the {fq(ich, 'A')} it carries in a "
                     f"hard short for {fq(pulse.duration, 's')} cannot be checked",
                     path=path, element=ch.package, key="no-pulse-rating", severity="info",
+                    headline="channel current",
                     figures=figures, hint="add id_pulse_max from the FET data sheet")
         elif ich > limit * options.pulse_margin:
             of = (f"{ich / pulse.current * 100:.0f} % of the short's {fq(pulse.current, 'A')}"
@@ -63,6 +64,7 @@ def check(ctx, options):
                 f"{fq(i2t, 'A²s')}",
                 path=path, element=ch.package, key=f"pulse-{ch.name}",
                 cause="pulse" + _channel_of(ch), assumptions=pulse.assumptions,
+                headline="channel current",
                 figures=figures + [Figure("id_pulse_max", limit, "A")],
                 hint=f"use FETs with id_pulse_max ≥ {fq(ich / options.pulse_margin, 'A')}, share the "
                      f"current over a second pair in parallel, or limit the short with path "
@@ -78,6 +80,7 @@ def check(ctx, options):
                 f"avalanches{_energy(av, e_as)}",
                 path=("pack", "wiring_inductance"), element=ch.package, key=f"spike-{ch.name}",
                 cause="turn-off-spike" + _channel_of(ch),
+                headline="turn-off voltage",
                 figures=[Figure("turn-off voltage", spike.total, "V"), Figure("spike", spike.spike, "V"),
                          Figure("wiring inductance", spike.inductance, "H"),
                          Figure("di/dt", spike.di_dt, "A/s"), Figure("vds_max", ch.part.vds_max, "V"),

@@ -38,7 +38,6 @@ def check(ctx, options):
                    if ctx.model.stack_levels.get(c.pins["pos"]) == first.level]
     element = level_cells[0] if level_cells else stack.cells[0].refdes
     where = "" if stack.series == 1 else f" level {first.level} of the stack ({', '.join(level_cells)})"
-    assumed = f" (assumed: {'; '.join(b.assumptions)})" if b.assumptions else ""
     drains = ", ".join(d.text() for d in first.drains)
     sd = (f"self-discharge {b.self_discharge_pct:.3g} % of the charge left per month at "
           f"{b.temperature:g} °C, {fq(first.self_discharge_ah_per_month, 'Ah')}/month at the start")
@@ -54,8 +53,9 @@ def check(ctx, options):
         yield ctx.finding(
             f"stored at {b.soc * 100:.3g} % state of charge ({fq(first.start_voltage, 'V')} per "
             f"cell), at or below the over-discharge detection maximum "
-            f"{fq(b.cutoff_voltage, 'V')}: the pack is cut off from the day it ships{assumed}",
+            f"{fq(b.cutoff_voltage, 'V')}: the pack is cut off from the day it ships",
             path=("storage", "soc"), element=element, key="below-cutoff", figures=figures,
+            headline="months to cut-off", lower_is_worse=True,
             assumptions=b.assumptions,
             hint=f"store at a state of charge well above {first.end_soc * 100:.2g} % "
                  f"(docs/references.md: about 40 % is the usual shelf charge)")
@@ -79,8 +79,9 @@ def check(ctx, options):
             f"stored {b.duration:.3g} months at {b.soc * 100:.3g} % and {b.temperature:g} °C,"
             f"{where} reaches the over-discharge cut-off ({fq(b.cutoff_voltage, 'V')}) after "
             f"{fq(first.months, 'months')} ({drains}, {sd}); {tail}: the cells may be damaged "
-            f"before the pack is used{assumed}",
+            f"before the pack is used",
             path=("storage", "duration"), element=element, key="lower-limit", figures=figures,
+            headline="months to cut-off", lower_is_worse=True,
             assumptions=b.assumptions,
             hint=hint)
         return
@@ -88,7 +89,8 @@ def check(ctx, options):
         f"stored {b.duration:.3g} months at {b.soc * 100:.3g} % and {b.temperature:g} °C,{where} "
         f"reaches the over-discharge cut-off ({fq(b.cutoff_voltage, 'V')}) after "
         f"{fq(first.months, 'months')} ({drains}, {sd}): the pack ships cut off and needs a charger "
-        f"to wake{assumed}",
+        f"to wake",
         path=("storage", "duration"), element=element, key="cutoff", figures=figures,
+        headline="months to cut-off", lower_is_worse=True,
         assumptions=b.assumptions,
         severity=Severity.warning, hint=hint)

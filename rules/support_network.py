@@ -66,6 +66,7 @@ def check(ctx, options):
                     f"{fq(derating * 100, '%', 2)} of its {fq(s.rating, unit)} rating "
                     f"is {fq(limit, unit)}",
                     path=_at(c, field), element=c.refdes, key=f"{what}-{field}",
+                    headline=field,
                     figures=[Figure(field, s.value, unit), Figure(f"rated {field}", s.rating, unit)],
                     hint=f"use a {what} rated ≥ {fq(s.value / derating, unit)}")
 
@@ -102,6 +103,7 @@ def _supply_filter(ctx, m, p, options):
                 f"{fq(r_lo, 'Ω')}–{fq(r_hi, 'Ω')}",
                 path=_at(r, "value"), element=r.refdes, key="supply-resistor-range",
                 severity=Severity.warning,
+                headline="resistance", lower_is_worse=value < r_lo,
                 figures=[Figure("resistance", value, "Ω"), Figure("range min", r_lo, "Ω"),
                          Figure("range max", r_hi, "Ω")],
                 hint=f"use {fq(r_lo, 'Ω')}–{fq(r_hi, 'Ω')}")
@@ -112,6 +114,7 @@ def _supply_filter(ctx, m, p, options):
                 f"{fq(f.shift, 'V')}: every detection threshold sits that much higher at the cell, "
                 f"more than {fq(options.max_threshold_shift, 'V')}",
                 path=_at(r, "value"), element=r.refdes, key="threshold-shift",
+                headline="threshold shift",
                 figures=[Figure("threshold shift", f.shift, "V"),
                          Figure("supply current max", f.supply_current, "A"),
                          Figure("resistance", f.resistance, "Ω")],
@@ -129,6 +132,7 @@ def _supply_filter(ctx, m, p, options):
             f"range {fq(c_lo, 'F')}–{fq(c_hi, 'F')}",
             path=_at(c, "value"), element=c.refdes, key="supply-capacitor-range",
             severity=Severity.warning,
+            headline="capacitance", lower_is_worse=f.capacitance < c_lo,
             figures=[Figure("capacitance", f.capacitance, "F")],
             hint=f"use {fq(c_lo, 'F')}–{fq(c_hi, 'F')}")
 
@@ -157,6 +161,7 @@ def _sense_resistor(ctx, m, p, options):
             f"charger overload the pin, too high shifts the pin's charger and load detection",
             path=_at(r, "value"), element=r.refdes, key="sense-resistor-range",
             severity=Severity.warning, figures=[Figure("resistance", value, "Ω")],
+            headline="resistance", lower_is_worse=value < options.sense_r_min,
             hint=f"use {fq(options.sense_r_min, 'Ω')}–{fq(options.sense_r_max, 'Ω')} (2 kΩ is usual)")
     if s.power is None or r.part.power is None:
         return
@@ -168,6 +173,7 @@ def _sense_resistor(ctx, m, p, options):
             f"{fq(s.power, 'W')} at {fq(s.current, 'A')}, above "
             f"{fq(options.resistor_derating * 100, '%', 2)} of its {fq(r.part.power, 'W')} rating",
             path=_at(r, "power"), element=r.refdes, key="sense-resistor-power",
+            headline="power",
             figures=[Figure("voltage", s.voltage, "V"), Figure("current", s.current, "A"),
                      Figure("power", s.power, "W"), Figure("rated power", r.part.power, "W")],
             hint=_sense_power_hint(s, r, limit, options))

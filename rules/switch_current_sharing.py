@@ -48,10 +48,10 @@ def check(ctx, options):
             f"{name} carries {fq(s.worst, 'A')} in the {s.event.name} event ({lasts}) when its "
             f"on-resistance is at the low end of the spread ({fq(sp.rds[0], 'Ω')} beside its "
             f"parallel peers at {fq(sp.rds[1], 'Ω')}, gate drive {fq(sp.vgs, 'V')}): above its "
-            f"{rating} {fq(limit, 'A')}, though the equal share {fq(s.equal, 'A')} is within it"
-            + "".join(f" ({a.removeprefix('min: ')})" for a in sp.assumptions),
+            f"{rating} {fq(limit, 'A')}, though the equal share {fq(s.equal, 'A')} is within it",
             path=ctx.part_path(ch.package), element=ch.package, key=f"share-{name}-{rating}",
             cause=f"share{name[len(ch.package):]}-{rating}", assumptions=sp.assumptions,
+            headline="worst share",
             figures=[Figure("worst share", s.worst, "A"), Figure("equal share", s.equal, "A"),
                      Figure(rating, limit, "A"), Figure("share factor", sp.factor, "")],
             hint=f"use FETs with {rating} ≥ {fq(s.worst, 'A')}, or with a tighter on-resistance "

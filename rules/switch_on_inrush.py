@@ -61,6 +61,7 @@ def check(ctx, options):
             f"{fq(t.delay_min, 's')}: {outcome}",
             path=where, element=element, key=f"trip-{t.detection}",
             severity=None if every else "warning",
+            headline="peak current",
             figures=[Figure("capacitance", ev.capacitance, "F"),
                      Figure("loop resistance", at.loop_resistance, "Ω"),
                      Figure("peak current", at.peak, "A"),
@@ -89,6 +90,7 @@ def check(ctx, options):
         yield ctx.finding(
             f"{pre.refdes}'s resistor {what}, above its {field} {fq(rating, unit)}",
             path=part_path, element=pre.refdes, key=field.replace("_", "-"),
+            headline=label,
             figures=[Figure(label, value, unit), Figure(field, rating, unit)],
             hint=f"use a pre-charge resistor rated for ≥ {fq(value / options.pulse_margin, unit)} "
                  f"{advice}")

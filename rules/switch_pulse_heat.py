@@ -43,6 +43,7 @@ def check(ctx, options):
                 f"area: the chart allows {fq(p.current, 'A')} at {fq(p.vds, 'V')} for a "
                 f"{fq(p.pulse, 's')} pulse",
                 path=path, element=h.package, key=f"soa-{ev.name}",
+                headline="current",
                 figures=[Figure("current", h.current, "A"), Figure("vds", h.vds, "V"),
                          Figure("duration", ev.duration, "s")],
                 hint="use a FET with a larger safe operating area, or shorten the protector's "
@@ -55,6 +56,7 @@ def check(ctx, options):
                     f"{fq(h.zth.value, 'K/W')} ({h.zth.how}) from {fq(h.start, '°C')} "
                     f"({h.start_words}), above its tj_max {fq(h.part.tj_max, '°C')}",
                     path=path, element=h.package, key=f"pulse-heat-{ev.name}",
+                    headline="junction at the end",
                     figures=figures + [Figure("Z_th", h.zth.value, "K/W"),
                                        Figure("junction at the end", h.tj, "°C")],
                     hint=f"use a FET with Z_th({fq(ev.duration, 's')}) ≤ {fq(h.needed, 'K/W')}, "
@@ -81,6 +83,7 @@ def check(ctx, options):
             f"stays below tj_max {fq(h0.part.tj_max, '°C')} from {fq(h0.start, '°C')} "
             f"({h0.start_words}) only if {what}",
             path=ctx.part_path(package), element=package, key="needs-zth", severity="info",
+            headline=f"Z_th needed, {h0.event.name}", lower_is_worse=True,
             figures=[Figure(f"Z_th needed, {h.event.name}", h.needed, "K/W") for h in hs],
             hint="add zth from the FET data sheet's single-pulse transient thermal impedance "
                  "(curve points or its Foster network), on a board like this one")

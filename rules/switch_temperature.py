@@ -78,14 +78,9 @@ def check(ctx, options):
                               f"{fq(part.tj_max, '°C')})")
             message = (f"{h.package} junction reaches {fq(h.tj, '°C')} at {what} {where}: "
                        f"{fq(h.power, 'W')} in {fq(part.theta_ja, 'K/W')}, above {limit_text}")
-        # What the on-resistance rests on where the data sheet ran out, as trip-current-window
-        # says it: a reviewer must know when a figure is an extrapolation.
-        notes = [n for n in h.assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n
-                 or "understates" in n]
-        if notes:
-            bound += f" (assumed: {'; '.join(notes)})"
         yield ctx.finding(message + bound, path=path, element=h.package, key=h.case,
                           assumptions=h.assumptions,
+                          headline="junction temperature",
                           severity=severity, figures=figures, hint=_hint(h, budget, ceiling))
 
 

@@ -62,6 +62,7 @@ def check(ctx, options):
                     # the turn-off spike is also short-circuit-stress's cause: said once
                     cause=("turn-off-spike" if spike is not None and what == spike.describe()
                            else f"vds-{ch.role}") + ch.name[len(ch.package):],
+                    headline="blocking voltage",
                     figures=[Figure("blocking voltage", total, "V"), Figure("vds_max", part.vds_max, "V"),
                              Figure("derated limit", limit, "V")],
                     hint=f"use a FET with vds_max ≥ {fq(total / options.vds_derating, 'V', toward='up')}"
@@ -77,6 +78,7 @@ def check(ctx, options):
                 f"{ch.package} gate drive reaches {fq(gd.max, 'V')} but {fq(options.vgs_derating * 100, '%', 2)} "
                 f"of its vgs_max {fq(part.vgs_max, 'V')} is {fq(glimit, 'V')}",
                 path=path, element=ch.package, key="vgs",
+                headline="gate drive max",
                 figures=[Figure("gate drive max", gd.max, "V"), Figure("vgs_max", part.vgs_max, "V")],
                 hint=f"use a FET with vgs_max ≥ {fq(gd.max / options.vgs_derating, 'V', toward='up')}, "
                      f"or a protector whose gate drive stays at or below {fq(glimit, 'V', toward='down')}")
@@ -86,6 +88,7 @@ def check(ctx, options):
                 f"gate drive {fq(gd.min, 'V')} (over-discharge detection): the FET is not fully on "
                 f"near the end of discharge",
                 path=path, element=ch.package, key="vgs-th",
+                headline="vgs_th max",
                 figures=[Figure("vgs_th max", ch.vgs_th_max, "V"), Figure("gate drive min", gd.min, "V")],
                 hint="use a logic-level FET whose threshold max sits well below the over-discharge detection")
 

@@ -54,6 +54,7 @@ def check(ctx, options):
                 f"above {what}: it may open for good before the resettable protection acts, or in "
                 f"normal use",
                 path=path + ("opening_temperature",), element=f.refdes, key="opening",
+                headline="opening temperature min", lower_is_worse=True,
                 figures=[Figure("opening temperature min", opens.low, "°C"),
                          Figure("highest normal temperature", hottest, "°C")],
                 hint=f"choose a thermal fuse whose lowest opening temperature lies above "
@@ -68,6 +69,7 @@ def check(ctx, options):
                 yield ctx.finding(
                     f"{f.refdes} is rated {fq(rated, unit)} but " + why.format(need=fq(need, unit)),
                     path=path + (f"rated_{key}",), element=f.refdes, key=key,
+                    headline=f"needed {key}",
                     figures=[Figure(f"rated {key}", rated, unit),
                              Figure(f"needed {key}", need, unit)],
                     hint=f"use a thermal fuse rated ≥ {fq(need, unit)}")

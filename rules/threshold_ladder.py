@@ -33,15 +33,11 @@ def check(ctx, options):
         return
     part = p.part
     ppath = ("components", p.refdes, "part")
-    assumed = "; ".join(limits.assumptions)
-
-    def note(text):
-        return f"{text} (assumed: {assumed})" if assumed else text
-
     if part.cells != stack.series:
         yield ctx.finding(
             f"{p.refdes} protects {part.cells} cell(s) in series but the pack has {stack.series}",
             path=ppath, element=p.refdes, key="cell-count",
+            headline="series cells", lower_is_worse=stack.series < part.cells,
             figures=[Figure("protector cells", part.cells, ""), Figure("series cells", stack.series, "")],
             hint=f"use a protector for {stack.series} series cell(s)")
     # A pin on the wrong tap measures two cells, or none, as one: every per-cell threshold of that
@@ -65,10 +61,11 @@ def check(ctx, options):
     if ch is not None:
         if ch.max > limits.upper_limit + 1e-9:
             yield ctx.finding(
-                note(f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
+                (f"charger maximum {fq(ch.max, 'V')} per cell exceeds the cell's upper charge "
                      f"limit {fq(limits.upper_limit, 'V')}"),
                 path=("charger", "voltage"), element=stack.cells[0].refdes, key="charger-vs-upper",
                 assumptions=limits.assumptions,
+                headline="charger max per cell",
                 figures=[Figure("charger max per cell", ch.max, "V"),
                          Figure("cell upper limit", limits.upper_limit, "V")],
                 hint=f"tighten the charger to at most {fq(limits.upper_limit, 'V')} per cell with tolerance")
@@ -79,6 +76,7 @@ def check(ctx, options):
                 f"{fq(ch.max, 'V')} per cell + {fq(m.limits.charge_margin, 'V')} margin: the "
                 f"protector may cut off at the end of a normal charge",
                 path=ppath, element=p.refdes, key="overcharge-vs-charger",
+                headline="overcharge detect min", lower_is_worse=True,
                 figures=[Figure("overcharge detect min", oc.detect.low, "V"),
                          Figure("charger max per cell", ch.max, "V"),
                          Figure("margin", m.limits.charge_margin, "V")],
@@ -86,10 +84,11 @@ def check(ctx, options):
                      f"charger with a tighter tolerance")
     if oc.detect.high > limits.overcharge_limit + 1e-9:
         yield ctx.finding(
-            note(f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
+            (f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
                  f"limit {fq(limits.overcharge_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overcharge-vs-limit",
             assumptions=limits.assumptions,
+            headline="overcharge detect max",
             figures=[Figure("overcharge detect max", oc.detect.high, "V"),
                      Figure("cell overcharge limit", limits.overcharge_limit, "V")],
             hint="use a protector variant with a lower overcharge detection voltage")
@@ -98,15 +97,17 @@ def check(ctx, options):
             f"overcharge release max {fq(oc.release.high, 'V')} is not below detection min "
             f"{fq(oc.detect.low, 'V')}: the protector may never release, or release into overcharge",
             path=ppath, element=p.refdes, key="overcharge-release",
+            headline="overcharge release max",
             figures=[Figure("overcharge release max", oc.release.high, "V"),
                      Figure("overcharge detect min", oc.detect.low, "V")],
             hint="check the data sheet: release must sit below detection at every tolerance")
     if od.detect.low < limits.lower_limit - 1e-9:
         yield ctx.finding(
-            note(f"over-discharge detection min {fq(od.detect.low, 'V')} is below the cell's lower "
+            (f"over-discharge detection min {fq(od.detect.low, 'V')} is below the cell's lower "
                  f"limit {fq(limits.lower_limit, 'V')}"),
             path=ppath, element=p.refdes, key="overdischarge-vs-limit",
             assumptions=limits.assumptions,
+            headline="over-discharge detect min", lower_is_worse=True,
             figures=[Figure("over-discharge detect min", od.detect.low, "V"),
                      Figure("cell lower limit", limits.lower_limit, "V")],
             hint="use a protector variant with a higher over-discharge detection voltage")
@@ -115,6 +116,7 @@ def check(ctx, options):
             f"over-discharge release min {fq(od.release.low, 'V')} is not above detection max "
             f"{fq(od.detect.high, 'V')}: the output can switch on and off at the threshold",
             path=ppath, element=p.refdes, key="overdischarge-release",
+            headline="over-discharge release min", lower_is_worse=True,
             figures=[Figure("over-discharge release min", od.release.low, "V"),
                      Figure("over-discharge detect max", od.detect.high, "V")],
             hint="check the data sheet: release must sit above detection at every tolerance")

@@ -35,23 +35,17 @@ def check(ctx, options):
             element=p.refdes, key="no-sense",
             hint="connect ground and sense across the switch FETs (or a shunt) in the power path")
         return
-    def assumed(assumptions):
-        notes = [n for n in assumptions if "below the lowest tabulated" in n or "rds_on_hot" in n
-                 or "lower bound" in n]
-        return f" (assumed: {'; '.join(notes)})" if notes else ""
-
     cell = stack.part
     cell_limit = stack.discharge_rating
     permitted = m.event("permitted")
     ever = permitted.current if permitted is not None else None
     held = (f" (the permitted event, at {fq(permitted.ambient, '°C')} ambient)"
             if permitted is not None else "")
-    notes = assumed(permitted.assumptions) if permitted is not None else ""
     if ever is not None and ever > cell_limit:
         yield ctx.finding(
             f"the protection permits {fq(ever, 'A')} for ever, above the cells' discharge rating "
             f"{fq(cell_limit, 'A')} ({stack.parallel}P × {fq(cell.max_current.discharge, 'A')}): a load "
-            f"just below the trip is never cut off{held}{notes}",
+            f"just below the trip is never cut off{held}",
             path=("components", stack.cells[0].refdes, "part"), element=stack.cells[0].refdes,
             key="max-vs-cell", assumptions=permitted.assumptions, headline="permitted current",
             figures=window + [Figure("permitted current", ever, "A"),
@@ -65,7 +59,7 @@ def check(ctx, options):
         if ich > ch.part.id_max:
             yield ctx.finding(
                 f"{ch.name} carries {fq(ich, 'A')} for ever at the permitted current "
-                f"{fq(ever, 'A')}, above its id_max {fq(ch.part.id_max, 'A')}{held}{notes}",
+                f"{fq(ever, 'A')}, above its id_max {fq(ch.part.id_max, 'A')}{held}",
                 path=("components", ch.package, "part"), element=ch.package, key=f"max-vs-fet-{ch.name}",
                 cause=f"max-vs-fet{ch.name[len(ch.package):]}", assumptions=permitted.assumptions,
                 figures=window + [Figure("channel current", ich, "A"), Figure("id_max", ch.part.id_max, "A")],
@@ -85,7 +79,7 @@ def check(ctx, options):
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
                 f"the pack may cut out in normal use (at {t.at_min.ambient:.0f} °C ambient, "
                 f"{fq(t.at_min.vgs, 'V')} gate drive, highest "
-                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'}){assumed(t.at_min.assumptions)}",
+                f"{'shunt resistance' if m.sense_by_shunt else 'on-resistance'})",
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
                 assumptions=t.at_min.assumptions, headline="trip min", lower_is_worse=True,
                 figures=window + [Figure(what, current, "A")],
@@ -96,6 +90,7 @@ def check(ctx, options):
             f"prospective short-circuit current {fq(psc, 'A')} does not exceed the short-circuit trip "
             f"max {fq(sc.max, 'A')}: a hard short may be caught only by the slower over-current path",
             path=ppath, element=p.refdes, key="short-circuit", lower_is_worse=True,
+            headline="prospective short circuit",
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
 

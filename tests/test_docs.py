@@ -157,7 +157,7 @@ def test_every_schema_field_has_a_description() -> None:
     assert undescribed_fields(models) == []
 
 
-@pytest.mark.parametrize("which", ["design", "parts"])
+@pytest.mark.parametrize("which", ["design", "parts", "report"])
 def test_every_shipped_schema_key_has_a_description(which: str) -> None:
     # What an editor shows on hover: every property of the shipped schema, nested ones included.
     shipped = json.loads((REPO / "schemas" / f"{which}.schema.json").read_text(encoding="utf-8"))

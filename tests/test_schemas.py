@@ -12,7 +12,7 @@ from packwarden.docs import shipped_schema as json_schema
 ROOT = Path(__file__).resolve().parents[1]
 
 
-@pytest.mark.parametrize("which", ["design", "parts", "policy"])
+@pytest.mark.parametrize("which", ["design", "parts", "policy", "report"])
 def test_shipped_schema_is_current(which):
     shipped = json.loads((ROOT / "schemas" / f"{which}.schema.json").read_text(encoding="utf-8"))
     assert shipped == json_schema(which), (
@@ -20,7 +20,7 @@ def test_shipped_schema_is_current(which):
         f"schemas/{which}.schema.json`")
 
 
-@pytest.mark.parametrize("which", ["design", "parts", "policy"])
+@pytest.mark.parametrize("which", ["design", "parts", "policy", "report"])
 def test_schema_is_valid_draft07(which):
     # Draft-07 keywords so YAML language servers can complete and check designs as people type.
     jsonschema.Draft7Validator.check_schema(json_schema(which))
@@ -72,3 +72,16 @@ def test_patterns_are_valid_ecmascript_unicode_regexes(which):
     for pattern in found:
         for m in re.finditer(r"\\(.)", pattern):
             assert m.group(1) in allowed, (pattern, m.group(0))
+
+
+def test_the_json_report_of_every_example_validates_against_its_schema():
+    # schemas/report.schema.json describes `packwarden check -f json` field by field for findings
+    # (headline included); every example and flawed example's report must fit it.
+    from packwarden.engine import lint
+    from packwarden.report import RenderOptions, formatter
+    schema = json.loads((ROOT / "schemas" / "report.schema.json").read_text("utf-8"))
+    designs = sorted(str(p.relative_to(ROOT)) for p in (ROOT / "example_designs").rglob("*.yaml")
+                     if load_file(p).data.get("format") != "packwarden-parts/1")
+    report = json.loads(formatter("json")(lint(designs), RenderOptions()))
+    assert report["designs"] and any(f["headline"] for d in report["designs"] for f in d["findings"])
+    jsonschema.Draft7Validator(schema).validate(report)

@@ -358,7 +358,7 @@ def test_library_roots_allow_a_team_library_outside_the_repository(tmp_path, reg
 def test_schema_write_puts_the_schemas_where_designs_can_name_them(tmp_path):
     result = CliRunner().invoke(app, ["schema", "--write", str(tmp_path / "schemas")])
     assert result.exit_code == 0, result.output
-    for which in ("design", "parts", "policy"):
+    for which in ("design", "parts", "policy", "report"):
         written = json.loads((tmp_path / "schemas" / f"{which}.schema.json").read_text("utf-8"))
         assert written == json_schema(which)
         shipped = json.loads((REPO / "schemas" / f"{which}.schema.json").read_text("utf-8"))

@@ -19,6 +19,7 @@ def finding_dict(f) -> dict:
         "location": {"file": f.location.file, "path": ".".join(str(p) for p in f.location.path),
                      "line": f.location.line, "column": f.location.column},
         "figures": [asdict(fig) for fig in f.figures],
+        "headline": f.headline_dict(),
         "waived": f.waived, "fingerprint": f.fingerprint,
         "assumptions": list(f.assumptions),
     }

@@ -15,6 +15,9 @@ Decisions, so consumers know what to expect:
   parallel packages after the first are ``relatedLocations``, and ``properties`` name them
   (``members``, ``group``), the other rules that found the cause (``alsoFoundBy``) and the
   fingerprints the members had alone (``mergedFingerprints``).
+- Each result's ``properties.headline`` names the figure whose change makes the finding worse
+  (``figure``, ``value``, ``unit``) and which way (``worse``: ``higher`` or ``lower``), the figure
+  a waiver's ``up_to`` or ``down_to`` bounds; null for a finding without figures.
 - Each result's ``properties.assumptions`` lists what its figures rest on that the design does not
   give.
 - A waived finding is a result with a ``suppressions`` entry (kind ``inSource``: the waiver lives
@@ -200,6 +203,11 @@ def _location(file: str, line: int, column: int, root: Path) -> dict[str, Any]:
                                             "startColumn": max(column, 1)}}}
 
 
+def _headline(f: Finding) -> dict[str, Any] | None:
+    head = f.headline_dict()
+    return head if head is None else {**head, "value": _number(head["value"])}
+
+
 def _result(f: Finding, index: dict[str, int], root: Path, state: str | None) -> dict[str, Any]:
     text = f.message + (f"\nHint: {f.hint}" if f.hint else "")
     loc = _location(f.location.file, f.location.line, f.location.column, root)
@@ -217,6 +225,7 @@ def _result(f: Finding, index: dict[str, int], root: Path, state: str | None) ->
             "element": f.element, "yamlPath": f.location.dotted, "hint": f.hint,
             "figures": [{"name": g.name, "value": _number(g.value), "unit": g.unit}
                         for g in f.figures],
+            "headline": _headline(f),
             "assumptions": list(f.assumptions),
         },
     }
