@@ -1,0 +1,77 @@
+"""Entry points read from the cache load as ``importlib.metadata.EntryPoint`` loads them.
+
+The reference is ``importlib.metadata.EntryPoint`` itself (the standard library's reader of the
+packaging "entry points" specification [published]): for every value, a kept entry point's
+``module``, ``attr`` and ``load()`` (its result, or the type and text of its error) must be the
+standard library's; a value beyond plain ``module:attr`` is the standard library's own object.
+"""
+
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+from importlib.metadata import EntryPoint
+from pathlib import Path
+
+import pytest
+
+from packwarden.entrycache import KeptEntryPoint, entry_point
+
+REPO = Path(__file__).resolve().parent.parent
+
+VALUES = [
+    "packwarden_rules.unknown_part:check",
+    "packwarden.report.text:render",
+    "packwarden.report",                       # a module alone
+    "os.path:join",
+    "collections:OrderedDict.fromkeys",       # an attribute of an attribute
+    "collections:OrderedDict.nothing_here",   # AttributeError
+    "no_such_module_for_packwarden:check",     # ModuleNotFoundError
+    "packwarden..report:render",               # an empty part of a module name
+    "os:path.",                                # a trailing dot
+    "os: path",                                # whitespace: the standard library's object
+    "os:path [extra]",                         # extras: likewise
+    "os:",                                     # nothing after the colon: likewise
+    "bad value!",                              # matches no pattern: likewise
+    "modulé:x",                                # not ASCII: likewise
+]
+
+
+def outcome(ep) -> tuple:
+    try:
+        return ("ok", ep.load())
+    except BaseException as exc:  # noqa: BLE001 - compared, type and text
+        return ("error", type(exc).__name__, str(exc))
+
+
+@pytest.mark.parametrize("value", VALUES)
+def test_loads_as_the_standard_library_does(value: str) -> None:
+    ours = entry_point("some-rule", value, "packwarden.rules")
+    reference = EntryPoint("some-rule", value, "packwarden.rules")
+    assert (ours.name, ours.value, ours.group) == (reference.name, reference.value,
+                                                   reference.group)
+    assert outcome(ours) == outcome(reference)
+    if reference.pattern.match(value):
+        assert (ours.module, ours.attr) == (reference.module, reference.attr)
+
+
+@pytest.mark.parametrize("value", VALUES)
+def test_only_a_plain_value_is_kept(value: str) -> None:
+    plain = EntryPoint.pattern.fullmatch(value) is not None and value.isascii() \
+        and " " not in value and "[" not in value and not value.endswith(":")
+    assert isinstance(entry_point("r", value, "g"), KeptEntryPoint) == plain
+
+
+def test_a_check_from_the_cache_imports_no_importlib_metadata(tmp_path) -> None:
+    # the second run reads the entry points from the cache written by the first
+    design = "example_designs/orchard-probe.yaml"
+    code = ("import sys; sys.argv = ['packwarden', 'check', %r]\n"
+            "import packwarden.checking as c\n"
+            "c.finish = lambda exc: print(sorted(m for m in sys.modules\n"
+            "    if m.startswith('importlib.metadata')))\n"
+            "from packwarden.launch import main; main()\n") % design
+    env = {**os.environ, "PACKWARDEN_CACHE_DIR": str(tmp_path), "NO_COLOR": "1"}
+    runs = [subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                           env=env, cwd=REPO) for _ in range(2)]
+    assert runs[1].stdout.strip().splitlines()[-1] == "[]", runs[1].stderr
