@@ -143,3 +143,14 @@ def test_the_peer_yamllint(results: dict) -> None:
     for kind in KINDS:
         assert _positive(peer["single"][kind]["median_s"])
         assert peer["single"][kind]["runs"] == results["cold"][kind]["cached"]["runs"]
+
+
+def test_cold_lint_from_a_regular_install_when_this_one_is_editable(results: dict) -> None:
+    regular = results["regular"]
+    if not regular["editable_here"]:
+        assert not regular["available"]
+        return
+    assert regular["available"], regular["reason"]
+    for name in ("packwarden", "yamllint"):
+        r = regular["single"][name]
+        assert _positive(r["median_s"]) and _positive(r["cpu"]["median_s"]) and r["runs"] >= 1
