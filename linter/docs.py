@@ -884,15 +884,10 @@ def _toleranced_units(tp: Any, metadata: Iterable[Any] = ()) -> list[str]:
 
 
 def _given_model(unit: str) -> type:
-    """The model a toleranced field in ``unit`` validates its mapping with (schema.Tol's Given)."""
-    from .schema import Tol
-    for meta in Tol(unit).__metadata__:
-        func = getattr(meta, "func", None)
-        if func is not None and func.__closure__:
-            cells = dict(zip(func.__code__.co_freevars, func.__closure__))
-            if "Given" in cells:
-                return cells["Given"].cell_contents
-    raise LookupError(f"schema.Tol({unit!r}) has no Given model")  # pragma: no cover
+    """The model a toleranced field in ``unit`` validates its mapping with (schema.Tol's Given,
+    made on first use)."""
+    from .schema import _given_model as given_model
+    return given_model(unit)
 
 
 def undescribed_fields(models: Iterable[type]) -> list[str]:

@@ -233,7 +233,6 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
         lt: float | None = None, le: float | None = None) -> Any:
     """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare
     value; every limit, also those worked out from ``tol``, within the bounds given."""
-    Given = _given_model(unit, gt, ge, lt, le)
     bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
 
     def build(value: Any) -> Any:
@@ -241,12 +240,13 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
             return value
         if not isinstance(value, dict):
             value = {"typ": value}
-        given = Given.model_validate(value)
+        # the model is made when a design first gives a value for such a field, not at import:
+        # most of the ~20 kinds of toleranced field never appear in a given run (start-up time)
+        given = _given_model(unit, gt, ge, lt, le).model_validate(value)
         return _resolve(given, unit, bounds)
 
     # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
-    return Annotated[Toleranced, BeforeValidator(build),
-                     TolJsonSchema(_given_model(unit), unit, bounds)]
+    return Annotated[Toleranced, BeforeValidator(build), TolJsonSchema(unit, bounds)]
 
 
 class TolJsonSchema:
@@ -254,11 +254,11 @@ class TolJsonSchema:
     it at import would build the ``Given`` model's validator too, on every start of the linter.
     It also marks the field as toleranced in ``unit`` (:func:`quantity_of`)."""
 
-    def __init__(self, given: type[Strict], unit: str, bounds: "Bounds | None" = None) -> None:
-        self.given, self.unit, self.bounds = given, unit, bounds
+    def __init__(self, unit: str, bounds: "Bounds | None" = None) -> None:
+        self.unit, self.bounds = unit, bounds
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
-        given_schema = drop_titles(self.given.model_json_schema())
+        given_schema = drop_titles(_given_model(self.unit).model_json_schema())
         given_schema["description"] = f"{UNITS[self.unit].name}: any of typ, min, max; or typ with tol"
         return {"anyOf": [given_schema, q_schema(self.unit)]}
 
