@@ -8,17 +8,11 @@ standard library's; a value beyond plain ``module:attr`` is the standard library
 
 from __future__ import annotations
 
-import os
-import subprocess
-import sys
 from importlib.metadata import EntryPoint
-from pathlib import Path
 
 import pytest
 
 from packwarden.entrycache import KeptEntryPoint, entry_point
-
-REPO = Path(__file__).resolve().parent.parent
 
 VALUES = [
     "packwarden_rules.unknown_part:check",
@@ -61,17 +55,3 @@ def test_only_a_plain_value_is_kept(value: str) -> None:
     plain = EntryPoint.pattern.fullmatch(value) is not None and value.isascii() \
         and " " not in value and "[" not in value and not value.endswith(":")
     assert isinstance(entry_point("r", value, "g"), KeptEntryPoint) == plain
-
-
-def test_a_check_from_the_cache_imports_no_importlib_metadata(tmp_path) -> None:
-    # the second run reads the entry points from the cache written by the first
-    design = "example_designs/orchard-probe.yaml"
-    code = ("import sys; sys.argv = ['packwarden', 'check', %r]\n"
-            "import packwarden.checking as c\n"
-            "c.finish = lambda exc: print(sorted(m for m in sys.modules\n"
-            "    if m.startswith('importlib.metadata')))\n"
-            "from packwarden.launch import main; main()\n") % design
-    env = {**os.environ, "PACKWARDEN_CACHE_DIR": str(tmp_path), "NO_COLOR": "1"}
-    runs = [subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                           env=env, cwd=REPO) for _ in range(2)]
-    assert runs[1].stdout.strip().splitlines()[-1] == "[]", runs[1].stderr
