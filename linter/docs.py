@@ -26,7 +26,7 @@ from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origi
 
 from .api import Rule
 from .kinds import KINDS, NUMBERED_PINS
-from .schema import bounds_of
+from .schema import bounds_of, given_model
 from .schema import quantity_of as _quantity_of
 
 HEADER = ("<!-- Generated from the rule registry by `packwarden docs rules > docs/rules.md`; "
@@ -867,7 +867,7 @@ def schema_models() -> list[type]:
     for model in list(found):
         for field in model.model_fields.values():
             for unit in _toleranced_units(field.annotation, field.metadata):
-                given = _given_model(unit)
+                given = given_model(unit)
                 if given not in found:
                     found.append(given)
     return found
@@ -881,13 +881,6 @@ def _toleranced_units(tp: Any, metadata: Iterable[Any] = ()) -> list[str]:
         base, *meta = get_args(tp)
         return _toleranced_units(base, meta)
     return [u for a in get_args(tp) for u in _toleranced_units(a)]
-
-
-def _given_model(unit: str) -> type:
-    """The model a toleranced field in ``unit`` validates its mapping with (schema.Tol's Given,
-    made on first use)."""
-    from .schema import _given_model as given_model
-    return given_model(unit)
 
 
 def undescribed_fields(models: Iterable[type]) -> list[str]:

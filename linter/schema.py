@@ -208,9 +208,10 @@ class Toleranced(Strict):
 
 
 @functools.cache
-def _given_model(unit: str, gt: float | None = None, ge: float | None = None,
-                 lt: float | None = None, le: float | None = None) -> type[Strict]:
-    """The mapping a toleranced field is written as, each value within the field's bounds."""
+def given_model(unit: str, gt: float | None = None, ge: float | None = None,
+                lt: float | None = None, le: float | None = None) -> type[Strict]:
+    """The mapping a toleranced field is written as, each value within the field's bounds; made
+    the first time it is asked for (a value given as such a mapping, or the JSON Schema)."""
     spec = UNITS[unit]
     q = Q(unit, gt=gt, ge=ge, lt=lt, le=le)
 
@@ -242,7 +243,7 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
             value = {"typ": value}
         # the model is made when a design first gives a value for such a field, not at import:
         # most of the ~20 kinds of toleranced field never appear in a given run (start-up time)
-        given = _given_model(unit, gt, ge, lt, le).model_validate(value)
+        given = given_model(unit, gt, ge, lt, le).model_validate(value)
         return _resolve(given, unit, bounds)
 
     # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
@@ -258,7 +259,7 @@ class TolJsonSchema:
         self.unit, self.bounds = unit, bounds
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
-        given_schema = drop_titles(_given_model(self.unit).model_json_schema())
+        given_schema = drop_titles(given_model(self.unit).model_json_schema())
         given_schema["description"] = f"{UNITS[self.unit].name}: any of typ, min, max; or typ with tol"
         return {"anyOf": [given_schema, q_schema(self.unit)]}
 

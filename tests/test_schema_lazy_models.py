@@ -18,7 +18,7 @@ REPO = Path(__file__).resolve().parent.parent
 PROBE = r"""
 import json
 from packwarden import schema
-made_at_import = schema._given_model.cache_info().currsize
+made_at_import = schema.given_model.cache_info().currsize
 from pydantic import TypeAdapter, ValidationError
 field = TypeAdapter(schema.Tol("V", gt=0))
 value = field.validate_python({"typ": "4.2 V", "max": "4.25 V"})
@@ -26,7 +26,7 @@ try:
     field.validate_python({"typ": "4.2 V", "maximum": "4.25 V"})
 except ValidationError as exc:
     error = exc.errors()[0]["type"]
-print(json.dumps({"import": made_at_import, "after": schema._given_model.cache_info().currsize,
+print(json.dumps({"import": made_at_import, "after": schema.given_model.cache_info().currsize,
                   "typ": value.typ, "max": value.max, "error": error}))
 """
 
