@@ -1,4 +1,5 @@
-"""The ``{typ, min, max, tol}`` models of toleranced fields are made on first use, not at import.
+"""Start-up of the schema: the ``{typ, min, max, tol}`` models are made on first use, not at import,
+and ``schema.Before`` gives the core schema of pydantic's ``BeforeValidator``.
 
 What a design may write and what an error says is pinned elsewhere (tests/hostile, the schema
 tests, the generated JSON Schema); this holds only that importing the schema makes none of these
@@ -9,6 +10,7 @@ Schema of the format still holds the mapping form.
 from __future__ import annotations
 
 import json
+import re
 import subprocess
 import sys
 from pathlib import Path
@@ -45,3 +47,29 @@ def test_the_json_schema_still_gives_the_mapping_form() -> None:
     shipped = json.loads((REPO / "schemas" / "design.schema.json").read_text(encoding="utf-8"))
     text = json.dumps(shipped)
     assert '"typ"' in text and '"tol"' in text
+
+
+def test_before_gives_pydantics_before_validator_schema() -> None:
+    # the reference is pydantic's own BeforeValidator: the same core schema for the same field
+    from typing import Annotated
+
+    from pydantic import BaseModel, BeforeValidator, Field, TypeAdapter
+
+    from packwarden.schema import Before, NetName, Tol
+
+    def to_text(v):
+        return str(v)
+
+    def shown(schema) -> str:  # pydantic makes a new partial for each length check
+        return re.sub(r" at 0x[0-9a-f]+", "", repr(schema))
+
+    ours = TypeAdapter(Annotated[str, Before(to_text), Field(min_length=1)]).core_schema
+    theirs = TypeAdapter(Annotated[str, BeforeValidator(to_text), Field(min_length=1)]).core_schema
+    assert shown(ours) == shown(theirs)
+
+    class Net(BaseModel):
+        net: NetName
+        limit: Tol("V", gt=0)  # type: ignore[valid-type]
+
+    got = Net.model_validate({"net": 12, "limit": "4.2 V"})
+    assert got.net == "12" and got.limit.typ == 4.2
