@@ -10,7 +10,14 @@ large 16S x 20P packs with ten parallel FETs per switch (about 400 components, w
 16-cell protector that has RL-GUARD-4S's thresholds) and a scaling series from 10 to 2 000
 components. Then, in one run:
 
-* cold single-file lint: the whole ``packwarden check FILE`` process, median of repeated runs;
+* cold single-file lint: the whole ``packwarden check FILE`` process, median of repeated runs.
+  The benchmark runs the ``packwarden`` of its own environment, in a development checkout an
+  editable install (``pip install -e``), whose every start imports the editable finder from a
+  ``.pth`` file (about 12 ms, ``pathlib`` and ``urllib`` among it), which yamllint's start in
+  the same environment pays too. A user has a regular install: when this one is editable, the
+  cold lint and yamllint are also timed from a regular install made for the run (the same
+  libraries linked, packwarden installed by pip from this checkout), wall and CPU time, taking
+  turns with the rest; the issue 19 target is judged on it and the editable figure printed beside;
 * batch throughput over 10 000 designs, all cores (``--jobs``), and the peak memory of the whole
   process tree (RSS of every process summed, sampled from /proc);
 * scaling: time per design against its component count;
@@ -301,6 +308,68 @@ def median_of(runs: int, cmd: list[str], env: dict, **kw) -> dict:
 def _stats(times: list[float]) -> dict:
     return {"median_s": statistics.median(times), "min_s": min(times), "max_s": max(times),
             "runs": len(times)}
+
+
+def timed_cpu(cmd: list[str], env: dict, ok=(0, 1)) -> tuple[float, float]:
+    """Wall and CPU (user + system of the child) seconds of one process: on a shared machine
+    the CPU time is the steadier of the two."""
+    before = resource.getrusage(resource.RUSAGE_CHILDREN)
+    wall = timed(cmd, env, ok=ok)
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
+    return wall, (after.ru_utime + after.ru_stime) - (before.ru_utime + before.ru_stime)
+
+
+def regular_args(name: str, design: Path) -> list[str]:
+    return ["check", str(design)] if name == "packwarden" else [str(design)]
+
+
+def editable_install() -> bool:
+    """Whether this environment's packwarden is an editable (development) install: its
+    console script then starts with the editable finder that ``site`` imports from a ``.pth``
+    file, which a user's regular install does not have."""
+    from importlib.metadata import PackageNotFoundError, distribution
+    try:
+        text = distribution("packwarden").read_text("direct_url.json") or "{}"
+    except PackageNotFoundError:
+        return False
+    return bool(json.loads(text).get("dir_info", {}).get("editable"))
+
+
+def regular_install(tmp: Path) -> tuple[dict | None, str]:
+    """packwarden as a user installs it (``pip install``, not editable), with the same libraries:
+    a virtual environment without pip whose site-packages links every entry of this one except
+    packwarden's own files (its editable finder, ``.pth`` and metadata), and packwarden
+    installed into it from this checkout by this environment's pip (``--python``). Returns the
+    commands (``packwarden`` and ``yamllint``, the peer started the same way) or None and why."""
+    import sysconfig
+    venv = tmp / "regular-install"
+    try:
+        subprocess.run([sys.executable, "-m", "venv", "--without-pip", str(venv)], check=True,
+                       capture_output=True)
+        python = venv / ("Scripts" if os.name == "nt" else "bin") / "python"
+        site = Path(subprocess.run([str(python), "-c", "import sysconfig; "
+                                    "print(sysconfig.get_paths()['purelib'])"], check=True,
+                                   capture_output=True, text=True).stdout.strip())
+        ours = ("__editable__", "packwarden", "__pycache__")
+        for entry in Path(sysconfig.get_paths()["purelib"]).iterdir():
+            if not entry.name.startswith(ours):
+                (site / entry.name).symlink_to(entry)
+        proc = subprocess.run([sys.executable, "-m", "pip", "--python", str(python), "install",
+                               "-q", "--no-deps", str(REPO)], capture_output=True, text=True)
+        if proc.returncode != 0:
+            return None, "pip: " + (proc.stderr.strip().splitlines() or ["failed"])[-1]
+    except (OSError, subprocess.CalledProcessError) as exc:
+        return None, f"could not make the regular install: {exc}"
+    scripts = python.parent
+    cmds = {"packwarden": [str(scripts / "packwarden")]}
+    yamllint = peer_cmd("yamllint")
+    if yamllint and Path(yamllint[0]).is_file():
+        # the peer's own console script, started by this environment's interpreter
+        text = Path(yamllint[0]).read_text(encoding="utf-8").split("\n", 1)
+        (scripts / "yamllint").write_text(f"#!{python}\n{text[1]}", encoding="utf-8")
+        (scripts / "yamllint").chmod(0o755)
+        cmds["yamllint"] = [str(scripts / "yamllint")]
+    return cmds, ""
 
 
 class TreeMemory:
@@ -675,6 +744,8 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
     if yl is None:
         rows.append((f"cold lint <= {TARGET_YAMLLINT_RATIO:g}x yamllint (single)",
                      res.get("yamllint", {}).get("reason") or "yamllint not available", "n/a"))
+    elif "yamllint" in res.get("regular", {}).get("single", {}):
+        rows.append(regular_row(res["regular"]["single"], lint_single / yl["median_s"]))
     else:
         ratio = lint_single / yl["median_s"]
         rows.append((f"cold lint <= {TARGET_YAMLLINT_RATIO:g}x yamllint (single)",
@@ -732,6 +803,18 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
     return rows
 
 
+def regular_row(regular: dict, editable_ratio: float) -> tuple[str, str, str]:
+    """The cold-lint target from the regular install (as a user has packwarden), both commands
+    started alike; the editable install's ratio beside it."""
+    lint, peer = regular["packwarden"], regular["yamllint"]
+    ratio = lint["median_s"] / peer["median_s"]
+    cpu_ratio = lint["cpu"]["median_s"] / peer["cpu"]["median_s"]
+    return (f"cold lint <= {TARGET_YAMLLINT_RATIO:g}x yamllint (single, regular install)",
+            f"{lint['median_s']:.3f} s vs yamllint {peer['median_s']:.3f} s = {ratio:.2f}x, CPU "
+            f"{cpu_ratio:.2f}x (interleaved, median of {peer['runs']}; editable install "
+            f"{editable_ratio:.2f}x)", verdict(ratio <= TARGET_YAMLLINT_RATIO))
+
+
 def print_report(res: dict) -> None:
     print()
     print(f"packwarden benchmark ({res['machine']['cpus']} CPUs, Python "
@@ -747,6 +830,9 @@ def print_report(res: dict) -> None:
         print(f"{'check-jsonschema, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
     for kind, p in res.get("yamllint", {}).get("single", {}).items():
         print(f"{'yamllint, ' + kind + ' (median)':<44} {p['median_s']:>12.3f} s")
+    for name, r in res.get("regular", {}).get("single", {}).items():
+        print(f"{name + ', single, regular install (median)':<44} {r['median_s']:>12.3f} s"
+              f"   (CPU {r['cpu']['median_s']:.3f} s)")
     for step, t in res["startup_floor"].items():
         print(f"{'start-up floor: ' + step + ' (median)':<44} {t['median_s']:>12.3f} s")
     for kind, f in res["floor"]["single"].items():
@@ -842,7 +928,18 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
     peer, why = ensure_peer(not args.no_install)
     yamllint, yamllint_why = ensure_peer(not args.no_install, "yamllint")
 
+    # A development checkout is an editable install, whose start carries the editable finder: the
+    # cold lint and yamllint are then also timed from a regular install, as a user has it.
+    regular, regular_why = None, "packwarden here is a regular install: the figures above are its"
+    if editable_install():
+        print("a regular (non-editable) install for the cold lint ...", flush=True)
+        regular, regular_why = regular_install(tmp)
+    res["regular"] = {"editable_here": editable_install(), "available": regular is not None,
+                      "reason": regular_why, "single": {}}
+
     print("warm-up runs (writing bytecode caches) ...", flush=True)
+    for name, cmd in (regular or {}).items():
+        timed(cmd + regular_args(name, samples["single"]), env)
     for f in samples.values():
         timed(pw + ["check", str(f)], env)
         if peer:
@@ -868,6 +965,7 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
         # The lint and the peer take turns, so a machine that speeds up or slows down during the
         # run (a shared or virtual one does) weighs on both alike.
         lint_times, peer_times, yamllint_times = [], [], []
+        regular_times: dict[str, list[tuple[float, float]]] = {}
         for _ in range(cfg["cold_runs"]):
             lint_times.append(timed(pw + ["check", str(f)], env))
             if peer:
@@ -876,6 +974,9 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
                 yamllint_times.append(timed(yamllint + [str(f)], env))
             if kind == "single":
                 time_startup(env, startup)
+                for name, cmd in (regular or {}).items():
+                    regular_times.setdefault(name, []).append(
+                        timed_cpu(cmd + regular_args(name, f), env))
         nocache.mkdir(exist_ok=True)
         res["cold"][kind] = {
             "file": f.name, "components": comps, "cached": _stats(lint_times),
@@ -887,6 +988,9 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
             res["peer"]["single"][kind] = _stats(peer_times)
         if yamllint:
             res["yamllint"]["single"][kind] = _stats(yamllint_times)
+        for name, runs in regular_times.items():
+            res["regular"]["single"][name] = {**_stats([w for w, _ in runs]),
+                                              "cpu": _stats([c for _, c in runs])}
 
     res["startup_floor"] = {step: _stats(t) for step, t in startup.items()}
 

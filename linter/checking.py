@@ -33,6 +33,9 @@ def start() -> None:
     # and looking for them scans every installed package when the first schema is built (about
     # 8 ms). A value the user set, even an empty one, is kept.
     os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "__all__")
+    # ... and then pydantic's plugin loader need not import importlib.metadata (plugins_off.py)
+    from .plugins_off import install
+    install()
 
 
 def finish(exc: SystemExit) -> None:

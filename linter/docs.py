@@ -27,7 +27,7 @@ from typing import Annotated, Any, Iterable, Literal, Union, get_args, get_origi
 from .api import Rule
 from .headlines import bound_words, headlines
 from .kinds import KINDS, NUMBERED_PINS
-from .schema import bounds_of
+from .schema import bounds_of, given_model
 from .schema import quantity_of as _quantity_of
 
 HEADER = ("<!-- Generated from the rule registry by `packwarden docs rules > docs/rules.md`; "
@@ -883,7 +883,7 @@ def schema_models() -> list[type]:
     for model in list(found):
         for field in model.model_fields.values():
             for unit in _toleranced_units(field.annotation, field.metadata):
-                given = _given_model(unit)
+                given = given_model(unit)
                 if given not in found:
                     found.append(given)
     return found
@@ -897,18 +897,6 @@ def _toleranced_units(tp: Any, metadata: Iterable[Any] = ()) -> list[str]:
         base, *meta = get_args(tp)
         return _toleranced_units(base, meta)
     return [u for a in get_args(tp) for u in _toleranced_units(a)]
-
-
-def _given_model(unit: str) -> type:
-    """The model a toleranced field in ``unit`` validates its mapping with (schema.Tol's Given)."""
-    from .schema import Tol
-    for meta in Tol(unit).__metadata__:
-        func = getattr(meta, "func", None)
-        if func is not None and func.__closure__:
-            cells = dict(zip(func.__code__.co_freevars, func.__closure__))
-            if "Given" in cells:
-                return cells["Given"].cell_contents
-    raise LookupError(f"schema.Tol({unit!r}) has no Given model")  # pragma: no cover
 
 
 def undescribed_fields(models: Iterable[type]) -> list[str]:

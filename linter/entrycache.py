@@ -98,12 +98,68 @@ def read_installed() -> dict[str, list[list]]:
 
 
 def installed_entry_points(group: str) -> list[tuple[Optional[str], Any]]:
-    """``(distribution name or None, EntryPoint)`` for each entry point of ``group``, in the
-    order ``importlib.metadata`` lists them."""
-    from importlib.metadata import EntryPoint
-
+    """``(distribution name or None, entry point)`` for each entry point of ``group``, in the
+    order ``importlib.metadata`` lists them; a plain ``module:attr`` value as a
+    :class:`KeptEntryPoint`, any other as ``importlib.metadata.EntryPoint``."""
     rows = _cached_groups()[group]
-    return [(dist, EntryPoint(name, value, group)) for name, value, dist in rows]
+    return [(dist, entry_point(name, value, group)) for name, value, dist in rows]
+
+
+def entry_point(name: str, value: str, group: str) -> Any:
+    if KeptEntryPoint.plain(value):
+        return KeptEntryPoint(name, value, group)
+    from importlib.metadata import EntryPoint
+    return EntryPoint(name, value, group)
+
+
+class KeptEntryPoint:
+    """An entry point whose value is a plain ``module`` or ``module:attr.attr``, loaded as
+    ``importlib.metadata.EntryPoint`` loads it (import the module, then each attribute in turn).
+
+    Importing ``importlib.metadata`` (with ``email``, ``zipfile``, ``csv`` behind it) is about a
+    twentieth of a cold check, and a check whose entry points come from the cache needs nothing
+    else from it. Any other value (whitespace, extras, a malformed one) is given to
+    ``importlib.metadata``'s own class, so its errors stay as they are
+    (``tests/test_entrycache.py`` holds the two alike)."""
+
+    __slots__ = ("name", "value", "group")
+
+    def __init__(self, name: str, value: str, group: str) -> None:
+        self.name, self.value, self.group = name, value, group
+
+    @staticmethod
+    def plain(value: str) -> bool:
+        module, colon, attr = value.partition(":")
+        return _dotted(module) and (not colon or _dotted(attr))
+
+    @property
+    def module(self) -> str:
+        return self.value.partition(":")[0]
+
+    @property
+    def attr(self) -> Optional[str]:
+        return self.value.partition(":")[2] or None
+
+    def load(self) -> Any:
+        from importlib import import_module
+        module = import_module(self.module)
+        obj: Any = module
+        for name in (self.attr or "").split("."):
+            if name:
+                obj = getattr(obj, name)
+        return obj
+
+    def __repr__(self) -> str:
+        return f"KeptEntryPoint(name={self.name!r}, value={self.value!r}, group={self.group!r})"
+
+
+#: ASCII within importlib.metadata's pattern for a module or an attribute, ``[\w.]+``.
+_DOTTED = frozenset("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789_.")
+
+
+def _dotted(text: str) -> bool:
+    return bool(text) and _DOTTED.issuperset(text)
+
 
 
 def _cached_groups() -> dict[str, list[list]]:

@@ -7,7 +7,6 @@ escape sequences (``NO_COLOR`` has nothing to switch off), and a run of one desi
 
 from __future__ import annotations
 
-import shutil
 from typing import TextIO
 
 
@@ -22,7 +21,7 @@ class Progress:
     def __call__(self, done: int, total: int, file: str) -> None:
         if total < 2:
             return
-        columns = self.width or shutil.get_terminal_size((80, 24)).columns
+        columns = self.width or _terminal_columns()
         bar_len = 20
         filled = bar_len * done // total
         head = f"[{'#' * filled}{'.' * (bar_len - filled)}] {done}/{total} "
@@ -38,6 +37,13 @@ class Progress:
             self.stream.write("\r" + " " * self.drawn + "\r")
             self.stream.flush()
             self.drawn = 0
+
+
+def _terminal_columns() -> int:
+    # imported when a bar is drawn: shutil brings in the compression modules (lzma, bz2), about
+    # 6 ms of every start, and a check of one design draws no bar
+    import shutil
+    return shutil.get_terminal_size((80, 24)).columns
 
 
 def progress_for(stream: TextIO, quiet: bool = False) -> Progress | None:

@@ -119,12 +119,12 @@ def normalize_name(name: str) -> str:
 
 def missing_plugins(registry: Registry, names: Iterable[str]) -> list[str]:
     """One message per required distribution that registers no rules in this installation."""
-    from importlib.metadata import PackageNotFoundError, distribution
-
     out = []
     for name in names:
         if normalize_name(name) in registry.distributions:
             continue
+        # imported only for a plugin not found among the rules (a twentieth of a cold check)
+        from importlib.metadata import PackageNotFoundError, distribution
         try:
             distribution(name)
         except PackageNotFoundError:

@@ -17,7 +17,7 @@ from enum import Enum
 from pathlib import Path
 from typing import Annotated, Any, Literal, Union
 
-from pydantic import (AfterValidator, BaseModel, BeforeValidator, ConfigDict, Discriminator,
+from pydantic import (AfterValidator, BaseModel, ConfigDict, Discriminator,
                       Field, Tag, model_validator)
 from pydantic_core import PydanticCustomError, core_schema
 
@@ -56,6 +56,21 @@ def _unit_pattern(unit: str) -> str:
     prefix = _PREFIX_CLASS if spec.prefixes else ""
     optional = "?" if not spec.prefixes and unit not in ("oz",) else ""
     return rf"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)? ?({prefix}({alt})){optional}$"
+
+
+class Before:
+    """``BeforeValidator(func)`` for a ``func`` of one argument, the value: the same core schema
+    (``no_info_before_validator_function`` around the field's own), without pydantic reading
+    the function's signature each time a model using the field is built (about 200 times for
+    the design's and the library's validators, a tenth of building them)."""
+
+    __slots__ = ("func",)
+
+    def __init__(self, func: Any) -> None:
+        self.func = func
+
+    def __get_pydantic_core_schema__(self, source: Any, handler: Any) -> Any:
+        return core_schema.no_info_before_validator_function(self.func, handler(source))
 
 
 def _parser(unit: str, bounds: "Bounds | None" = None):
@@ -208,9 +223,10 @@ class Toleranced(Strict):
 
 
 @functools.cache
-def _given_model(unit: str, gt: float | None = None, ge: float | None = None,
-                 lt: float | None = None, le: float | None = None) -> type[Strict]:
-    """The mapping a toleranced field is written as, each value within the field's bounds."""
+def given_model(unit: str, gt: float | None = None, ge: float | None = None,
+                lt: float | None = None, le: float | None = None) -> type[Strict]:
+    """The mapping a toleranced field is written as, each value within the field's bounds; made
+    the first time it is asked for (a value given as such a mapping, or the JSON Schema)."""
     spec = UNITS[unit]
     q = Q(unit, gt=gt, ge=ge, lt=lt, le=le)
 
@@ -233,7 +249,6 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
         lt: float | None = None, le: float | None = None) -> Any:
     """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare
     value; every limit, also those worked out from ``tol``, within the bounds given."""
-    Given = _given_model(unit, gt, ge, lt, le)
     bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
 
     def build(value: Any) -> Any:
@@ -241,12 +256,13 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
             return value
         if not isinstance(value, dict):
             value = {"typ": value}
-        given = Given.model_validate(value)
+        # the model is made when a design first gives a value for such a field, not at import:
+        # most of the ~20 kinds of toleranced field never appear in a given run (start-up time)
+        given = given_model(unit, gt, ge, lt, le).model_validate(value)
         return _resolve(given, unit, bounds)
 
     # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
-    return Annotated[Toleranced, BeforeValidator(build),
-                     TolJsonSchema(_given_model(unit), unit, bounds)]
+    return Annotated[Toleranced, Before(build), TolJsonSchema(unit, bounds)]
 
 
 class TolJsonSchema:
@@ -254,11 +270,11 @@ class TolJsonSchema:
     it at import would build the ``Given`` model's validator too, on every start of the linter.
     It also marks the field as toleranced in ``unit`` (:func:`quantity_of`)."""
 
-    def __init__(self, given: type[Strict], unit: str, bounds: "Bounds | None" = None) -> None:
-        self.given, self.unit, self.bounds = given, unit, bounds
+    def __init__(self, unit: str, bounds: "Bounds | None" = None) -> None:
+        self.unit, self.bounds = unit, bounds
 
     def __get_pydantic_json_schema__(self, core_schema: Any, handler: Any) -> dict:
-        given_schema = drop_titles(self.given.model_json_schema())
+        given_schema = drop_titles(given_model(self.unit).model_json_schema())
         given_schema["description"] = f"{UNITS[self.unit].name}: any of typ, min, max; or typ with tol"
         return {"anyOf": [given_schema, q_schema(self.unit)]}
 
@@ -663,7 +679,7 @@ def _ceiling(text: str) -> str:
     return text
 
 
-NetName = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
+NetName = Annotated[str, Before(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
                     Field(min_length=1, max_length=100)]
 Pins = Union[dict[str, NetName], list[NetName]]
 
@@ -674,7 +690,7 @@ _PINS_TEXT = ("nets the component's pins connect to: a mapping pin -> net, e.g. 
               "same names (a list replaces them all)")
 _NOTE_TEXT = "free text for reviewers, e.g. an assembly remark; not checked"
 
-PinNumber = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
+PinNumber = Annotated[str, Before(lambda v: str(v) if isinstance(v, int) and not isinstance(v, bool) else v),
                       Field(min_length=1, max_length=20)]
 
 

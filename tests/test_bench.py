@@ -143,3 +143,16 @@ def test_the_peer_yamllint(results: dict) -> None:
     for kind in KINDS:
         assert _positive(peer["single"][kind]["median_s"])
         assert peer["single"][kind]["runs"] == results["cold"][kind]["cached"]["runs"]
+
+
+def test_cold_lint_from_a_regular_install_when_this_one_is_editable(results: dict) -> None:
+    regular = results["regular"]
+    if not regular["editable_here"]:
+        assert not regular["available"]
+        return
+    if regular["reason"].startswith("pip:"):  # pip could not build it here (an offline index)
+        pytest.skip(regular["reason"])
+    assert regular["available"], regular["reason"]
+    for name in ("packwarden", "yamllint"):
+        r = regular["single"][name]
+        assert _positive(r["median_s"]) and _positive(r["cpu"]["median_s"]) and r["runs"] >= 1

@@ -108,7 +108,8 @@ def test_a_cache_of_another_state_is_not_believed(cache: Path) -> None:
     answer()
     (path,) = cache.glob("entry-points-*.txt")
     header, rest = path.read_text(encoding="utf-8").split("\n", 1)
-    forged = f"{header[:-1]}0\npackwarden.rules\tghost\tghost:check\t\n{rest}"
+    other = "1" if header.endswith("0") else "0"  # another state, whatever this one ends with
+    forged = f"{header[:-1]}{other}\npackwarden.rules\tghost\tghost:check\t\n{rest}"
     path.write_text(forged, encoding="utf-8")
     assert answer() == read_installed()
     assert not any(r[0] == "ghost" for r in answer()["packwarden.rules"])
