@@ -154,10 +154,10 @@ class PowerPath:
         if hit is None:
             ratio, at = (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO
             # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
-            points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
+            points = tuple([(abs(p.vgs), p.typ, p.max) for p in part.rds_on])
             t = part.vgs_th
-            res = rds_on(points, vgs, tj, ratio, at, corner, threshold_at((t.min, t.typ, t.max), corner))
-            hit = self._memo[key] = (res.value, res.assumptions)
+            hit = self._memo[key] = kept_rds_on(points, vgs, tj, ratio, at, corner,
+                                                threshold_at((t.min, t.typ, t.max), corner))
         value, notes = hit
         if hot is None:
             notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
@@ -427,3 +427,32 @@ def cell_stack(cells, cell_emf: float, cell_r: float) -> Network:
             del _STACKS[next(iter(_STACKS))]
         _STACKS[key] = base
     return base
+
+
+#: On-resistances by everything :func:`rdson.rds_on` reads, (ohms, assumptions), oldest first.
+#: ``PowerPath._memo`` lives as long as one design's model, yet a batch's designs and an
+#: editor's re-lints of one design ask for the same parts at the same drives and temperatures
+#: again: nine misses of the model's memo in ten are answered here [measured: bench/run.py's
+#: corpus, issue 19]. ``rds_on`` is a pure function of its arguments and its result is
+#: immutable, so a kept one is the very value a new computation would give.
+_RDS_KEPT: dict[tuple, tuple[float, tuple[str, ...]]] = {}
+#: Bound on the on-resistances kept (the oldest goes first): a few hundred bytes each.
+RDS_KEPT_MAX = 4096
+
+
+def kept_rds_on(points: tuple, vgs: float, tj: float, ratio: float, at: float, corner: str,
+                vth: float | None) -> tuple[float, tuple[str, ...]]:
+    """(ohms, assumptions) of :func:`rdson.rds_on`, remembered by value across models.
+
+    A zero anywhere is computed afresh: -0.0 equals 0.0 as a key, yet may print apart."""
+    key = (points, vgs, tj, ratio, at, corner, vth)
+    if 0.0 in (vgs, tj, ratio, at, vth) or any(0.0 in row for row in points):
+        res = rds_on(points, vgs, tj, ratio, at, corner, vth)
+        return res.value, res.assumptions
+    hit = _RDS_KEPT.get(key)
+    if hit is None:
+        res = rds_on(points, vgs, tj, ratio, at, corner, vth)
+        if len(_RDS_KEPT) >= RDS_KEPT_MAX:
+            _RDS_KEPT.pop(next(iter(_RDS_KEPT)), None)
+        hit = _RDS_KEPT[key] = (res.value, res.assumptions)
+    return hit
