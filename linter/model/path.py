@@ -109,17 +109,33 @@ class PowerPath:
         for ch in self.topology.channels:
             on = True if switches_on is None else switches_on.get(ch.name, True)
             net.add(self._switch(ch, rds.get(ch.name, 1.0), on))
-        for c in self.topology.path_parts:
-            a, b = c.pins.get("1"), c.pins.get("2")
-            if a and b and a != b and c.refdes not in exclude:
-                r = self.part_resistance(c, temp, corner)
-                if r <= max_ohms:
-                    net.add(self._resistor(c.refdes, a, b, r))
-        if load is not None:
-            pos, neg = self.topology.terminals
-            if pos != neg:
-                net.add(self._resistor("(load)", pos, neg, load))
+        for branch in self._after_switches(temp, corner, load, exclude, max_ohms):
+            net.add(branch)
         return net
+
+    def _after_switches(self, temp: float, corner: str, load: float | None,
+                        exclude: frozenset[str], max_ohms: float) -> tuple:
+        """The branches :meth:`network` adds after the switch channels, in order: the series
+        parts, then the load. The thermal iterations change only the channels, so these are
+        gathered once per model for each temperature and corner, instead of looking up every
+        part's resistance and branch again in each of a lint's sixty-odd networks."""
+        key = ("after switches", memo_key(temp), corner,
+               None if load is None else memo_key(load), exclude, memo_key(max_ohms))
+        branches = self._memo.get(key)
+        if branches is None:
+            found = []
+            for c in self.topology.path_parts:
+                a, b = c.pins.get("1"), c.pins.get("2")
+                if a and b and a != b and c.refdes not in exclude:
+                    r = self.part_resistance(c, temp, corner)
+                    if r <= max_ohms:
+                        found.append(self._resistor(c.refdes, a, b, r))
+            if load is not None:
+                pos, neg = self.topology.terminals
+                if pos != neg:
+                    found.append(self._resistor("(load)", pos, neg, load))
+            branches = self._memo[key] = tuple(found)
+        return branches
 
     def _resistor(self, name: str, a: str, b: str, ohms: float):
         key = ("resistor", name, a, b, memo_key(ohms))
