@@ -11,7 +11,7 @@ for it once.
 from __future__ import annotations
 
 import math
-from dataclasses import field
+from dataclasses import field, fields
 from functools import cached_property
 from typing import Any
 
@@ -66,8 +66,9 @@ class PowerPath:
         self.problems = problems
         # Memos of pure functions of their arguments: the thermal fixed points and the corners
         # ask for the same on-resistances, part resistances, branches and operating points many
-        # times over, and a large pack's path is rebuilt for every solve.
-        self._memo: dict = {}
+        # times over, and a large pack's path is rebuilt for every solve. Shared with earlier
+        # models of the same netlist (:func:`kept_memo`).
+        self._memo: dict = kept_memo(getattr(topology, "netlist", None))
 
     def part_resistance(self, c: Component, temp: float, corner: str) -> float:
         """Resistance of a non-switch part in the path at ``temp`` for a corner (low/typ/high)."""
@@ -167,14 +168,17 @@ class PowerPath:
         hot = part.rds_on_hot_ratio
         key = ("rds", id(part), memo_key(vgs), memo_key(tj), corner)
         hit = self._memo.get(key)
-        if hit is None:
+        # The part is held with its value: a memo shared between models (kept_memo) outlives
+        # their parts, and an id is unique only among live objects.
+        if hit is None or hit[2] is not part:
             ratio, at = (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO
             # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
             points = tuple([(abs(p.vgs), p.typ, p.max) for p in part.rds_on])
             t = part.vgs_th
-            hit = self._memo[key] = kept_rds_on(points, vgs, tj, ratio, at, corner,
-                                                threshold_at((t.min, t.typ, t.max), corner))
-        value, notes = hit
+            hit = self._memo[key] = (*kept_rds_on(points, vgs, tj, ratio, at, corner,
+                                                  threshold_at((t.min, t.typ, t.max), corner)),
+                                     part)
+        value, notes, _ = hit
         if hot is None:
             notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
                              f"[practice: 1.4-1.6 for 20 V parts]",)
@@ -472,3 +476,57 @@ def kept_rds_on(points: tuple, vgs: float, tj: float, ratio: float, at: float, c
             _RDS_KEPT.pop(next(iter(_RDS_KEPT)), None)
         hit = _RDS_KEPT[key] = (res.value, res.assumptions)
     return hit
+
+
+#: The memos of :class:`PowerPath` by the netlist they were computed from, kept between models.
+#: Everything a path computes is a function of its topology, and the topology one of the
+#: netlist's components, nets and terminals; a model of an equal netlist reads the same memo:
+#: a batch's designs that differ only in their loads, and an editor's re-lints of a design whose
+#: edit left the netlist as it was (a load, a rule option, a comment), pay for each operating
+#: point once. Keyed by a netlist's terminals and its components' names and kinds; held with
+#: the components and nets to compare whole (:func:`_same_netlist`).
+_MEMOS: dict[tuple, tuple[tuple, dict, dict]] = {}
+#: Netlists whose memos are kept (the oldest goes first), and the entries a memo may gather
+#: before a model starts a fresh one: a few hundred per lint, a large pack's operating points
+#: hold a solution of its whole network each.
+MEMOS_MAX = 8
+MEMO_ENTRIES_MAX = 2048
+
+
+def kept_memo(netlist: Any) -> dict:
+    """The memo of earlier paths of a netlist equal to ``netlist``, or a new one kept for the
+    next; a new unkept one without a netlist."""
+    if netlist is None:
+        return {}
+    components = tuple(netlist.components.values())
+    nets = {net: tuple(refs) for net, refs in netlist.nets.items()}
+    key = (netlist.terminals, tuple((c.refdes, c.kind) for c in components))
+    kept = _MEMOS.get(key)
+    if (kept is not None and len(kept[2]) < MEMO_ENTRIES_MAX
+            and _same_netlist(kept[0], components) and kept[1] == nets):
+        memo = kept[2]
+    else:
+        memo = {}
+    # Held with this netlist's own components, so that the next lint in the same session
+    # finds its parts the very same objects and need not compare them whole.
+    _MEMOS.pop(key, None)
+    if len(_MEMOS) >= MEMOS_MAX:
+        _MEMOS.pop(next(iter(_MEMOS)), None)
+    _MEMOS[key] = (components, nets, memo)
+    return memo
+
+
+def _same_netlist(kept: tuple, components: tuple) -> bool:
+    """Whether two netlists' components are the same in every field, parts included. A part
+    read from the same library is the same object; one given inline in the design is compared
+    by value and by its text, since -0.0 equals 0.0 yet prints apart."""
+    if len(kept) != len(components):
+        return False
+    for old, new in zip(kept, components):
+        if old is new:
+            continue
+        for f in fields(new):
+            a, b = getattr(old, f.name), getattr(new, f.name)
+            if a is not b and not (a == b and repr(a) == repr(b)):
+                return False
+    return True
