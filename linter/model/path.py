@@ -88,6 +88,32 @@ class PowerPath:
                 corner: str = "typ", switches_on: dict[str, bool] | None = None,
                 load: float | None = PROBE_LOAD, cells: bool = True,
                 exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf) -> Network:
+        """The power path of :meth:`built_network`, as a copy of the one built with the same
+        values before (a small network: at most ``NETWORK_KEPT_BRANCHES``). The events, the
+        short and the heat cases of a design ask for the same networks, and the designs of an
+        equal netlist share the memo: the copy shares its original's prepared solver terms, so
+        a solve remembered by value (``network._SOLVED``) is found without building anything."""
+        channels = self.topology.channels
+        on = (True,) * len(channels) if switches_on is None else tuple(
+            [switches_on.get(ch.name, True) for ch in channels])
+        key = ("network", tuple([memo_key(rds.get(ch.name, 1.0)) for ch in channels]), on,
+               memo_key(cell_emf), memo_key(cell_r), memo_key(temp), corner,
+               None if load is None else memo_key(load), cells, exclude, memo_key(max_ohms))
+        built = self._memo.get(key)
+        if built is None:
+            built = self.built_network(rds, cell_emf=cell_emf, cell_r=cell_r, temp=temp,
+                                       corner=corner, switches_on=switches_on, load=load,
+                                       cells=cells, exclude=exclude, max_ohms=max_ohms)
+            if len(built.branches) > NETWORK_KEPT_BRANCHES:
+                return built
+            self._memo[key] = built
+        return built.copy()
+
+    def built_network(self, rds: dict[str, float], *, cell_emf: float, cell_r: float,
+                      temp: float, corner: str = "typ", switches_on: dict[str, bool] | None = None,
+                      load: float | None = PROBE_LOAD, cells: bool = True,
+                      exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf
+                      ) -> Network:
         """The power path: cells, switch channels, series parts, and an optional load.
 
         ``exclude`` leaves parts out (to ask what happens without a fuse); ``max_ohms`` leaves out
@@ -477,6 +503,10 @@ def kept_rds_on(points: tuple, vgs: float, tj: float, ratio: float, at: float, c
         hit = _RDS_KEPT[key] = (res.value, res.assumptions)
     return hit
 
+
+#: The largest network :meth:`PowerPath.network` keeps to copy: a large pack's networks are
+#: hundreds of branches each, few repeat, and they would hold megabytes.
+NETWORK_KEPT_BRANCHES = 128
 
 #: The memos of :class:`PowerPath` by the netlist they were computed from, kept between models.
 #: Everything a path computes is a function of its topology, and the topology one of the

@@ -128,3 +128,34 @@ def test_a_shared_operating_point_obeys_joules_law(registry):
         joule = sum(op.channel_current[ch.name] ** 2 * op.rds[ch.name]
                     for ch in model.channels if ch.package == package)
         assert op.power[package] == pytest.approx(joule, rel=1e-12)
+
+
+def test_a_kept_network_is_handed_out_as_a_copy_that_solves_like_a_fresh_build(registry):
+    model = lint(registry, EXAMPLES / "ridgeline-tool-4s2p.yaml").model
+    p = model.path
+    rds = {ch.name: 0.004 for ch in model.channels}
+    args = dict(cell_emf=3.6, cell_r=0.02, temp=40.0, corner="max")
+    first = p.network(rds, **args)
+    first.add_resistor("(probe)", *model.terminals, 1.0)  # a caller may add to its copy
+    again = p.network(rds, **args)
+    fresh = p.built_network(rds, **args)
+    assert "(probe)" not in {b.name for b in again.branches}
+    assert again.branches == fresh.branches and again.nets == fresh.nets
+    ground = model.stack.bottom
+    network._SOLVED.clear()
+    kept, built = again.solve(ground), fresh.solve(ground)
+    assert repr(kept) == repr(built)  # a solve of the copy: every float to the last bit
+    # what flows into each net flows out of it, summed here over the branches (current from
+    # a to b) [published: Kirchhoff's current law]
+    for net in again.nets:
+        into = sum(kept.current(b.name) * ((b.b == net) - (b.a == net)) for b in again.branches)
+        assert into == pytest.approx(0.0, abs=1e-9 * abs(kept.current("(load)")))
+
+
+def test_a_large_network_is_not_kept(registry, monkeypatch):
+    monkeypatch.setattr(path, "NETWORK_KEPT_BRANCHES", 3)
+    model = lint(registry, EXAMPLES / "ridgeline-tool-4s2p.yaml").model
+    p = model.path
+    before = sum(1 for k in p._memo if k[0] == "network")
+    p.network({ch.name: 0.005 for ch in model.channels}, cell_emf=3.7, cell_r=0.02, temp=41.0)
+    assert sum(1 for k in p._memo if k[0] == "network") == before
