@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 from dataclasses import field, fields
 from functools import cached_property
-from typing import Any
+from typing import Any, Callable
 
 from ..kinds import KINDS
 from ..netlist import Component
@@ -229,6 +229,20 @@ class PowerPath:
             hit = self._memo[key] = (op, self.problems[before:])
         else:
             self.problems.extend(hit[1])  # as a fresh computation would have recorded them
+        return hit[0]
+
+    def remembered(self, key: tuple, compute: Callable[[], Any]) -> Any:
+        """``compute()``, kept in the memo under ``key`` with the problems it recorded (said
+        again on each recall, as a fresh computation would). For a function of the topology
+        and of what ``key`` holds only: the memo is shared by the models of an equal netlist
+        (:func:`kept_memo`)."""
+        hit = self._memo.get(key)
+        if hit is None:
+            before = len(self.problems)
+            value = compute()
+            hit = self._memo[key] = (value, self.problems[before:])
+        else:
+            self.problems.extend(hit[1])
         return hit[0]
 
     def _operating_point(self, current: float, ambient: float, vgs: float, corner: str,

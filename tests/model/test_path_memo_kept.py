@@ -159,3 +159,34 @@ def test_a_large_network_is_not_kept(registry, monkeypatch):
     before = sum(1 for k in p._memo if k[0] == "network")
     p.network({ch.name: 0.005 for ch in model.channels}, cell_emf=3.7, cell_r=0.02, temp=41.0)
     assert sum(1 for k in p._memo if k[0] == "network") == before
+
+
+def test_the_hard_short_and_the_permitted_point_are_solved_once_per_netlist(registry):
+    design = EXAMPLES / "ridgeline-tool-4s2p.yaml"
+    first, second = lint(registry, design).model, lint(registry, design).model
+    assert second.hard_short is first.hard_short
+    hs = second.hard_short
+    # the switch channels in series each carry the short's whole current, the parallel
+    # channels of one switch share it [published: Kirchhoff's current law]
+    for role in ("discharge", "charge"):
+        chans = [c for c in second.channels if c.role == role]
+        total = sum(hs.channels[c.name].current for c in chans)
+        assert total == pytest.approx(hs.current, rel=1e-9)
+    forget()
+    assert repr(lint(registry, design).model.hard_short) == repr(hs)
+
+
+def test_a_recalled_computation_says_its_problems_again(registry):
+    model = lint(registry, EXAMPLES / "orchard-probe.yaml").model
+    p = model.path
+    said = []
+
+    def compute():
+        p.problems.append("a problem")
+        said.append(1)
+        return 42
+
+    before = len(p.problems)
+    assert p.remembered(("test",), compute) == 42
+    assert p.remembered(("test",), compute) == 42
+    assert len(said) == 1 and p.problems[before:] == ["a problem", "a problem"]
