@@ -436,7 +436,13 @@ class PowerPath:
         return net
 
     def conducts(self, off: str, direction: str):
-        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge")."""
+        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge"),
+        found once per netlist (:meth:`remembered`)."""
+        return self.remembered(("conducts", off, direction),
+                               lambda: self.find_conduction(off, direction))
+
+    def find_conduction(self, off: str, direction: str):
+        """The search behind :meth:`conducts`."""
         if self.topology.stack is None:
             return None
         top, bottom = self.topology.stack.top, self.topology.stack.bottom

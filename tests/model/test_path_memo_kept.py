@@ -190,3 +190,16 @@ def test_a_recalled_computation_says_its_problems_again(registry):
     assert p.remembered(("test",), compute) == 42
     assert p.remembered(("test",), compute) == 42
     assert len(said) == 1 and p.problems[before:] == ["a problem", "a problem"]
+
+
+def test_a_conduction_path_is_found_once_per_netlist(registry):
+    design = EXAMPLES / "ridgeline-tool-4s2p.yaml"
+    first = lint(registry, design).model.path.conducts("discharge", "charge")
+    model = lint(registry, design).model
+    assert model.path.conducts("discharge", "charge") is first
+    # with the discharge switch off, charge current still passes its body diode, and discharge
+    # current finds no way [practice: back-to-back protection FETs]
+    assert "body diode" in [h.via for h in first.hops]
+    assert model.path.conducts("discharge", "discharge") is None
+    # the search itself, made again, finds the same way through the same parts
+    assert model.path.find_conduction("discharge", "charge") == first
