@@ -109,11 +109,11 @@ def _read(path: Path, most: int) -> bytes:
     return b"".join(chunks)
 
 
-def outside(path: Path, root: Path) -> bool:
+def outside(path: Path, root: Path, resolved_root: Path | None = None) -> bool:
     """Whether ``path``, links resolved, lies outside ``root`` (a link loop counts as outside:
-    there is nothing to read there)."""
+    there is nothing to read there). ``resolved_root``: ``root`` already resolved."""
     try:
-        path.resolve().relative_to(root.resolve())
+        path.resolve().relative_to(resolved_root or root.resolve())
     except (ValueError, OSError, RuntimeError):
         return True
     return False

@@ -88,6 +88,10 @@ class Session:
     #: holds thousands of designs in a few folders; each walk up the tree is done once).
     config_paths: dict[Path, Path | None] = field(default_factory=dict)
     roots: dict[Path, Path] = field(default_factory=dict)
+    #: Per folder of designs: the repository its designs are confined to as the path names it
+    #: (``library.named_root``) and that root with its links resolved, looked up once a run as
+    #: ``discover`` does: a walk up the folders took a tenth of a small design's lint.
+    named_roots: dict[Path, tuple[Path, Path]] = field(default_factory=dict)
     #: Schematic netlists read this run, by resolved path (or the error reading one gave).
     netlists: dict[Path, Any] = field(default_factory=dict)
     #: Whether each result carries the model's events (the JSON report writes them).
@@ -174,7 +178,8 @@ def lint_file(session: Session, path: Path, shown: str,
     disk (the language server); its libraries and config are read from disk, as saved."""
     clock = _StageClock(timings)
     result = DesignResult(file=shown)
-    refused = _refused(path, shown) if document is None and text is None else None
+    refused = (_refused(path, shown, session.named_roots) if document is None and text is None
+               else None)
     if refused is not None:
         result.errors.append(refused)
         return result
@@ -227,22 +232,33 @@ def lint_file(session: Session, path: Path, shown: str,
         result.temperature_cutoffs = _from_model(result, doc, model.cutoffs_report, [])
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
-              design_id=design_identity(path, root),
+              design_id=design_identity(path, root, root_resolved=True),
               elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere)
     clock.lap("rules")
     return result
 
 
-def _refused(path: Path, shown: str) -> InputError | None:
+def _refused(path: Path, shown: str,
+             named_roots: dict[Path, tuple[Path, Path]] | None = None) -> InputError | None:
     """Why a design path is not read, before anything is opened: a path no file system holds, or
     a link out of the design's repository (whose target is then never read, so no message can
-    show a byte of it); None when it may be read."""
+    show a byte of it); None when it may be read. ``named_roots`` keeps each folder's root
+    (``Session.named_roots``); the design's own links are resolved every time."""
     try:
         files.check_path(path)
     except files.Refused as exc:
         return InputError(shown, 1, 1, exc.message)
-    root = named_root(path.parent)
-    if files.outside(path, root):
+    kept = named_roots.get(path.parent) if named_roots is not None else None
+    if kept is None:
+        root = named_root(path.parent)
+        try:
+            kept = (root, root.resolve())
+        except (OSError, RuntimeError):
+            kept = (root, None)
+        if named_roots is not None:
+            named_roots[path.parent] = kept
+    root, resolved = kept
+    if files.outside(path, root, resolved):
         return InputError(shown, 1, 1, f"the design links outside its repository "
                                        f"({shown_path(root) or '.'}); it is not read")
     return None
@@ -277,14 +293,15 @@ class _StageClock:
             self.last = now
 
 
-def design_identity(path: Path, root: Path) -> str:
+def design_identity(path: Path, root: Path, root_resolved: bool = False) -> str:
     """The design's name in fingerprints: its path inside the repository, in POSIX form.
 
     Not the path as shown, which is relative to the working folder: a baseline written by CI at
     the repository root must still match when someone lints from a subfolder.
+    ``root_resolved``: ``root`` has no links to resolve (``Session.root_for`` gives such).
     """
     try:
-        return path.resolve().relative_to(root.resolve()).as_posix()
+        return path.resolve().relative_to(root if root_resolved else root.resolve()).as_posix()
     except ValueError:
         return path.resolve().as_posix()
 

@@ -41,7 +41,7 @@ from ..records import record
 from . import gate, inrush, short, thermal
 from .network import NetworkError, Source
 from .ocv import HOURS_PER_MONTH
-from .values import SIGNAL_OHMS, ModelProblem, corner_value, spread_low
+from .values import SIGNAL_OHMS, ModelProblem, corner_value, memo_key, spread_low
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -156,6 +156,15 @@ class PermittedPoint:
 
 def permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
                     corner: str) -> PermittedPoint | None:
+    """:func:`solve_permitted_point`, once per netlist and values
+    (``PowerPath.remembered``): the permitted-current event and the heat just below the trip
+    ask for the same point, and so do the designs of an equal netlist."""
+    key = ("permitted point", memo_key(vdet), memo_key(ambient), memo_key(vgs), corner)
+    return m.path.remembered(key, lambda: solve_permitted_point(m, vdet, ambient, vgs, corner))
+
+
+def solve_permitted_point(m: "DesignModel", vdet: float, ambient: float, vgs: float,
+                          corner: str) -> PermittedPoint | None:
     """The self-heated permitted current at one corner, or None when the path has no sense
     resistance. With a shunt as the sense resistance the current does not depend on T_J and this
     is the trip maximum at that corner."""

@@ -11,9 +11,9 @@ for it once.
 from __future__ import annotations
 
 import math
-from dataclasses import field
+from dataclasses import field, fields
 from functools import cached_property
-from typing import Any
+from typing import Any, Callable
 
 from ..kinds import KINDS
 from ..netlist import Component
@@ -66,8 +66,9 @@ class PowerPath:
         self.problems = problems
         # Memos of pure functions of their arguments: the thermal fixed points and the corners
         # ask for the same on-resistances, part resistances, branches and operating points many
-        # times over, and a large pack's path is rebuilt for every solve.
-        self._memo: dict = {}
+        # times over, and a large pack's path is rebuilt for every solve. Shared with earlier
+        # models of the same netlist (:func:`kept_memo`).
+        self._memo: dict = kept_memo(getattr(topology, "netlist", None))
 
     def part_resistance(self, c: Component, temp: float, corner: str) -> float:
         """Resistance of a non-switch part in the path at ``temp`` for a corner (low/typ/high)."""
@@ -87,6 +88,32 @@ class PowerPath:
                 corner: str = "typ", switches_on: dict[str, bool] | None = None,
                 load: float | None = PROBE_LOAD, cells: bool = True,
                 exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf) -> Network:
+        """The power path of :meth:`built_network`, as a copy of the one built with the same
+        values before (a small network: at most ``NETWORK_KEPT_BRANCHES``). The events, the
+        short and the heat cases of a design ask for the same networks, and the designs of an
+        equal netlist share the memo: the copy shares its original's prepared solver terms, so
+        a solve remembered by value (``network._SOLVED``) is found without building anything."""
+        channels = self.topology.channels
+        on = (True,) * len(channels) if switches_on is None else tuple(
+            [switches_on.get(ch.name, True) for ch in channels])
+        key = ("network", tuple([memo_key(rds.get(ch.name, 1.0)) for ch in channels]), on,
+               memo_key(cell_emf), memo_key(cell_r), memo_key(temp), corner,
+               None if load is None else memo_key(load), cells, exclude, memo_key(max_ohms))
+        built = self._memo.get(key)
+        if built is None:
+            built = self.built_network(rds, cell_emf=cell_emf, cell_r=cell_r, temp=temp,
+                                       corner=corner, switches_on=switches_on, load=load,
+                                       cells=cells, exclude=exclude, max_ohms=max_ohms)
+            if len(built.branches) > NETWORK_KEPT_BRANCHES:
+                return built
+            self._memo[key] = built
+        return built.copy()
+
+    def built_network(self, rds: dict[str, float], *, cell_emf: float, cell_r: float,
+                      temp: float, corner: str = "typ", switches_on: dict[str, bool] | None = None,
+                      load: float | None = PROBE_LOAD, cells: bool = True,
+                      exclude: frozenset[str] = frozenset(), max_ohms: float = math.inf
+                      ) -> Network:
         """The power path: cells, switch channels, series parts, and an optional load.
 
         ``exclude`` leaves parts out (to ask what happens without a fuse); ``max_ohms`` leaves out
@@ -109,17 +136,33 @@ class PowerPath:
         for ch in self.topology.channels:
             on = True if switches_on is None else switches_on.get(ch.name, True)
             net.add(self._switch(ch, rds.get(ch.name, 1.0), on))
-        for c in self.topology.path_parts:
-            a, b = c.pins.get("1"), c.pins.get("2")
-            if a and b and a != b and c.refdes not in exclude:
-                r = self.part_resistance(c, temp, corner)
-                if r <= max_ohms:
-                    net.add(self._resistor(c.refdes, a, b, r))
-        if load is not None:
-            pos, neg = self.topology.terminals
-            if pos != neg:
-                net.add(self._resistor("(load)", pos, neg, load))
+        for branch in self._after_switches(temp, corner, load, exclude, max_ohms):
+            net.add(branch)
         return net
+
+    def _after_switches(self, temp: float, corner: str, load: float | None,
+                        exclude: frozenset[str], max_ohms: float) -> tuple:
+        """The branches :meth:`network` adds after the switch channels, in order: the series
+        parts, then the load. The thermal iterations change only the channels, so these are
+        gathered once per model for each temperature and corner, instead of looking up every
+        part's resistance and branch again in each of a lint's sixty-odd networks."""
+        key = ("after switches", memo_key(temp), corner,
+               None if load is None else memo_key(load), exclude, memo_key(max_ohms))
+        branches = self._memo.get(key)
+        if branches is None:
+            found = []
+            for c in self.topology.path_parts:
+                a, b = c.pins.get("1"), c.pins.get("2")
+                if a and b and a != b and c.refdes not in exclude:
+                    r = self.part_resistance(c, temp, corner)
+                    if r <= max_ohms:
+                        found.append(self._resistor(c.refdes, a, b, r))
+            if load is not None:
+                pos, neg = self.topology.terminals
+                if pos != neg:
+                    found.append(self._resistor("(load)", pos, neg, load))
+            branches = self._memo[key] = tuple(found)
+        return branches
 
     def _resistor(self, name: str, a: str, b: str, ohms: float):
         key = ("resistor", name, a, b, memo_key(ohms))
@@ -151,14 +194,17 @@ class PowerPath:
         hot = part.rds_on_hot_ratio
         key = ("rds", id(part), memo_key(vgs), memo_key(tj), corner)
         hit = self._memo.get(key)
-        if hit is None:
+        # The part is held with its value: a memo shared between models (kept_memo) outlives
+        # their parts, and an id is unique only among live objects.
+        if hit is None or hit[2] is not part:
             ratio, at = (hot.ratio, hot.at) if hot else DEFAULT_HOT_RATIO
             # p-channel data sheets print V_GS negative; the drive is a magnitude either way.
-            points = [(abs(p.vgs), p.typ, p.max) for p in part.rds_on]
+            points = tuple([(abs(p.vgs), p.typ, p.max) for p in part.rds_on])
             t = part.vgs_th
-            res = rds_on(points, vgs, tj, ratio, at, corner, threshold_at((t.min, t.typ, t.max), corner))
-            hit = self._memo[key] = (res.value, res.assumptions)
-        value, notes = hit
+            hit = self._memo[key] = (*kept_rds_on(points, vgs, tj, ratio, at, corner,
+                                                  threshold_at((t.min, t.typ, t.max), corner)),
+                                     part)
+        value, notes, _ = hit
         if hot is None:
             notes = notes + (f"{ch.package}: no rds_on_hot_ratio given; assumed 1.5 at 125 °C "
                              f"[practice: 1.4-1.6 for 20 V parts]",)
@@ -183,6 +229,20 @@ class PowerPath:
             hit = self._memo[key] = (op, self.problems[before:])
         else:
             self.problems.extend(hit[1])  # as a fresh computation would have recorded them
+        return hit[0]
+
+    def remembered(self, key: tuple, compute: Callable[[], Any]) -> Any:
+        """``compute()``, kept in the memo under ``key`` with the problems it recorded (said
+        again on each recall, as a fresh computation would). For a function of the topology
+        and of what ``key`` holds only: the memo is shared by the models of an equal netlist
+        (:func:`kept_memo`)."""
+        hit = self._memo.get(key)
+        if hit is None:
+            before = len(self.problems)
+            value = compute()
+            hit = self._memo[key] = (value, self.problems[before:])
+        else:
+            self.problems.extend(hit[1])
         return hit[0]
 
     def _operating_point(self, current: float, ambient: float, vgs: float, corner: str,
@@ -376,7 +436,13 @@ class PowerPath:
         return net
 
     def conducts(self, off: str, direction: str):
-        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge")."""
+        """With ``off`` switches off, a path for ``direction`` current ("discharge"/"charge"),
+        found once per netlist (:meth:`remembered`)."""
+        return self.remembered(("conducts", off, direction),
+                               lambda: self.find_conduction(off, direction))
+
+    def find_conduction(self, off: str, direction: str):
+        """The search behind :meth:`conducts`."""
         if self.topology.stack is None:
             return None
         top, bottom = self.topology.stack.top, self.topology.stack.bottom
@@ -427,3 +493,90 @@ def cell_stack(cells, cell_emf: float, cell_r: float) -> Network:
             del _STACKS[next(iter(_STACKS))]
         _STACKS[key] = base
     return base
+
+
+#: On-resistances by everything :func:`rdson.rds_on` reads, (ohms, assumptions), oldest first.
+#: ``PowerPath._memo`` lives as long as one design's model, yet a batch's designs and an
+#: editor's re-lints of one design ask for the same parts at the same drives and temperatures
+#: again: nine misses of the model's memo in ten are answered here [measured: bench/run.py's
+#: corpus, issue 19]. ``rds_on`` is a pure function of its arguments and its result is
+#: immutable, so a kept one is the very value a new computation would give.
+_RDS_KEPT: dict[tuple, tuple[float, tuple[str, ...]]] = {}
+#: Bound on the on-resistances kept (the oldest goes first): a few hundred bytes each.
+RDS_KEPT_MAX = 4096
+
+
+def kept_rds_on(points: tuple, vgs: float, tj: float, ratio: float, at: float, corner: str,
+                vth: float | None) -> tuple[float, tuple[str, ...]]:
+    """(ohms, assumptions) of :func:`rdson.rds_on`, remembered by value across models.
+
+    A zero anywhere is computed afresh: -0.0 equals 0.0 as a key, yet may print apart."""
+    key = (points, vgs, tj, ratio, at, corner, vth)
+    if 0.0 in (vgs, tj, ratio, at, vth) or any(0.0 in row for row in points):
+        res = rds_on(points, vgs, tj, ratio, at, corner, vth)
+        return res.value, res.assumptions
+    hit = _RDS_KEPT.get(key)
+    if hit is None:
+        res = rds_on(points, vgs, tj, ratio, at, corner, vth)
+        if len(_RDS_KEPT) >= RDS_KEPT_MAX:
+            _RDS_KEPT.pop(next(iter(_RDS_KEPT)), None)
+        hit = _RDS_KEPT[key] = (res.value, res.assumptions)
+    return hit
+
+
+#: The largest network :meth:`PowerPath.network` keeps to copy: a large pack's networks are
+#: hundreds of branches each, few repeat, and they would hold megabytes.
+NETWORK_KEPT_BRANCHES = 128
+
+#: The memos of :class:`PowerPath` by the netlist they were computed from, kept between models.
+#: Everything a path computes is a function of its topology, and the topology one of the
+#: netlist's components, nets and terminals; a model of an equal netlist reads the same memo:
+#: a batch's designs that differ only in their loads, and an editor's re-lints of a design whose
+#: edit left the netlist as it was (a load, a rule option, a comment), pay for each operating
+#: point once. Keyed by a netlist's terminals and its components' names and kinds; held with
+#: the components and nets to compare whole (:func:`_same_netlist`).
+_MEMOS: dict[tuple, tuple[tuple, dict, dict]] = {}
+#: Netlists whose memos are kept (the oldest goes first), and the entries a memo may gather
+#: before a model starts a fresh one: a few hundred per lint, a large pack's operating points
+#: hold a solution of its whole network each.
+MEMOS_MAX = 8
+MEMO_ENTRIES_MAX = 2048
+
+
+def kept_memo(netlist: Any) -> dict:
+    """The memo of earlier paths of a netlist equal to ``netlist``, or a new one kept for the
+    next; a new unkept one without a netlist."""
+    if netlist is None:
+        return {}
+    components = tuple(netlist.components.values())
+    nets = {net: tuple(refs) for net, refs in netlist.nets.items()}
+    key = (netlist.terminals, tuple((c.refdes, c.kind) for c in components))
+    kept = _MEMOS.get(key)
+    if (kept is not None and len(kept[2]) < MEMO_ENTRIES_MAX
+            and _same_netlist(kept[0], components) and kept[1] == nets):
+        memo = kept[2]
+    else:
+        memo = {}
+    # Held with this netlist's own components, so that the next lint in the same session
+    # finds its parts the very same objects and need not compare them whole.
+    _MEMOS.pop(key, None)
+    if len(_MEMOS) >= MEMOS_MAX:
+        _MEMOS.pop(next(iter(_MEMOS)), None)
+    _MEMOS[key] = (components, nets, memo)
+    return memo
+
+
+def _same_netlist(kept: tuple, components: tuple) -> bool:
+    """Whether two netlists' components are the same in every field, parts included. A part
+    read from the same library is the same object; one given inline in the design is compared
+    by value and by its text, since -0.0 equals 0.0 yet prints apart."""
+    if len(kept) != len(components):
+        return False
+    for old, new in zip(kept, components):
+        if old is new:
+            continue
+        for f in fields(new):
+            a, b = getattr(old, f.name), getattr(new, f.name)
+            if a is not b and not (a == b and repr(a) == repr(b)):
+                return False
+    return True

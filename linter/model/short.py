@@ -32,7 +32,7 @@ from typing import TYPE_CHECKING, Any
 from ..records import record
 from . import rdson
 from .network import DEFAULT_DIODE_R_ON, NetworkError
-from .values import IDEAL, ModelProblem, corner_value
+from .values import IDEAL, ModelProblem, corner_value, memo_key
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -219,6 +219,19 @@ def _gate_sources(m: "DesignModel", sol: Any, supply: float | None) -> dict[str,
 def hard_short(m: "DesignModel", ambient: float, corner: str = "min",
                held: bool = False, *, emf: float | None = None, cell_r: float | None = None,
                load: float = IDEAL, drive_before: float | None = None) -> HardShort | None:
+    """:func:`solve_hard_short`, once per netlist and values (``PowerPath.remembered``): the
+    heat, the pulse and the breaking capacity ask for the same short, and so do the designs of
+    an equal netlist."""
+    key = ("hard short", memo_key(ambient), corner, held, memo_key(emf), memo_key(cell_r),
+           memo_key(load), memo_key(drive_before))
+    return m.path.remembered(key, lambda: solve_hard_short(
+        m, ambient, corner, held, emf=emf, cell_r=cell_r, load=load, drive_before=drive_before))
+
+
+def solve_hard_short(m: "DesignModel", ambient: float, corner: str = "min",
+                     held: bool = False, *, emf: float | None = None,
+                     cell_r: float | None = None, load: float = IDEAL,
+                     drive_before: float | None = None) -> HardShort | None:
     """The hard short at one temperature (``ambient``: cells, switches and path alike) and one
     corner of every part's spread, the highest cell voltage driving it.
 
