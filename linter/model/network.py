@@ -299,6 +299,7 @@ class Network:
         # The graph after stamping the prepared terms, by the reference nodes it was stamped with
         # (see _stamped_start): a large pack's cells, stamped once for all its solves.
         self._stamped: dict[tuple, tuple] = {}
+        self._elements: tuple[list, set, int, int] | None = None
 
     # ----------------------------------------------------------------- building
 
@@ -603,6 +604,7 @@ class Network:
         if prepared is None or prepared[0] != count or len(prepared[1]) < STAMP_PREFIX_MIN:
             return None
         m = len(origin._nets)
+        elements = self._prefix_elements()[0]
         key = (count, bytes(reference[:m]))
         state = origin._stamped.get(key)
         if state is None:
@@ -611,14 +613,30 @@ class Network:
             G: list[dict[int, float]] = [{} for _ in range(m)]
             E: list[dict[int, float]] = [{} for _ in range(m)]
             leak_g, leak_e = [0.0] * m, [0.0] * m
-            _stamp([(p, q, g, e) for _, _, p, q, g, e in prepared[1]], reference, G, E,
-                   leak_g, leak_e)
+            _stamp(elements, reference, G, E, leak_g, leak_e)
             state = origin._stamped[key] = (G, E, leak_g, leak_e)
         G, E, leak_g, leak_e = state
         extra = n - m
         return ([dict(d) for d in G] + [{} for _ in range(extra)],
                 [dict(d) for d in E] + [{} for _ in range(extra)],
                 leak_g + [0.0] * extra, leak_e + [0.0] * extra, len(prepared[1]))
+
+    def _prefix_elements(self) -> tuple[list[_Element], set[tuple[int, int]], int]:
+        """The solver's elements of the original's terms (this copy's first terms), the node
+        pairs they join and their count, made once per original; no elements for a network
+        without a large original (see :meth:`_stamped_start`)."""
+        if self._origin is not None:
+            origin, count = self._origin
+            prepared = origin._prepared
+            if (prepared is not None and prepared[0] == count
+                    and len(prepared[1]) >= STAMP_PREFIX_MIN):
+                made = origin._elements
+                if made is None or made[3] != count:
+                    elements = [(p, q, g, e) for _, _, p, q, g, e in prepared[1]]
+                    made = origin._elements = (elements, {(p, q) for p, q, _, _ in elements},
+                                               len(elements), count)
+                return made[:3]
+        return [], set(), 0
 
     def solve(self, ground: str, *, max_iterations: int = _DEFAULT_MAX_ITERATIONS) -> Solution:
         """DC operating point with ``ground`` at 0 V.
@@ -655,7 +673,9 @@ class Network:
                 volt_scale += item[4]
         g_leak = g_min * _LEAK_FRACTION
         v_tol = volt_scale * _STATE_TOLERANCE
-        linear_elements: list[_Element] = [(p, q, g, e) for _, _, p, q, g, e in linear]
+        prefix, prefix_pairs, done = self._prefix_elements()
+        linear_elements: list[_Element] = prefix + [(p, q, g, e) for _, _, p, q, g, e
+                                                    in islice(linear, done, None)]
 
         # Each round solves with the current diode states: linear parts and on diodes as they
         # are, and off diodes open, except that an off diode joining two otherwise separate parts
@@ -670,7 +690,7 @@ class Network:
             iterations += 1
             exact = linear_elements + [(p, q, g_on, vf) for (_, _, p, q, vf, g_on), s
                                        in zip(diodes, on) if s] if diodes else linear_elements
-            component = _components(n, exact)
+            component = _components(n, exact, prefix_pairs, done)
             leaks = [(p, q, g_leak, vf) for (_, _, p, q, vf, _), s in zip(diodes, on)
                      if not s and p != q
                      and (component[p] < 0 or component[p] != component[q])] if diodes else []
@@ -752,12 +772,15 @@ class Network:
         return solution
 
 
-def _components(n: int, elements: Iterable[_Element]) -> list[int]:
-    """Connected-component label per node; ``-1`` for a node no element touches."""
+def _components(n: int, elements: Iterable[_Element], known: set[tuple[int, int]] = frozenset(),
+                skip: int = 0) -> list[int]:
+    """Connected-component label per node; ``-1`` for a node no element touches. ``known`` are
+    the node pairs of the first ``skip`` elements (only the partition into components is read,
+    never the labels' values, so the order the pairs are joined in does not matter)."""
     parent = list(range(n))
     touched = [False] * n
     # Parallel parts (the cells of a parallel group) join the same two nodes: once is enough.
-    for p, q in {(p, q) for p, q, _, _ in elements}:
+    for p, q in known | {(p, q) for p, q, _, _ in islice(elements, skip, None)}:
         touched[p] = touched[q] = True
         while parent[p] != p:
             parent[p] = parent[parent[p]]

@@ -59,6 +59,7 @@ def test_a_copy_solved_from_the_stamped_cells_is_the_full_solve_bit_for_bit(ohms
     base = stack()
     stamped = pack(base, ohms, charge_on).solve("B-")
     assert base._stamped  # the cells were stamped on the original, once
+    assert base._elements is not None  # and their elements and node pairs made once
     again = fresh(pack(stack(), ohms, charge_on), monkeypatch)
     assert repr(stamped) == repr(again)  # every voltage and current to the last bit
 
