@@ -16,6 +16,7 @@ from pathlib import Path
 import pytest
 
 from packwarden.engine import lint
+from packwarden.report import RenderOptions, formatter
 
 REPO = Path(__file__).resolve().parent.parent
 EXAMPLE = (REPO / "example_designs" / "orchard-probe.yaml").read_text(encoding="utf-8")
@@ -66,3 +67,13 @@ def test_the_text_report_of_a_batch_is_unchanged_and_json_keeps_the_figures(repo
     assert "probe-5.yaml" in text and ": figures:" not in text
     assert ": figures:" in check("probe-0.yaml")
     assert '"component_count"' in check("-f", "json", ".")
+
+
+@pytest.mark.parametrize("name", ["sarif", "junit"])
+def test_a_format_without_key_figures_writes_the_same_report_from_a_run_without_them(repo, name):
+    render = formatter(name)
+    assert render.figures_up_to == 0
+    full = lint([str(repo)], jobs=1, keep_models=False, keep_events=False)
+    slim = lint([str(repo)], jobs=2, keep_models=False, keep_events=False, figures_up_to=0)
+    assert all(d.figures == {} for d in slim.designs)
+    assert render(slim, RenderOptions()) == render(full, RenderOptions())
