@@ -109,17 +109,30 @@ class PowerPath:
         for ch in self.topology.channels:
             on = True if switches_on is None else switches_on.get(ch.name, True)
             net.add(self._switch(ch, rds.get(ch.name, 1.0), on))
-        for c in self.topology.path_parts:
-            a, b = c.pins.get("1"), c.pins.get("2")
-            if a and b and a != b and c.refdes not in exclude:
-                r = self.part_resistance(c, temp, corner)
-                if r <= max_ohms:
-                    net.add(self._resistor(c.refdes, a, b, r))
+        for branch in self._part_branches(temp, corner, exclude, max_ohms):
+            net.add(branch)
         if load is not None:
             pos, neg = self.topology.terminals
             if pos != neg:
                 net.add(self._resistor("(load)", pos, neg, load))
         return net
+
+    def _part_branches(self, temp: float, corner: str, exclude: frozenset[str],
+                       max_ohms: float) -> list:
+        """The series parts' branches at ``temp`` and ``corner``, in the path's order, made once
+        per case: a large pack asks for the same ones in every solve of its channels' spread."""
+        key = ("parts", memo_key(temp), corner, exclude, memo_key(max_ohms))
+        branches = self._memo.get(key)
+        if branches is None:
+            branches = []
+            for c in self.topology.path_parts:
+                a, b = c.pins.get("1"), c.pins.get("2")
+                if a and b and a != b and c.refdes not in exclude:
+                    r = self.part_resistance(c, temp, corner)
+                    if r <= max_ohms:
+                        branches.append(self._resistor(c.refdes, a, b, r))
+            self._memo[key] = branches
+        return branches
 
     def _resistor(self, name: str, a: str, b: str, ohms: float):
         key = ("resistor", name, a, b, memo_key(ohms))
