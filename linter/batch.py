@@ -44,7 +44,8 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
          fail_on: Severity | None = None,
          progress: Callable[[int, int, str], None] | None = None,
          require: Iterable[str] = (), jobs: int | None = 1,
-         keep_models: bool = True, keep_events: bool = True) -> RunResult:
+         keep_models: bool = True, keep_events: bool = True,
+         figures_up_to: int | None = None) -> RunResult:
     """Lint every design found under ``paths``; ``progress(done, total, file)`` after each one.
 
     ``require`` names plugin distributions that must be installed (``--require-plugins``); with
@@ -57,7 +58,9 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
     order of the designs, the same as in one process. Worker results carry no ``model``; nor do
     any results when ``keep_models`` is False (the HTML report and ``--yield`` need them); the
     results carry the model's events only when ``keep_events`` is True (the JSON report writes
-    them; a batch of thousands of designs in another format need not hold them).
+    them; a batch of thousands of designs in another format need not hold them). A run of more
+    than ``figures_up_to`` designs keeps no design's key figures (the text report shows them
+    only for a single design); None keeps them in every run.
     """
     discovery_errors: list[InputError] = []
     found = discover(paths, discovery_errors)
@@ -80,8 +83,10 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
     session = Session(registry=reg, config_override=config, keep_events=keep_events)
     run = RunResult(rules=reg.rules, broken_plugins=list(reg.broken), errors=discovery_errors)
     workers = worker_count(jobs, len(found), rebuildable=registry is None)
+    keep_figures = figures_up_to is None or len(found) <= figures_up_to
     if workers > 1:
-        run.designs = _lint_in_workers(session, found, workers, progress, rule_paths)
+        run.designs = _lint_in_workers(session, found, workers, progress, rule_paths,
+                                       keep_figures)
         _adopt(session, found, run.designs)
     else:
         collecting = _pause_collector()
@@ -90,6 +95,8 @@ def lint(paths: Iterable[str], config: Path | None = None, registry: Registry | 
                 result = _lint_one(session, path, shown)
                 if not keep_models:
                     result.model = None
+                if not keep_figures:
+                    result.figures = {}
                 run.designs.append(result)
                 if progress is not None:
                     progress(done, len(found), shown)
@@ -144,11 +151,13 @@ def worker_count(jobs: int | None, designs: int, rebuildable: bool) -> int:
 # elsewhere (spawn) each worker imports packwarden and loads the rules itself.
 _FORK = sys.platform.startswith("linux")
 _WORKER_SESSION: Session | None = None
+_WORKER_KEEPS_FIGURES = True
 
 
 def _worker_start(registry: Registry | None, rule_paths: list[Path], config: Path | None,
-                  today: _dt.date, keep_events: bool = True) -> None:
-    global _WORKER_SESSION
+                  today: _dt.date, keep_events: bool = True, keep_figures: bool = True) -> None:
+    global _WORKER_SESSION, _WORKER_KEEPS_FIGURES
+    _WORKER_KEEPS_FIGURES = keep_figures
     if registry is None:
         registry = load_registry(rule_paths)
     _WORKER_SESSION = Session(registry=registry, config_override=config, today=today,
@@ -166,6 +175,8 @@ def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
     for path, shown in chunk:
         result = _lint_one(_WORKER_SESSION, path, shown)
         result.model = None  # the model stays behind: it is large, and only this process has it
+        if not _WORKER_KEEPS_FIGURES:
+            result.figures = {}  # nor is a figure sent that the report will not show
         out.append(result)
     gc.collect(0)
     return out
@@ -173,7 +184,7 @@ def _worker_lint(chunk: list[tuple[Path, str]]) -> list[DesignResult]:
 
 def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: int,
                      progress: Callable[[int, int, str], None] | None,
-                     rule_paths: list[Path]) -> list[DesignResult]:
+                     rule_paths: list[Path], keep_figures: bool = True) -> list[DesignResult]:
     """Results of ``found``, in order, linted in chunks by ``workers`` processes.
 
     This process is one of them: it lints chunks from the end of the batch while the others
@@ -211,12 +222,12 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
                 try:
                     finished(k, job.result())
                 except Exception:
-                    finished(k, _lint_here(here, chunks[k]))
+                    finished(k, _lint_here(here, chunks[k], keep_figures))
 
     pool = futures.ProcessPoolExecutor(
         workers - 1, mp_context=ctx, initializer=_worker_start,
         initargs=(session.registry if _FORK else None, rule_paths, session.config_override,
-                  session.today, session.keep_events))
+                  session.today, session.keep_events, keep_figures))
     running: dict[int, futures.Future] = {}
     front, back = 0, len(chunks)  # the pool takes chunks from the front, this process the back
     try:
@@ -226,7 +237,7 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
                 front += 1
             if front < back:
                 back -= 1
-                finished(back, _lint_here(here, chunks[back]))
+                finished(back, _lint_here(here, chunks[back], keep_figures))
             harvest(block=False)
         harvest(block=True)
     except BaseException:
@@ -236,13 +247,17 @@ def _lint_in_workers(session: Session, found: list[tuple[Path, str]], workers: i
     return [r for chunk_results in results for r in chunk_results]
 
 
-def _lint_here(session: Session, chunk: list[tuple[Path, str]]) -> list[DesignResult]:
-    """A chunk linted in this process, as a worker would have: no models kept."""
+def _lint_here(session: Session, chunk: list[tuple[Path, str]],
+               keep_figures: bool = True) -> list[DesignResult]:
+    """A chunk linted in this process, as a worker would have: no models kept (nor figures,
+    unless ``keep_figures``)."""
     collecting = _pause_collector()
     try:
         results = [_lint_one(session, path, shown) for path, shown in chunk]
         for result in results:
             result.model = None
+            if not keep_figures:
+                result.figures = {}
         gc.collect(0)
     finally:
         _resume_collector(collecting)

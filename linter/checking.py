@@ -99,7 +99,8 @@ def run_check(paths: List[str], format: str = "text", output: Optional[Path] = N
         run = lint(paths, config=config, fail_on=level, progress=bar,
                    require=[n.strip() for n in (require_plugins or "").split(",") if n.strip()],
                    jobs=1 if needs_models else jobs, keep_models=needs_models,
-                   keep_events=getattr(render, "needs_events", False))
+                   keep_events=getattr(render, "needs_events", False),
+                   figures_up_to=None if needs_models else getattr(render, "figures_up_to", None))
     except RequiredPluginError as exc:
         sys.stderr.write(f"{exc}\n")
         return 2

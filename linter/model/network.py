@@ -296,6 +296,10 @@ class Network:
         # cells, the same in most of its solves, are then prepared once).
         self._origin: tuple[Network, int] | None = None
         self._prepared: tuple[int, list, list, float] | None = None
+        # The graph after stamping the prepared terms, by the reference nodes it was stamped with
+        # (see _stamped_start): a large pack's cells, stamped once for all its solves.
+        self._stamped: dict[tuple, tuple] = {}
+        self._elements: tuple[list, set, int, int] | None = None
 
     # ----------------------------------------------------------------- building
 
@@ -585,6 +589,55 @@ class Network:
                                    bd.v_forward, 1.0 / bd.r_on))
         return linear, diodes, volt_scale
 
+    def _stamped_start(self, n: int, reference: list[bool]) -> tuple | None:
+        """The solver's graph after stamping the original's terms (this copy's first terms), for
+        :func:`_solve_nodal` to stamp the rest onto; None for a network without a large original.
+
+        A large pack's solves differ in their switch channels and share thousands of cells: the
+        cells are stamped once per set of reference nodes instead of once per solve. The same
+        terms are stamped in the same order, so the graph is the same to the last bit.
+        """
+        if self._origin is None:
+            return None
+        origin, count = self._origin
+        prepared = origin._prepared
+        if prepared is None or prepared[0] != count or len(prepared[1]) < STAMP_PREFIX_MIN:
+            return None
+        m = len(origin._nets)
+        elements = self._prefix_elements()[0]
+        key = (count, bytes(reference[:m]))
+        state = origin._stamped.get(key)
+        if state is None:
+            if len(origin._stamped) >= STAMPED_MAX:
+                origin._stamped.pop(next(iter(origin._stamped)))
+            G: list[dict[int, float]] = [{} for _ in range(m)]
+            E: list[dict[int, float]] = [{} for _ in range(m)]
+            leak_g, leak_e = [0.0] * m, [0.0] * m
+            _stamp(elements, reference, G, E, leak_g, leak_e)
+            state = origin._stamped[key] = (G, E, leak_g, leak_e)
+        G, E, leak_g, leak_e = state
+        extra = n - m
+        return ([dict(d) for d in G] + [{} for _ in range(extra)],
+                [dict(d) for d in E] + [{} for _ in range(extra)],
+                leak_g + [0.0] * extra, leak_e + [0.0] * extra, len(prepared[1]))
+
+    def _prefix_elements(self) -> tuple[list[_Element], set[tuple[int, int]], int]:
+        """The solver's elements of the original's terms (this copy's first terms), the node
+        pairs they join and their count, made once per original; no elements for a network
+        without a large original (see :meth:`_stamped_start`)."""
+        if self._origin is not None:
+            origin, count = self._origin
+            prepared = origin._prepared
+            if (prepared is not None and prepared[0] == count
+                    and len(prepared[1]) >= STAMP_PREFIX_MIN):
+                made = origin._elements
+                if made is None or made[3] != count:
+                    elements = [(p, q, g, e) for _, _, p, q, g, e in prepared[1]]
+                    made = origin._elements = (elements, {(p, q) for p, q, _, _ in elements},
+                                               len(elements), count)
+                return made[:3]
+        return [], set(), 0
+
     def solve(self, ground: str, *, max_iterations: int = _DEFAULT_MAX_ITERATIONS) -> Solution:
         """DC operating point with ``ground`` at 0 V.
 
@@ -620,7 +673,9 @@ class Network:
                 volt_scale += item[4]
         g_leak = g_min * _LEAK_FRACTION
         v_tol = volt_scale * _STATE_TOLERANCE
-        linear_elements: list[_Element] = [(p, q, g, e) for _, _, p, q, g, e in linear]
+        prefix, prefix_pairs, done = self._prefix_elements()
+        linear_elements: list[_Element] = prefix + [(p, q, g, e) for _, _, p, q, g, e
+                                                    in islice(linear, done, None)]
 
         # Each round solves with the current diode states: linear parts and on diodes as they
         # are, and off diodes open, except that an off diode joining two otherwise separate parts
@@ -635,7 +690,7 @@ class Network:
             iterations += 1
             exact = linear_elements + [(p, q, g_on, vf) for (_, _, p, q, vf, g_on), s
                                        in zip(diodes, on) if s] if diodes else linear_elements
-            component = _components(n, exact)
+            component = _components(n, exact, prefix_pairs, done)
             leaks = [(p, q, g_leak, vf) for (_, _, p, q, vf, _), s in zip(diodes, on)
                      if not s and p != q
                      and (component[p] < 0 or component[p] != component[q])] if diodes else []
@@ -645,7 +700,8 @@ class Network:
             else:
                 elements = exact
                 reference, unknowns = _references(n, component, ig)
-            v = _solve_nodal(n, elements, reference, unknowns)
+            v = _solve_nodal(n, elements, reference, unknowns,
+                             start=self._stamped_start(n, reference))
             wrong = [k for k, (_, _, p, q, vf, _) in enumerate(diodes)
                      if ((v[p] - v[q] - vf < -v_tol) if on[k] else (v[p] - v[q] - vf > v_tol))]
             if not wrong:
@@ -682,7 +738,8 @@ class Network:
                                           in zip(diodes, on) if s]
             component = _components(n, elements)
             reference, unknowns = _references(n, component, ig)
-            return component, _solve_nodal(n, elements, reference, unknowns)
+            return component, _solve_nodal(n, elements, reference, unknowns,
+                                           start=self._stamped_start(n, reference))
 
         if leaks or at_knee:
             component, v = exact()
@@ -715,12 +772,15 @@ class Network:
         return solution
 
 
-def _components(n: int, elements: Iterable[_Element]) -> list[int]:
-    """Connected-component label per node; ``-1`` for a node no element touches."""
+def _components(n: int, elements: Iterable[_Element], known: set[tuple[int, int]] = frozenset(),
+                skip: int = 0) -> list[int]:
+    """Connected-component label per node; ``-1`` for a node no element touches. ``known`` are
+    the node pairs of the first ``skip`` elements (only the partition into components is read,
+    never the labels' values, so the order the pairs are joined in does not matter)."""
     parent = list(range(n))
     touched = [False] * n
     # Parallel parts (the cells of a parallel group) join the same two nodes: once is enough.
-    for p, q in {(p, q) for p, q, _, _ in elements}:
+    for p, q in known | {(p, q) for p, q, _, _ in islice(elements, skip, None)}:
         touched[p] = touched[q] = True
         while parent[p] != p:
             parent[p] = parent[parent[p]]
@@ -764,36 +824,22 @@ def _references(n: int, component: list[int], ground: int) -> tuple[list[bool], 
     return reference, unknowns
 
 
-def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
-                 unknowns: list[int], injections: Mapping[int, float] | None = None
-                 ) -> list[float]:
-    """Node voltages of a network of conductances with EMFs; reference nodes are at 0 V.
+#: A copy whose original has at least this many solver terms has them stamped once
+#: (Network._stamped_start); below it, copying the stamped graph would cost about what stamping
+#: the terms again does [measured: bench/run.py's scaling series, issue 19].
+STAMP_PREFIX_MIN = 64
+#: Stamped graphs kept per original network, one per set of reference nodes (a solve has one,
+#: two where an off diode leaves part of the network floating).
+STAMPED_MAX = 4
 
-    Gaussian elimination on the graph itself, one node at a time in minimum-degree order, which
-    keeps fill small on the grid-like graphs of packs. Eliminating a node is the star-mesh
-    transform: its branches become branches between its neighbours, each with conductance
-    ``g_ki * g_kj / d`` and EMF ``e_kj - e_ki``. The matrix is a grounded Laplacian, symmetric and
-    diagonally dominant, so no pivoting by value is needed for stability [published: textbook
-    result for such matrices]. Two choices keep rounding at the level of the voltages themselves:
 
-    * conductances are only ever added, never subtracted, so a 1e-12 leak beside a 1e4 S channel
-      is not lost to cancellation, as it would be in a pivot formed as diagonal minus products
-      [published: the subtraction-free elimination of diagonally dominant M-matrices];
-    * EMFs stay on the branches as volts instead of becoming injected currents ``g * e``, so a
-      1 V cell behind 0.1 mΩ is not carried as 1e4 A and cancelled back to a few volts.
+def _stamp(elements: Iterable[_Element], reference: list[bool], G: list[dict[int, float]],
+           E: list[dict[int, float]], leak_g: list[float], leak_e: list[float]) -> None:
+    """Stamp ``elements`` onto the graph of :func:`_solve_nodal`, in order.
+
+    Stamping merges parallel branches as it goes: conductances add, and the EMF becomes their
+    conductance-weighted mean. Written out in the loop (it runs once per branch per solve).
     """
-    # Per node: neighbour -> conductance, and neighbour -> EMF oriented from this node, so that
-    # the current from i to j is G[i][j] * (V_i - V_j - E[i][j]). The references are merged into
-    # one 0 V node R, kept per node as (leak_g, leak_e); R is never eliminated, so merging them
-    # couples nothing.
-    G: list[dict[int, float]] = [{} for _ in range(n)]
-    E: list[dict[int, float]] = [{} for _ in range(n)]
-    leak_g = [0.0] * n
-    leak_e = [0.0] * n
-    rhs = [0.0] * n
-
-    # Stamping merges parallel branches as it goes: conductances add, and the EMF becomes their
-    # conductance-weighted mean. Written out in the loop (it runs once per branch per solve).
     for p, q, g, e in elements:
         if p == q:
             continue
@@ -832,6 +878,43 @@ def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
             total = g0 + g
             ei[p] = (g0 * ei[p] + g * e) / total
             gi[p] = total
+
+
+def _solve_nodal(n: int, elements: Iterable[_Element], reference: list[bool],
+                 unknowns: list[int], injections: Mapping[int, float] | None = None,
+                 start: tuple | None = None) -> list[float]:
+    """Node voltages of a network of conductances with EMFs; reference nodes are at 0 V.
+
+    Gaussian elimination on the graph itself, one node at a time in minimum-degree order, which
+    keeps fill small on the grid-like graphs of packs. Eliminating a node is the star-mesh
+    transform: its branches become branches between its neighbours, each with conductance
+    ``g_ki * g_kj / d`` and EMF ``e_kj - e_ki``. The matrix is a grounded Laplacian, symmetric and
+    diagonally dominant, so no pivoting by value is needed for stability [published: textbook
+    result for such matrices]. Two choices keep rounding at the level of the voltages themselves:
+
+    * conductances are only ever added, never subtracted, so a 1e-12 leak beside a 1e4 S channel
+      is not lost to cancellation, as it would be in a pivot formed as diagonal minus products
+      [published: the subtraction-free elimination of diagonally dominant M-matrices];
+    * EMFs stay on the branches as volts instead of becoming injected currents ``g * e``, so a
+      1 V cell behind 0.1 mΩ is not carried as 1e4 A and cancelled back to a few volts.
+
+    ``start`` is the graph after stamping the first of ``elements`` and their count (see
+    ``Network._stamped_start``); the graph is changed in place.
+    """
+    # Per node: neighbour -> conductance, and neighbour -> EMF oriented from this node, so that
+    # the current from i to j is G[i][j] * (V_i - V_j - E[i][j]). The references are merged into
+    # one 0 V node R, kept per node as (leak_g, leak_e); R is never eliminated, so merging them
+    # couples nothing.
+    if start is None:
+        G: list[dict[int, float]] = [{} for _ in range(n)]
+        E: list[dict[int, float]] = [{} for _ in range(n)]
+        leak_g = [0.0] * n
+        leak_e = [0.0] * n
+        _stamp(elements, reference, G, E, leak_g, leak_e)
+    else:
+        G, E, leak_g, leak_e, done_before = start
+        _stamp(islice(elements, done_before, None), reference, G, E, leak_g, leak_e)
+    rhs = [0.0] * n
     if injections:
         for i, amps in injections.items():
             rhs[i] += amps

@@ -186,3 +186,8 @@ def _outside_suite(run: RunResult, opts: RenderOptions, totals: dict[str, int]) 
     totals["tests"] += n
     totals["errors"] += n
     return suite
+
+
+# This format writes a finding's own figures, never a design's key figures: a batch need not hold
+# them (batch.lint).
+render.figures_up_to = 0  # type: ignore[attr-defined]

@@ -287,3 +287,8 @@ def _input_error_result(err: Any, index: dict[str, int], root: Path, state: str 
         # input errors are never matched against an earlier set: each run must fix them
         result["baselineState"] = "new"
     return result
+
+
+# This format writes a finding's own figures, never a design's key figures: a batch need not hold
+# them (batch.lint).
+render.figures_up_to = 0  # type: ignore[attr-defined]

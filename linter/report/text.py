@@ -101,3 +101,7 @@ def render(run: RunResult, opts: RenderOptions) -> str:
         lines.append(summary)
         lines.append(CAUTION)
     return "\n".join(lines) + "\n"
+
+
+# A batch need not hold every design's figures for a report that will not show them (batch.lint).
+render.figures_up_to = _FIGURE_LINES_UP_TO  # type: ignore[attr-defined]
