@@ -123,6 +123,10 @@ HINTS = [
      _part_field("Q1", "turn_off_time")),
     ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "and ≤", "s",
      _part_field("Q1", "turn_off_time")),
+    # the shunt value every rule allows: low enough for the trip min to clear the 25 A peak, high
+    # enough that the current the trip max permits stays within the cells, fuse, FETs and shunt
+    ("ridgeline-shunt-too-large.yaml", "trip-current-window", "U1", "use RSH of", "Ω",
+     _part_field("RSH", "value")),
 ]
 
 
