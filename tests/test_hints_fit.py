@@ -127,6 +127,12 @@ HINTS = [
     # enough that the current the trip max permits stays within the cells, fuse, FETs and shunt
     ("ridgeline-shunt-too-large.yaml", "trip-current-window", "U1", "use RSH of", "Ω",
      _part_field("RSH", "value")),
+    # the fuse's melting I²t: at least what each event lets through over the margin (no rule
+    # bounds it from above), the figure rounded up so that the value shown still clears it
+    ("fuse-too-small.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
+     _field("components.F1.melting_i2t")),
+    ("quick-fuse-gap-overload.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
+     _part_field("F1", "melting_i2t")),
 ]
 
 
@@ -166,15 +172,26 @@ def test_a_hinted_value_applied_clears_its_finding_and_raises_no_other(
         assert not new, f"{value} raises: " + "; ".join(f"{f.rule}: {f.message}" for f in new)
 
 
-@pytest.mark.parametrize("design", ["narrow-trace.yaml", "high-threshold-fet.yaml"])
-def test_an_empty_range_says_so_and_names_a_structural_change(session, design) -> None:
+EMPTY = [
     # narrow-trace: the trip window spans 1.62-7.72 A (× 4.75) and must sit above the 1.6 A peak
     # and below the 6.89 A weakest short (× 4.31): no factor on the sense resistance fits both.
+    ("narrow-trace.yaml", "short-circuit-reach", "no sense resistance or detection voltage fits",
+     "shunt-sensed protector"),
+    ("high-threshold-fet.yaml", "short-circuit-reach",
+     "no sense resistance or detection voltage fits", "shunt-sensed protector"),
+    # the backup's ± 25 mV window must lie above the primary's 4.300 V and within the cell's
+    # 4.35 V: a typical value above 4.325 V and at most 4.325 V, none
+    ("ridgeline-backup-below-primary.yaml", "backup-overvoltage", "no typical detection fits",
+     "narrower detection tolerance"),
+]
+
+
+@pytest.mark.parametrize("design, rule, opening, change", EMPTY, ids=[f"{e[0]}-{e[1]}" for e in EMPTY])
+def test_an_empty_range_says_so_and_names_a_structural_change(session, design, rule, opening,
+                                                              change) -> None:
     shown = f"{FLAWED}/{design}"
-    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings
-             if f.rule == "short-circuit-reach"]
-    assert hints and all(h.startswith("no sense resistance or detection voltage fits") and
-                         "shunt-sensed protector" in h for h in hints), hints
+    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings if f.rule == rule]
+    assert hints and all(h.startswith(opening) and change in h for h in hints), hints
 
 
 def test_no_hint_names_a_component_the_format_cannot_describe(session) -> None:
