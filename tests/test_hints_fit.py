@@ -75,6 +75,15 @@ def _resistor(component: str, resistance: str):
     return apply
 
 
+def _low_voltage_limit(component: str):
+    """The protector's part written inline, charging a cell below its lower limit through a
+    current limit of the hinted value (the form the hint names)."""
+    def apply(doc, value: str) -> list[Override]:
+        return [_inline(doc, component, low_voltage_charge={
+            "allowed": True, "path": "current_limit", "current": value})]
+    return apply
+
+
 # (design, rule, element, the hint's words before the value, the value's unit, how to apply it)
 HINTS = [
     ("charger-current-too-high.yaml", "charge-conditions", "BT1", "charge current to ≤", "A",
@@ -127,8 +136,14 @@ HINTS = [
     # enough that the current the trip max permits stays within the cells, fuse, FETs and shunt
     ("ridgeline-shunt-too-large.yaml", "trip-current-window", "U1", "use RSH of", "Ω",
      _part_field("RSH", "value")),
+    # the regenerative current: below the charge trip minimum, within the cells' charge rating
+    ("ebike-regen-trips-charge.yaml", "charge-current-window", "U1", "regenerative current to ≤",
+     "A", _field("load.regen.current")),
     # the fuse's melting I²t: at least what each event lets through over the margin (no rule
     # bounds it from above), the figure rounded up so that the value shown still clears it
+    # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
+    ("probe-zero-volt-charge.yaml", "deep-discharge-recovery", "U1", "current to ≤", "A",
+     _low_voltage_limit("U1")),
     ("fuse-too-small.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
      _field("components.F1.melting_i2t")),
     ("quick-fuse-gap-overload.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
