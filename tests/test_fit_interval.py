@@ -49,3 +49,21 @@ def test_the_search_finds_a_known_interval_and_says_when_there_is_none() -> None
     # the value shown has three figures and lies inside
     value = value_inside(4e-3, Interval(0.37, 0.44))
     assert 4e-3 * 0.37 <= value <= 4e-3 * 0.44 and f"{value * 1e3:.3g}" == f"{value * 1e3:g}"
+
+
+def test_the_fast_level_range_starts_where_its_window_clears_the_slow_one() -> None:
+    # ridgeline-oc-levels-overlap: slow detection 50 ± 5 mV, fast ± 8 mV, both over the same
+    # shunt. I = V / R [derived: Ohm's law, docs/references.md "Trip current of a detection"]:
+    # the slow window's ends give the shunt's corners, R_high = 45 mV / slow min and
+    # R_low = 55 mV / slow max; the fast minimum (typ - 8 mV) / R_high clears the slow maximum
+    # when typ > 8 mV + 45 mV × slow max / slow min.
+    shown = "example_designs/flawed/ridgeline-oc-levels-overlap.yaml"
+    session = Session(registry=load_registry(), grouping=False)
+    [finding] = [f for f in lint_file(session, REPO / shown, shown).findings
+                 if f.rule == "overcurrent-levels" and f.key == "slow-vs-fast"]
+    fig = {g.name: g.value for g in finding.figures}
+    by_hand = 0.008 + 0.045 * fig["over-current trip max"] / fig["over-current trip min"]
+    m = re.search(r"from ([0-9.]+ mV) to", finding.hint or "")
+    assert m, finding.hint
+    low = parse_quantity(m.group(1), "V")
+    assert by_hand <= low <= by_hand * 1.015, (low, by_hand)

@@ -139,6 +139,10 @@ HINTS = [
     # the regenerative current: below the charge trip minimum, within the cells' charge rating
     ("ebike-regen-trips-charge.yaml", "charge-current-window", "U1", "regenerative current to ≤",
      "A", _field("load.regen.current")),
+    # the fast level's typical detection: above the slow window, below the short-circuit one, and
+    # no harder on the parts than the currents just below it allow (the search re-lints)
+    ("ridgeline-oc-levels-overlap.yaml", "overcurrent-levels", "U1", "fast detection typ of", "V",
+     _field("components.U1.overcurrent_fast.detect.typ")),
     # the fuse's melting I²t: at least what each event lets through over the margin (no rule
     # bounds it from above), the figure rounded up so that the value shown still clears it
     # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
