@@ -143,6 +143,12 @@ HINTS = [
     # no harder on the parts than the currents just below it allow (the search re-lints)
     ("ridgeline-oc-levels-overlap.yaml", "overcurrent-levels", "U1", "fast detection typ of", "V",
      _field("components.U1.overcurrent_fast.detect.typ")),
+    # the charger's typical voltage: its maximum per cell within the cell's upper limit and below
+    # the overcharge detection by the margin
+    ("charger-too-high.yaml", "threshold-ladder", "BT1", "charger.voltage typ ≤", "V",
+     _field("charger.voltage.typ")),
+    ("charger-too-high.yaml", "threshold-ladder", "U1", "charger.voltage typ ≤", "V",
+     _field("charger.voltage.typ")),
     # the fuse's melting I²t: at least what each event lets through over the margin (no rule
     # bounds it from above), the figure rounded up so that the value shown still clears it
     # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
