@@ -84,6 +84,13 @@ def _low_voltage_limit(component: str):
     return apply
 
 
+def _each_value(*components: str):
+    """Each component's library part written inline with the hinted value."""
+    def apply(doc, value: str) -> list[Override]:
+        return [_inline(doc, c, value=value) for c in components]
+    return apply
+
+
 # (design, rule, element, the hint's words before the value, the value's unit, how to apply it)
 HINTS = [
     ("charger-current-too-high.yaml", "charge-conditions", "BT1", "charge current to ≤", "A",
@@ -149,6 +156,10 @@ HINTS = [
      _field("charger.voltage.typ")),
     ("charger-too-high.yaml", "threshold-ladder", "U1", "charger.voltage typ ≤", "V",
      _field("charger.voltage.typ")),
+    # the bleed resistors: low enough to bleed what the LED drains from its level each day, high
+    # enough for their power rating and the protector's balance pins
+    ("ridgeline-tap-load.yaml", "cell-balance", "D5", "R11, R12, R13, R14 of", "Ω",
+     _each_value("R11", "R12", "R13", "R14")),
     # the fuse's melting I²t: at least what each event lets through over the margin (no rule
     # bounds it from above), the figure rounded up so that the value shown still clears it
     # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
