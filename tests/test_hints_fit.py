@@ -91,6 +91,20 @@ def _each_value(*components: str):
     return apply
 
 
+def _pulse_rating(duration: str, *cells: str):
+    """Each cell's part written inline with a pulse rating of the hinted current for
+    ``duration`` (the duration the hint names beside it) added to its own."""
+    def apply(doc, value: str) -> list[Override]:
+        out = []
+        for c in cells:
+            part = _library_part(doc, doc.data["components"][c]["part"])
+            points = list(part.get("pulse_discharge") or [])
+            out.append(_inline(doc, c, pulse_discharge=points + [
+                {"current": value, "duration": duration}]))
+        return out
+    return apply
+
+
 # (design, rule, element, the hint's words before the value, the value's unit, how to apply it)
 HINTS = [
     ("charger-current-too-high.yaml", "charge-conditions", "BT1", "charge current to ≤", "A",
@@ -160,6 +174,10 @@ HINTS = [
     # enough for their power rating and the protector's balance pins
     ("ridgeline-tap-load.yaml", "cell-balance", "D5", "R11, R12, R13, R14 of", "Ω",
      _each_value("R11", "R12", "R13", "R14")),
+    # the cell's pulse rating: at least the gap overload's current per cell for its duration,
+    # both rounded up
+    ("high-threshold-fet.yaml", "cell-pulse-rating", "BT1", "cells rated for ≥", "A",
+     _pulse_rating("15 ms", "BT1")),
     # the fuse's melting I²t: at least what each event lets through over the margin (no rule
     # bounds it from above), the figure rounded up so that the value shown still clears it
     # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
