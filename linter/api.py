@@ -203,6 +203,10 @@ class RuleContext:
     #: Where a path lies outside the design file (a component of the schematic's netlist), or
     #: None: then it is in the design, at ``_where``.
     _elsewhere: Callable[[tuple], Location | None] = field(default=lambda path: None, repr=False)
+    #: The design linted again with changes, a list of (dotted path, value) each set there
+    #: (as ``packwarden.overrides`` does), returning its result or None where they do not apply; None where no search may run (inside such a
+    #: lint). A hint may search with it for the values every rule allows.
+    relint: Callable[[list], Any] | None = field(default=None, repr=False)
 
     def finding(self, message: str, *, path: Iterable = (), hint: str | None = None,
                 element: str | None = None, figures: Iterable[Figure] = (), key: str = "",

@@ -8,9 +8,11 @@ from __future__ import annotations
 import datetime as _dt
 import os
 import time
+from contextlib import contextmanager
+from contextvars import ContextVar
 from dataclasses import field, replace
 from pathlib import Path
-from typing import Any, Callable, Iterable
+from typing import Any, Callable, Iterable, Iterator
 
 from . import files
 from .api import Finding, RuleContext
@@ -233,7 +235,8 @@ def lint_file(session: Session, path: Path, shown: str,
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
               design_id=design_identity(path, root, root_resolved=True),
-              elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere)
+              elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere,
+              relint=_relinter(session, path, shown, doc))
     clock.lap("rules")
     return result
 
@@ -270,6 +273,40 @@ def _written_out(design: Design, doc: Document) -> bool:
     return (design.schematic is None and not design.stacks and
             isinstance(doc.data, dict) and "components" in doc.data and
             all(c.pins is not None for c in design.components.values()))
+
+
+#: Set while a rule's hint search lints its design again: that lint searches no hints itself.
+_FITTING: ContextVar[bool] = ContextVar("packwarden_fitting", default=False)
+
+
+@contextmanager
+def hints_unsearched() -> Iterator[None]:
+    """Lints within search no hints (``ctx.relint`` is None): for a caller that lints a design
+    again and again and reads only whether it passes (``packwarden assist``)."""
+    token = _FITTING.set(True)
+    try:
+        yield
+    finally:
+        _FITTING.reset(token)
+
+
+def _relinter(session: Session, path: Path, shown: str,
+              doc: Document) -> Callable[[list], DesignResult | None] | None:
+    """The design linted again with changes, a list of (dotted path, value) each set there
+    (None where they do not apply), for a rule that fits its hint to what every rule allows;
+    None inside such a lint."""
+    if _FITTING.get():
+        return None
+
+    def relint(changes: list) -> DesignResult | None:
+        from .overrides import Override, OverrideError, apply_overrides  # only when a hint searches
+        try:
+            changed = apply_overrides(doc, [Override("set", p, v) for p, v in changes])
+        except OverrideError:
+            return None
+        with hints_unsearched():
+            return lint_file(session, path, shown, document=changed)
+    return relint
 
 
 def _nowhere(path: tuple) -> Any:
@@ -352,6 +389,8 @@ class DesignRun:
     elsewhere: Callable[[tuple], Any] = _nowhere
     #: The design's name in fingerprints (:func:`design_identity`).
     design_id: str = ""
+    #: The design linted again with changes, for a rule fitting its hint (:func:`_relinter`).
+    relint: Callable[[list], Any] | None = None
 
     def where(self, path: tuple) -> tuple[int, int]:
         pos = self.doc.where(path)
@@ -360,7 +399,7 @@ class DesignRun:
     def context(self, rule_id: str, severity: Any) -> RuleContext:
         return RuleContext(file=self.result.file, design=self.design, netlist=self.netlist,
                            model=self.model, rule_id=rule_id, severity=severity,
-                           _where=self.where, _elsewhere=self.elsewhere)
+                           _where=self.where, _elsewhere=self.elsewhere, relint=self.relint)
 
 
 def rule_phase(run: DesignRun, findings: list[Finding]) -> list[Finding]:
@@ -454,11 +493,12 @@ PHASES = (rule_phase, policy_phase, waiver_phase, group_phase)
 def run_rules(session: Session, cfg: Config, options: dict, doc: Document, design: Design,
               netlist: Netlist, model: Any, result: DesignResult,
               design_id: str | None = None,
-              elsewhere: Callable[[tuple], Any] = _nowhere) -> None:
+              elsewhere: Callable[[tuple], Any] = _nowhere,
+              relint: Callable[[list], Any] | None = None) -> None:
     """Every phase after the model (:data:`PHASES`), then each finding's fingerprint and order."""
     design_id = design_id or Path(result.file).as_posix()
     run = DesignRun(session, cfg, options, doc, design, netlist, model, result, elsewhere,
-                    design_id)
+                    design_id, relint)
     findings: list[Finding] = []
     for phase in PHASES:
         findings = phase(run, findings)

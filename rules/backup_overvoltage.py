@@ -80,7 +80,8 @@ def _window(ctx, options, m, b, c, assumed):
             path=path, element=b.refdes, key="below-primary",
             headline="backup detection min", lower_is_worse=True,
             figures=window + [Figure("primary overcharge max", b.primary_max, "V")],
-            hint=f"a backup detection of at least "
+            hint=_typical_hint(b, options.primary_margin) or
+                 f"a backup detection of at least "
                  f"{fq(b.primary_max + options.primary_margin, 'V', 4)} at its minimum")
     if b.below_limit is not None and b.below_limit < 0:
         yield ctx.finding(
@@ -90,7 +91,30 @@ def _window(ctx, options, m, b, c, assumed):
             path=path, element=b.refdes, key="above-cell-limit", assumptions=assumed,
             headline="backup detection max",
             figures=window + [Figure("cell overcharge limit", b.cell_limit, "V")],
-            hint=f"a backup detection of at most {fq(b.cell_limit, 'V', 4)} at its maximum")
+            hint=_typical_hint(b, options.primary_margin) or
+                 f"a backup detection of at most {fq(b.cell_limit, 'V', 4)} at its maximum")
+
+
+def _typical_hint(b, margin):
+    """The typical detection both window checks allow (the model's range, the tolerance kept),
+    or, where none does, what must change instead; None where a bound is unknown."""
+    room = b.typical_range(margin)
+    if room is None:
+        return None
+    low, high = room
+    tol = b.detect.typ - b.detect.min
+    if low < high:
+        # mV steps inside the range, nearest its middle (the lowest is excluded)
+        value = round((low + high) / 2, 3)
+        if not low < value <= high:
+            value = (low + high) / 2
+        return (f"a backup detection typ of {fq(value, 'V', 4)} (typ above {fq(low, 'V', 4)} and "
+                f"at most {fq(high, 'V', 4)} keeps its ± {fq(tol, 'V')} window above the primary's "
+                f"and within the cell's limit; now {fq(b.detect.typ, 'V', 4)})")
+    return (f"no typical detection fits: its ± {fq(tol, 'V')} window is wider than the room "
+            f"between the primary's highest overcharge detection {fq(b.primary_max, 'V', 4)} and "
+            f"the cell's limit {fq(b.cell_limit, 'V', 4)}; a backup with a narrower detection "
+            f"tolerance, or a primary protector with a lower overcharge detection")
 
 
 def _output(ctx, b, c):

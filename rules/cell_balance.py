@@ -3,6 +3,10 @@ from packwarden.model.limits import BALANCE_CYCLE, BALANCE_TIME, SELF_DISCHARGE_
     SERVICE_CYCLES
 from pydantic import Field
 
+from packwarden.model.fit import scaled_resistors, value_inside
+
+from ._fit import Fit
+
 
 class Options(RuleOptions):
     cycle_time: Q("s", gt=0, le=3.2e7) = Field(
@@ -125,7 +129,8 @@ def check(ctx, options):
     hint = (f"move {', '.join(elements)} across the whole stack or switch it off with the product"
             if elements else "")
     more = (f"bleed at least {fq(need_bleed, 'A')} (bleed resistor and switch at most "
-            f"{fq(cb.bleed_voltage / need_bleed, 'Ω')} in all) or balance longer each charge")
+            f"{fq(cb.bleed_voltage / need_bleed, 'Ω')} in all) or balance longer each charge"
+            f"{_fitted_bleed(ctx, m, cb, need_bleed)}")
     if cb.holds and cb.imbalance_to_detection is not None:
         more = (f"charge more often, so that one cycle's drift stays below "
                 f"{fq(cb.imbalance_to_detection, 'Ah')}")
@@ -143,3 +148,31 @@ def _hours(seconds: float) -> str:
     hours = seconds / 3600.0
     return f"{hours:.3g} h" if hours < 48.0 else f"{hours / 24.0:.3g} days"
 
+
+
+def _fitted_bleed(ctx, m, cb, need_bleed):
+    """The bleed resistors' value every rule allows (all scaled alike, one value where they are
+    alike), found by re-linting: low enough to bleed the drift, high enough for the resistors'
+    power and the protector's balance pins. Empty where no search can run or none passes."""
+    bleeders = sorted({r for level in cb.levels for r in level.bleed_path
+                       if m.netlist.components[r].kind == "resistor"})
+    if not bleeders or ctx.relint is None or not cb.worst.bleed > 0.0:
+        return ""
+    values = {m.netlist.components[r].part.value for r in bleeders}
+    fit = Fit(ctx.relint, lambda k: scaled_resistors(m.netlist, bleeders, k),
+              lambda i: i[0] == "cell-balance" and i[2] == "drift")
+    if fit.before is None:
+        return ""
+    # the bleed current falls as the resistance rises: no factor above the one that bleeds
+    # just enough passes, so the search starts there and steps down
+    found = fit.interval(cb.worst.bleed / need_bleed)
+    names = ", ".join(bleeders)
+    if found is None:
+        return f"; no value of {names} alone lets every rule pass"
+    if len(values) > 1:
+        return (f"; or scale {names} by a factor {found.low:.3g}-{found.high:.3g} (every rule "
+                f"passes over that range)")
+    now = values.pop()
+    return (f"; or bleed resistors {names} of {fq(value_inside(now, found), 'Ω')} each (every "
+            f"rule passes from {fq(now * found.low, 'Ω', toward='up')} to "
+            f"{fq(now * found.high, 'Ω', toward='down')}; now {fq(now, 'Ω')})")

@@ -47,8 +47,9 @@ def check(ctx, options):
                 path=path, element=first.refdes, key=f"pulse-data-{e.name}", severity="info",
                 headline="current per cell",
                 figures=figures, assumptions=e.assumptions,
-                hint=f"add pulse_discharge: [{{current: {fq(i, 'A')}, duration: "
-                     f"{fq(e.duration, 's')}}}] or higher from the cell data sheet, or ask the "
+                hint=f"add pulse_discharge: [{{current: {fq(i, 'A', toward='up')}, duration: "
+                     f"{fq(e.duration, 's', toward='up')}}}] or higher from the cell data sheet, "
+                     f"or ask the "
                      f"cell maker")
             continue
         if any(pi >= i and pt >= e.duration for pi, pt in points):
@@ -59,5 +60,6 @@ def check(ctx, options):
             path=path, element=first.refdes, key=f"pulse-{e.name}", figures=figures,
             headline="current per cell",
             assumptions=e.assumptions,
-            hint=f"use cells rated for ≥ {fq(i, 'A')} for {fq(e.duration, 's')}, more cells in "
+            hint=f"use cells rated for ≥ {fq(i, 'A', toward='up')} for "
+                 f"{fq(e.duration, 's', toward='up')}, more cells in "
                  f"parallel, or a protector with a lower detection voltage or shorter delay")

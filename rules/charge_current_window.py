@@ -80,5 +80,17 @@ def check(ctx, options):
         figures=window + [Figure("regen current", regen.current, "A"),
                           Figure("regen duration", regen.duration, "s"),
                           Figure("charge delay min", delay, "s")],
-        hint=f"limit the regenerative current below {fq(t.min, 'A')} in the motor controller, or "
-             f"choose a charge detection whose trip minimum clears {fq(regen.current, 'A')}")
+        hint=_regen_hint(t, limit, regen))
+
+
+def _regen_hint(t, limit, regen):
+    """The regenerative current both checks allow: below the charge trip minimum (else it may
+    trip) and within the cells' charge rating (else nothing stops it)."""
+    # just under the trip minimum, the figure rounded down so the value shown is below it
+    below_trip = fq(t.min * (1 - 1e-9), "A", toward="down")
+    within = (f"≤ {below_trip}, below the charge over-current trip minimum {fq(t.min, 'A')}"
+              if t.min <= limit else
+              f"≤ {fq(limit, 'A', toward='down')}, the cells' charge rating (below the charge "
+              f"over-current trip minimum {fq(t.min, 'A')})")
+    return (f"limit the regenerative current to {within}, in the motor controller; or choose a "
+            f"charge detection whose trip minimum clears {fq(regen.current, 'A')}")

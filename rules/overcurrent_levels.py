@@ -1,4 +1,7 @@
 from packwarden import Example, Figure, Severity, format_quantity as fq, rule
+from packwarden.model.fit import value_inside
+
+from ._fit import Fit
 
 
 @rule(id="overcurrent-levels",
@@ -43,7 +46,8 @@ def check(ctx, options):
             path=_field(ctx, p, "overcurrent_fast", "detect"), element=p.refdes, key="slow-vs-fast",
             headline="fast trip min", lower_is_worse=True,
             figures=window("over-current", slow) + window("fast", fast),
-            hint=f"a fast detection of at least "
+            hint=_fitted_fast_hint(ctx, p, fast, m.short_circuit_trip) or
+                 f"a fast detection of at least "
                  f"{fq(fast.detect.min * slow.max / fast.min, 'V')} at its minimum, or a slow "
                  f"detection with a narrower tolerance, separates the windows")
     sc = m.short_circuit_trip
@@ -87,6 +91,35 @@ def check(ctx, options):
             figures=window("fast", fast) + [Figure("peak load", peak.current, "A")],
             hint=f"a fast detection above {fq(fast.detect.min * peak.current / fast.min, 'V')} "
                  f"at its minimum, or a longer fast delay than the peak")
+
+
+def _fitted_fast_hint(ctx, p, fast, sc):
+    """The fast level's typical detection every rule allows (its tolerance kept), found by
+    linting the design with it changed: above the slow window, below the short-circuit window,
+    and no harder on the parts than the currents just below it (the fast gap overload) allow.
+    None where no search can run (a library part: its file is not the design's; no re-lint)."""
+    detect = p.part.overcurrent_fast.detect
+    low, high = detect.low, detect.high
+    typ, tol = (low + high) / 2, (high - low) / 2
+    if (p.part_name or ctx.relint is None or sc is None or not fast.max > 0 or
+            detect.typ is None or abs(detect.typ - typ) > 1e-9):
+        return None  # a window written lopsided is not moved by a typical value
+    path = ".".join(map(str, _field(ctx, p, "overcurrent_fast", "detect")))
+    fit = Fit(ctx.relint, lambda k: [(path, {"typ": f"{typ * k * 1e3:.9g} mV",
+                                             "tol": f"{tol * 1e3:.9g} mV"})],
+              lambda i: i[0] == "overcurrent-levels")
+    if fit.before is None:
+        return None
+    # the trip currents scale with the detection: the fast maximum meets the short-circuit
+    # minimum at this typical value, and no higher one passes
+    highest = fast.detect.max * sc.min / fast.max - tol
+    found = fit.interval(highest / typ)
+    if found is None:
+        return (f"no fast detection with a ± {fq(tol, 'V')} tolerance lets every rule pass"
+                f"{fit.structural(highest / typ / 1.05)}; or a fast level of a narrower tolerance")
+    return (f"a fast detection typ of {fq(value_inside(typ, found), 'V')} (every rule passes from "
+            f"{fq(typ * found.low, 'V', toward='up')} to {fq(typ * found.high, 'V', toward='down')}"
+            f" at its ± {fq(tol, 'V')} tolerance; now {fq(typ, 'V')}) separates the windows")
 
 
 def _field(ctx, p, *keys):

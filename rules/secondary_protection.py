@@ -133,7 +133,7 @@ def _hint(part, event, needed, melting_only):
     kind = " (a time-lag type)" if long and part.speed.value == "quick_acting" else ""
     curve = ("; a time-lag fuse's own pre_arcing points may show it needs more than its melting "
              "I²t" if long and melting_only and part.speed.value == "time_lag" else "")
-    return (f"use a fuse that needs ≥ {fq(needed, 'A²s')} to melt in {fq(event.duration, 's')}"
+    return (f"use a fuse that needs ≥ {fq(needed, 'A²s', toward='up')} to melt in {fq(event.duration, 's')}"
             f"{kind}, or a protector with a shorter {event.detection} delay{curve}")
 
 

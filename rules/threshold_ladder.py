@@ -68,7 +68,8 @@ def check(ctx, options):
                 headline="charger max per cell",
                 figures=[Figure("charger max per cell", ch.max, "V"),
                          Figure("cell upper limit", limits.upper_limit, "V")],
-                hint=f"tighten the charger to at most {fq(limits.upper_limit, 'V')} per cell with tolerance")
+                hint=f"tighten the charger to at most {fq(limits.upper_limit, 'V')} per cell with "
+                     f"tolerance{_charger_typ(m, ch, limits.upper_limit, oc.detect.low)}")
         need = ch.max + m.limits.charge_margin
         if oc.detect.low < need - 1e-9:
             yield ctx.finding(
@@ -81,7 +82,8 @@ def check(ctx, options):
                          Figure("charger max per cell", ch.max, "V"),
                          Figure("margin", m.limits.charge_margin, "V")],
                 hint=f"a protector with overcharge detection ≥ {fq(need, 'V')} at its lowest, or a "
-                     f"charger with a tighter tolerance")
+                     f"charger with a tighter tolerance"
+                     f"{_charger_typ(m, ch, limits.upper_limit, oc.detect.low)}")
     if oc.detect.high > limits.overcharge_limit + 1e-9:
         yield ctx.finding(
             (f"overcharge detection max {fq(oc.detect.high, 'V')} exceeds the cell's overcharge "
@@ -120,3 +122,16 @@ def check(ctx, options):
             figures=[Figure("over-discharge release min", od.release.low, "V"),
                      Figure("over-discharge detect max", od.detect.high, "V")],
             hint="check the data sheet: release must sit above detection at every tolerance")
+
+
+def _charger_typ(m, ch, upper_limit, detect_low):
+    """The highest typical charger voltage (its tolerance kept) whose maximum per cell is within
+    the cell's upper limit and below the overcharge detection by the margin, as a hint's tail."""
+    typ = m.design.charger.voltage.typ if m.design.charger is not None else None
+    if typ is None or not ch.max > 0:
+        return ""
+    ceiling = min(upper_limit, detect_low - m.limits.charge_margin)
+    # the charger's window per cell scales with its typical voltage
+    highest = typ * ceiling / ch.max
+    return (f" (both hold with charger.voltage typ ≤ {fq(highest, 'V', 4, toward='down')} at its "
+            f"tolerance; now {fq(typ, 'V', 4)})")

@@ -1,6 +1,10 @@
 import math
+from functools import cache
 
 from packwarden import Example, Figure, Severity, format_quantity as fq, rule
+from packwarden.model.fit import STEP, scaled_resistors, value_inside
+
+from ._fit import Fit
 
 
 @rule(id="trip-current-window",
@@ -37,6 +41,7 @@ def check(ctx, options):
         return
     cell = stack.part
     cell_limit = stack.discharge_rating
+    fitted = cache(lambda: _fitted_shunt_hint(ctx, m, t, _loads(m, p.part.overcurrent)))
     permitted = m.event("permitted")
     ever = permitted.current if permitted is not None else None
     held = (f" (the permitted event, at {fq(permitted.ambient, '°C')} ambient)"
@@ -50,7 +55,8 @@ def check(ctx, options):
             key="max-vs-cell", assumptions=permitted.assumptions, headline="permitted current",
             figures=window + [Figure("permitted current", ever, "A"),
                                                  Figure("cell limit", cell_limit, "A")],
-            hint=_resistance_hint(t, ever / cell_limit, "raise", "maximum", cell_limit, _shunts(m)))
+            hint=fitted() or _resistance_hint(t, ever / cell_limit, "raise", "maximum",
+                                              cell_limit, _shunts(m)))
     # FET channels: current divides across parallel packages as their resistances do
     for ch in m.channels:
         if ch.role is None or permitted is None:
@@ -66,14 +72,7 @@ def check(ctx, options):
                 headline="channel current",
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
                      f"with a lower over-current detection voltage")
-    oc = p.part.overcurrent
-    loads = [("continuous load", "", m.design.load.continuous, ("load", "continuous"))]
-    peak = m.design.load.peak
-    if peak is not None and peak.duration > oc.delay.low:
-        loads.append(("peak load", f", lasting {fq(peak.duration, 's')}, longer than the shortest "
-                      f"over-current delay {fq(oc.delay.low, 's')}", peak.current,
-                      ("load", "peak", "current")))
-    for what, why, current, path in loads:
+    for what, why, current, path in _loads(m, p.part.overcurrent):
         if t.min < current:
             yield ctx.finding(
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
@@ -83,7 +82,8 @@ def check(ctx, options):
                 path=path, element=p.refdes, key=f"min-vs-{path[-1]}",
                 assumptions=t.at_min.assumptions, headline="trip min", lower_is_worse=True,
                 figures=window + [Figure(what, current, "A")],
-                hint=_resistance_hint(t, current / t.min, "lower", "minimum", current, _shunts(m)))
+                hint=fitted() or _resistance_hint(t, current / t.min, "lower", "minimum",
+                                                  current, _shunts(m)))
     sc, psc = m.short_circuit_trip, m.prospective_short_circuit
     if sc is not None and psc is not None and psc <= sc.max:
         yield ctx.finding(
@@ -93,6 +93,58 @@ def check(ctx, options):
             headline="prospective short circuit",
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
+
+
+def _loads(m, oc):
+    """The loads the trip minimum must clear: (what, why, current, path)."""
+    loads = [("continuous load", "", m.design.load.continuous, ("load", "continuous"))]
+    peak = m.design.load.peak
+    if peak is not None and peak.duration > oc.delay.low:
+        loads.append(("peak load", f", lasting {fq(peak.duration, 's')}, longer than the shortest "
+                      f"over-current delay {fq(oc.delay.low, 's')}", peak.current,
+                      ("load", "peak", "current")))
+    return loads
+
+
+def _sense_finding(identity):
+    """A finding the sense resistance sets: the trip minimum under a load, or the current the
+    trip maximum permits above a rating."""
+    rule, _, key = identity
+    return rule == "trip-current-window" and key.startswith(("min-vs-", "max-vs-"))
+
+
+def _fitted_shunt_hint(ctx, m, t, loads):
+    """The shunt value every rule allows, found by linting the design with the shunt scaled
+    (the trip window moves as one over it); None where no search can run (no shunt sensing, or
+    a design that does not lint again as it is), then the hint is the window's alone."""
+    shunts = _shunts(m)
+    if not shunts or ctx.relint is None:
+        return None
+    fit = Fit(ctx.relint, lambda k: scaled_resistors(m.netlist, shunts, k), _sense_finding)
+    if fit.before is None:
+        return None
+    what, _, load, _ = max(loads, key=lambda w: w[2])
+    # more resistance lowers the whole window: no factor above the one that brings the minimum
+    # to the highest load passes, so the search starts there and steps down
+    start = t.min / load if load > 0 else 1.0
+    interval = fit.interval(start)
+    parts = [m.netlist.components[r].part for r in shunts]
+    names = ", ".join(shunts)
+    if interval is None:
+        at = (fq(parts[0].value * start, "Ω") if len(shunts) == 1
+              else f"a factor {start:.3g} on their values")
+        return (f"no value of {names} lets every rule pass: at {at}, where the over-current trip "
+                f"min reaches the {what} {fq(load, 'A')}, the current the trip max permits is "
+                f"too much for the path{fit.structural(start / STEP)}")
+    if len(shunts) > 1:
+        return (f"scale {names} by a factor {interval.low:.3g}-{interval.high:.3g} (every rule "
+                f"passes over that range)")
+    now = parts[0].value
+    return (f"use {shunts[0]} of {fq(value_inside(now, interval), 'Ω')} (every rule passes "
+            f"from {fq(now * interval.low, 'Ω', toward='up')} to "
+            f"{fq(now * interval.high, 'Ω', toward='down')} at its {parts[0].tol:g} % "
+            f"tolerance; now {fq(now, 'Ω')}), or a protector with a "
+            f"{'higher' if interval.high < 1 else 'lower'} over-current detection voltage")
 
 
 def _shunts(m):

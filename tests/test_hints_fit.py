@@ -75,6 +75,36 @@ def _resistor(component: str, resistance: str):
     return apply
 
 
+def _low_voltage_limit(component: str):
+    """The protector's part written inline, charging a cell below its lower limit through a
+    current limit of the hinted value (the form the hint names)."""
+    def apply(doc, value: str) -> list[Override]:
+        return [_inline(doc, component, low_voltage_charge={
+            "allowed": True, "path": "current_limit", "current": value})]
+    return apply
+
+
+def _each_value(*components: str):
+    """Each component's library part written inline with the hinted value."""
+    def apply(doc, value: str) -> list[Override]:
+        return [_inline(doc, c, value=value) for c in components]
+    return apply
+
+
+def _pulse_rating(duration: str, *cells: str):
+    """Each cell's part written inline with a pulse rating of the hinted current for
+    ``duration`` (the duration the hint names beside it) added to its own."""
+    def apply(doc, value: str) -> list[Override]:
+        out = []
+        for c in cells:
+            part = _library_part(doc, doc.data["components"][c]["part"])
+            points = list(part.get("pulse_discharge") or [])
+            out.append(_inline(doc, c, pulse_discharge=points + [
+                {"current": value, "duration": duration}]))
+        return out
+    return apply
+
+
 # (design, rule, element, the hint's words before the value, the value's unit, how to apply it)
 HINTS = [
     ("charger-current-too-high.yaml", "charge-conditions", "BT1", "charge current to ≤", "A",
@@ -123,6 +153,40 @@ HINTS = [
      _part_field("Q1", "turn_off_time")),
     ("wiring-spike.yaml", "switch-voltage-margin", "Q1", "and ≤", "s",
      _part_field("Q1", "turn_off_time")),
+    # the shunt value every rule allows: low enough for the trip min to clear the 25 A peak, high
+    # enough that the current the trip max permits stays within the cells, fuse, FETs and shunt
+    ("ridgeline-shunt-too-large.yaml", "trip-current-window", "U1", "use RSH of", "Ω",
+     _part_field("RSH", "value")),
+    # the regenerative current: below the charge trip minimum, within the cells' charge rating
+    ("ebike-regen-trips-charge.yaml", "charge-current-window", "U1", "regenerative current to ≤",
+     "A", _field("load.regen.current")),
+    # the fast level's typical detection: above the slow window, below the short-circuit one, and
+    # no harder on the parts than the currents just below it allow (the search re-lints)
+    ("ridgeline-oc-levels-overlap.yaml", "overcurrent-levels", "U1", "fast detection typ of", "V",
+     _field("components.U1.overcurrent_fast.detect.typ")),
+    # the charger's typical voltage: its maximum per cell within the cell's upper limit and below
+    # the overcharge detection by the margin
+    ("charger-too-high.yaml", "threshold-ladder", "BT1", "charger.voltage typ ≤", "V",
+     _field("charger.voltage.typ")),
+    ("charger-too-high.yaml", "threshold-ladder", "U1", "charger.voltage typ ≤", "V",
+     _field("charger.voltage.typ")),
+    # the bleed resistors: low enough to bleed what the LED drains from its level each day, high
+    # enough for their power rating and the protector's balance pins
+    ("ridgeline-tap-load.yaml", "cell-balance", "D5", "R11, R12, R13, R14 of", "Ω",
+     _each_value("R11", "R12", "R13", "R14")),
+    # the cell's pulse rating: at least the gap overload's current per cell for its duration,
+    # both rounded up
+    ("high-threshold-fet.yaml", "cell-pulse-rating", "BT1", "cells rated for ≥", "A",
+     _pulse_rating("15 ms", "BT1")),
+    # the fuse's melting I²t: at least what each event lets through over the margin (no rule
+    # bounds it from above), the figure rounded up so that the value shown still clears it
+    # the low-voltage charge current: at most the cell's recovery current (0.1 C [practice])
+    ("probe-zero-volt-charge.yaml", "deep-discharge-recovery", "U1", "current to ≤", "A",
+     _low_voltage_limit("U1")),
+    ("fuse-too-small.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
+     _field("components.F1.melting_i2t")),
+    ("quick-fuse-gap-overload.yaml", "secondary-protection", "F1", "a fuse that needs ≥", "A²s",
+     _part_field("F1", "melting_i2t")),
 ]
 
 
@@ -162,15 +226,26 @@ def test_a_hinted_value_applied_clears_its_finding_and_raises_no_other(
         assert not new, f"{value} raises: " + "; ".join(f"{f.rule}: {f.message}" for f in new)
 
 
-@pytest.mark.parametrize("design", ["narrow-trace.yaml", "high-threshold-fet.yaml"])
-def test_an_empty_range_says_so_and_names_a_structural_change(session, design) -> None:
+EMPTY = [
     # narrow-trace: the trip window spans 1.62-7.72 A (× 4.75) and must sit above the 1.6 A peak
     # and below the 6.89 A weakest short (× 4.31): no factor on the sense resistance fits both.
+    ("narrow-trace.yaml", "short-circuit-reach", "no sense resistance or detection voltage fits",
+     "shunt-sensed protector"),
+    ("high-threshold-fet.yaml", "short-circuit-reach",
+     "no sense resistance or detection voltage fits", "shunt-sensed protector"),
+    # the backup's ± 25 mV window must lie above the primary's 4.300 V and within the cell's
+    # 4.35 V: a typical value above 4.325 V and at most 4.325 V, none
+    ("ridgeline-backup-below-primary.yaml", "backup-overvoltage", "no typical detection fits",
+     "narrower detection tolerance"),
+]
+
+
+@pytest.mark.parametrize("design, rule, opening, change", EMPTY, ids=[f"{e[0]}-{e[1]}" for e in EMPTY])
+def test_an_empty_range_says_so_and_names_a_structural_change(session, design, rule, opening,
+                                                              change) -> None:
     shown = f"{FLAWED}/{design}"
-    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings
-             if f.rule == "short-circuit-reach"]
-    assert hints and all(h.startswith("no sense resistance or detection voltage fits") and
-                         "shunt-sensed protector" in h for h in hints), hints
+    hints = [f.hint for f in lint_file(session, REPO / shown, shown).findings if f.rule == rule]
+    assert hints and all(h.startswith(opening) and change in h for h in hints), hints
 
 
 def test_no_hint_names_a_component_the_format_cannot_describe(session) -> None:

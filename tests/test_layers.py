@@ -13,7 +13,7 @@ PACKAGES = (("linter", "packwarden"), ("rules", "packwarden_rules"))
 
 # The model's layers, bottom first; a module may import its own layer and those before it.
 MODEL_LAYERS = [
-    {"values"},
+    {"values", "fit"},
     {"cells", "ocv", "rdson", "thermal", "copper", "fuse", "network", "inrush", "pulse",
      "thermistor"},
     {"topology", "gate"},

@@ -68,6 +68,16 @@ class Backup:
         """The cell's overcharge limit less the highest detection, V (>= 0: in time)."""
         return None if self.cell_limit is None else self.cell_limit - self.detect.max
 
+    def typical_range(self, margin: float) -> tuple[float, float] | None:
+        """The typical detection, V, whose window (its tolerance as it is) lies above the
+        primary's highest overcharge detection by more than ``margin`` and within the cell's
+        overcharge limit: (lowest, highest); None where either bound is unknown. The lowest is
+        excluded (the window must lie strictly above); low >= high says no typical value fits."""
+        if self.primary_max is None or self.cell_limit is None:
+            return None
+        return (self.primary_max + margin + (self.detect.typ - self.detect.min),
+                self.cell_limit - (self.detect.max - self.detect.typ))
+
 
 def heater_drive_voltage(m: "DesignModel", detect_min: float) -> float | None:
     """The lowest stack voltage the heater can be driven from when the backup acts: one cell at

@@ -1,0 +1,92 @@
+"""The feasible range of one design value: the interval of a factor on it over which a judgement
+holds (issue 18 item 2, hints that fit).
+
+The judgement is passed in: the design with the factor applied, judged by every rule (the rules'
+own functions, so no figure here is a second copy of theirs). The search assumes the judgement
+holds on one interval of the factor, as it does where raising the value only moves a window one
+way (more sense resistance lowers every trip current: the loads bound the factor from above, the
+ratings the window must stay within bound it from below).
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any, Callable, Iterable
+
+from ..records import record
+
+__all__ = ["Interval", "factor_interval", "value_inside", "scaled_resistors", "STEP"]
+
+#: How finely an edge is found, as a ratio between the last failing and passing factor.
+EDGE_RATIO = 1.01
+#: How far below the starting factor the search looks for a first passing one, as a ratio, and
+#: how far an edge is looked for either side of it.
+REACH = 20.0
+#: The geometric step of that first look: fine enough not to step over a range as narrow as a
+#: part's tolerance band plus its neighbours' (a feasible range may span only ~ 1.2 ×).
+STEP = 1.05
+
+
+@record(frozen=True)
+class Interval:
+    """Factors from ``low`` to ``high`` (both pass)."""
+
+    low: float
+    high: float
+
+
+def factor_interval(passes: Callable[[float], bool], start: float) -> Interval | None:
+    """The interval of factors around the first passing one at or below ``start`` (looked for
+    in steps of :data:`STEP` down to ``start / REACH``), its edges found by bisection to
+    :data:`EDGE_RATIO`; None when no factor in that reach passes."""
+    if not (start > 0 and math.isfinite(start)):
+        return None
+    inside = start
+    while not passes(inside):
+        inside /= STEP
+        if inside < start / REACH:
+            return None
+    return Interval(_edge(passes, inside, 1.0 / REACH), _edge(passes, inside, REACH))
+
+
+def _edge(passes: Callable[[float], bool], inside: float, span: float) -> float:
+    """The last passing factor from ``inside`` towards ``inside × span``."""
+    outside = inside * span
+    if passes(outside):
+        return outside
+    while max(inside, outside) / min(inside, outside) > EDGE_RATIO:
+        middle = math.sqrt(inside * outside)
+        if passes(middle):
+            inside = middle
+        else:
+            outside = middle
+    return inside
+
+
+def value_inside(now: float, interval: Interval) -> float:
+    """A value of three significant figures inside ``now`` × ``interval``, near its geometric
+    middle (the rounded figure a hint shows must itself pass)."""
+    low, high = now * interval.low, now * interval.high
+    middle = math.sqrt(low * high)
+    digits = 2 - math.floor(math.log10(middle))
+    value = round(middle, digits)
+    return value if low <= value <= high else middle
+
+
+def scaled_resistors(netlist: Any, refdes: Iterable[str], factor: float) -> list[tuple[str, Any]]:
+    """The changes (dotted path, value) that write each resistor of ``refdes`` inline with its
+    value times ``factor``, its tolerance, rating and pins as they are."""
+    changes = []
+    for ref in refdes:
+        c = netlist.components[ref]
+        part = c.part
+        written: dict[str, Any] = {"kind": "resistor",
+                                   "value": f"{part.value * factor * 1e3:.9g} mΩ",
+                                   "tol": f"{part.tol:.9g} %"}
+        if part.power is not None:
+            written["power"] = f"{part.power:.9g} W"
+        if part.pinout:
+            written["pinout"] = dict(part.pinout)
+        written["pins"] = [c.pins[k] for k in sorted(c.pins)]
+        changes.append((".".join(c.path), written))
+    return changes
