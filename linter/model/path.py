@@ -252,11 +252,19 @@ class PowerPath:
         cell = self.topology.stack.part if self.topology.stack else None
         cell_r = corner_value(cell.internal_resistance, corner) if cell else IDEAL
         converged, runaway = True, False
+        held_at: list[str] = []
         if detect is not None and self_heating:
             # The switches sit where the load heats them; the current then rises to the trip too
             # briefly to heat them further, and only each channel's drive follows it.
             heat = self.operating_point(current, ambient, vgs, corner, True)
             tj, converged, runaway, self_heating = dict(heat.tj), heat.converged, heat.runaway, False
+            if runaway:
+                # No steady state below tj_max: the last iterate (thousands of degrees, say) is
+                # no temperature a part reaches intact. The window is taken at tj_max, the
+                # hottest the switches can be and still switch; switch-temperature reports why.
+                capped = {p: min(t, packages[p].tj_max) for p, t in tj.items()}
+                held_at = [p for p in packages if capped[p] < tj[p]]
+                tj = capped
         notes: list[str] = []
         previous: dict[str, tuple[float, float]] = {}
         names = [ch.name for ch in self.topology.channels]
@@ -306,6 +314,10 @@ class PowerPath:
         said = gate.describe(vgs, held)
         if said is not None:
             notes.append(said)
+        if detect is not None and runaway and held_at:
+            notes.append("T_J held at tj_max (" + ", ".join(
+                f"{p} {packages[p].tj_max:g} °C" for p in held_at) + "): the load alone heats "
+                "the switches past it, with no steady state below")
         return OperatingPoint(current, ambient, vgs, corner, rds, ich, share, tj, power, sense, path_r,
                               converged, runaway, tuple(notes), sol, held)
 
