@@ -123,9 +123,9 @@ def on_resistance_text(ctx: Any, found: RdsFit) -> str:
         what, load = found.load
         failing = ", ".join(found.below) or "some rule"
         return (f"no on-resistance of {names} lets every rule pass: at a factor "
-                f"{found.start:.3g} on its R_DS(on) table, where the over-current trip min "
-                f"{fq(t.min, 'A')} moves to the {what} {fq(load, 'A')}, {failing} fail, the "
-                f"current the trip max permits rising as the on-resistance falls; more "
+                f"{found.start:.3g} on its R_DS(on) table (the over-current trip min over that "
+                f"factor is the {what} {fq(load, 'A')}), {failing} "
+                f"fail, the current the trip max permits rising as the on-resistance falls; more "
                 f"on-resistance brings the trip min below the load (trip-current-window), and "
                 f"none down to a factor {found.start / REACH:.3g} passes; {STRUCTURAL}")
     sides = []
@@ -140,8 +140,9 @@ def on_resistance_text(ctx: Any, found: RdsFit) -> str:
     low, high = fq(now * k.low, "Ω", toward="up"), fq(now * k.high, "Ω", toward="down")
     if low.split(" ")[-1] == high.split(" ")[-1]:
         low = low.split(" ")[0]  # "44.3-44.4 mΩ", as a range is printed on a data sheet
-    at = (f"switches ({names}) with R_DS(on) of {low}-{high} per channel at {fq(op.vgs, 'V')} gate drive "
-          f"and {op.ambient:.0f} °C (now {fq(now, 'Ω')}), " if now > 0 else "")
+    at = (f"switches ({names}) with R_DS(on) of {low}-{high} per channel at "
+          f"{fq(op.vgs, 'V')} gate drive and {op.ambient:.0f} °C (now {fq(now, 'Ω')}), "
+          if now > 0 else "")
     return (f"{at}a factor {k.low:.3g}-{k.high:.3g} on {names}'s R_DS(on) table, every row "
             f"alike: every rule passes over that range{side_text}")
 

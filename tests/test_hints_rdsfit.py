@@ -28,6 +28,12 @@ FLAWED = "example_designs/flawed"
 # window (1.59-7.72 A) is just under the peak, and a little less on-resistance fits.
 FITTING = ("trip-below-load.yaml", [Override("set", "load.continuous", "1.5 A"),
                                     Override("set", "load.peak.current", "1.6 A")])
+# ... and with a 1 A load, a 1.2 A start and a -30 °C winter: the weakest short (7.9 A, the cells
+# cold) falls inside the window, which has room to move down below it and stay above the start.
+SHORT = ("trip-below-load.yaml", [Override("set", "load.continuous", "1.0 A"),
+                                  Override("set", "load.peak.current", "1.2 A"),
+                                  Override("set", "pack.ambient.min", "-30 °C")])
+CASES = [(*FITTING, "trip-current-window"), (*SHORT, "short-circuit-reach")]
 #: The search finds an edge to 1 % (packwarden.model.fit.EDGE_RATIO); the hint prints 3 figures.
 RESOLUTION = 1.01
 
@@ -44,8 +50,8 @@ def _lint(session, design: str, changes: list):
 
 
 def _scaled_rds_on(doc, component: str, factor: float) -> Override:
-    """The component's FET (from its library, or as written) inline, every row of its R_DS(on) table (typ and max)
-    times ``factor``: a part of the same family in another die size."""
+    """The component's FET (from its library, or as written) inline, every row of its R_DS(on)
+    table (typ and max) times ``factor``: a part of the same family in another die size."""
     written = doc.data["components"][component]
     part = {k: v for k, v in written.items() if k != "pins"}
     for lib in doc.data["libraries"] if "part" in written else ():
@@ -64,21 +70,22 @@ def _identity(f) -> tuple:
     return (f.rule, f.element, f.key)
 
 
-def _fitted(result) -> tuple[float, float, str, str, object]:
+def _fitted(result, rule: str = "trip-current-window") -> tuple[float, float, str, str, object]:
     """The factor range, the rules named below and above it, and the finding it came from."""
     for f in result.findings:
         m = re.search(r"a factor ([0-9.]+)-([0-9.]+) on Q1's R_DS\(on\) table", f.hint or "")
-        if f.rule == "trip-current-window" and m:
+        if f.rule == rule and m:
             sides = re.search(r"below it ([a-z, -]+) fails; above it ([a-z, -]+) fails", f.hint)
             assert sides, f.hint
             return float(m.group(1)), float(m.group(2)), sides.group(1), sides.group(2), f
     raise AssertionError([f.hint for f in result.findings])
 
 
-def test_the_middle_of_the_range_clears_the_window_and_raises_nothing(session) -> None:
-    design, changes = FITTING
+@pytest.mark.parametrize("design, changes, rule", CASES, ids=[c[2] for c in CASES])
+def test_the_middle_of_the_range_clears_the_finding_and_raises_nothing(session, design, changes,
+                                                                       rule) -> None:
     base, doc = _lint(session, design, changes)
-    low, high, _, _, finding = _fitted(base)
+    low, high, _, _, finding = _fitted(base, rule)
     after, _ = _lint(session, design, changes + [_scaled_rds_on(doc, "Q1", (low * high) ** 0.5)])
     assert not after.errors, after.errors
     before = {_identity(f) for f in base.findings}
@@ -87,10 +94,11 @@ def test_the_middle_of_the_range_clears_the_window_and_raises_nothing(session) -
 
 
 @pytest.mark.parametrize("side", ["below", "above"])
-def test_two_percent_beyond_each_end_the_rule_named_for_that_side_fails(session, side) -> None:
-    design, changes = FITTING
+@pytest.mark.parametrize("design, changes, rule", CASES, ids=[c[2] for c in CASES])
+def test_two_percent_beyond_each_end_the_rule_named_for_that_side_fails(session, design, changes,
+                                                                        rule, side) -> None:
     base, doc = _lint(session, design, changes)
-    low, high, below, above, _ = _fitted(base)
+    low, high, below, above, _ = _fitted(base, rule)
     factor, named = (low / 1.02, below) if side == "below" else (high * 1.02, above)
     after, _ = _lint(session, design, changes + [_scaled_rds_on(doc, "Q1", factor)])
     failing = {f.rule for f in after.findings}
@@ -125,7 +133,8 @@ EMPTY = ["trip-below-load.yaml", "fet-cooks-below-trip.yaml", "high-threshold-fe
 def test_an_empty_range_fails_where_it_says(session, design) -> None:
     base, doc = _lint(session, design, [])
     hint = next(f.hint for f in base.findings if f.rule == "trip-current-window")
-    m = re.search(r"at a factor ([0-9.]+) on its R_DS\(on\) table, .*? ([a-z, -]+) fail, ", hint)
+    m = re.search(r"at a factor ([0-9.]+) on its R_DS\(on\) table \(.*?\), ([a-z, -]+) fail, ",
+                  hint)
     assert m, hint
     after, _ = _lint(session, design, [_scaled_rds_on(doc, "Q1", float(m.group(1)))])
     failing = {f.rule for f in after.findings}
