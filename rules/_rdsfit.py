@@ -26,9 +26,9 @@ from ._fit import Fit
 BEYOND = 1.02
 
 #: The changes the format can describe when no on-resistance fits.
-STRUCTURAL = ("a shunt-sensed protector (its window spreads only by the detection voltage and "
-              "the shunt's tolerance), another pair in parallel, or another cell (a higher "
-              "discharge and pulse rating, or more in parallel)")
+STRUCTURAL = ("a shunt-sensed protector (a window as narrow as the detection voltage's "
+              "tolerance), another pair in parallel, or another cell (higher ratings, or more "
+              "in parallel)")
 
 
 class RdsFit:
