@@ -2,6 +2,8 @@ from packwarden import Example, Figure, Q, RuleOptions, Severity, format_quantit
 from packwarden.model.limits import CELL_AGEING, FAULT_RESISTANCE
 from pydantic import Field
 
+from ._rdsfit import loads_to_clear, on_resistance_fit, on_resistance_text
+
 
 class Options(RuleOptions):
     ageing: float = Field(CELL_AGEING, ge=1, le=5, description=(
@@ -68,7 +70,7 @@ def check(ctx, options):
             f"never be cleared ({event.corner})",
             path=path, element=p.refdes, key="weakest-short-uncleared", figures=figures,
             headline="weakest short", lower_is_worse=True,
-            hint=_uncleared_hint(m, p, oc, i))
+            hint=_fitted_hint(ctx, p, oc, i) or _uncleared_hint(m, p, oc, i))
     elif event.detection == "over-current" and sc is not None and options.note_slow_clearing:
         yield ctx.finding(
             f"the weakest short to catch draws {fq(i, 'A')} ({loop}), not above the "
@@ -81,6 +83,18 @@ def check(ctx, options):
             severity=Severity.info,
             hint=f"a protector with a short-circuit trip max below {fq(i, 'A')} would catch it "
                  f"fast")
+
+
+def _fitted_hint(ctx, p, oc, i):
+    """Where the window's spread fits between the load and the weakest short and the protector
+    senses across its switches, the on-resistance every rule allows (:mod:`._rdsfit`): the
+    short itself weakens as the path's resistance rises, which the re-lint sees. None otherwise
+    (then :func:`_uncleared_hint` says why no such change fits)."""
+    load = max(w[2] for w in loads_to_clear(ctx.model, p.part.overcurrent))
+    if not (i > 0 and oc.max * load < i * oc.min):
+        return None
+    found = on_resistance_fit(ctx)
+    return on_resistance_text(ctx, found) if found is not None else None
 
 
 def _uncleared_hint(m, p, oc, i):

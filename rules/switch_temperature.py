@@ -4,6 +4,8 @@ from packwarden.model import JUNCTION_LIMIT
 from packwarden import Q
 from pydantic import Field
 
+from ._rdsfit import on_resistance_fit, on_resistance_text, parallel_fits
+
 
 class Options(RuleOptions):
     limit: Q("°C") = Field(JUNCTION_LIMIT, description=(
@@ -37,7 +39,10 @@ def check(ctx, options):
     dissipation is the detection voltage squared over the sense resistance. That last one is the
     FET that cooks at a load the protection happily permits: lowering R_DS(on) raises the
     permitted current and makes it worse, while a lower detection voltage or a lower θJA helps.
-    Each junction must stay below the limit option and the part's tj_max."""
+    Each junction must stay below the limit option and the part's tj_max. Where the protector
+    senses across these switches, the hint's on-resistance alternative is the range of
+    trip-current-window's fitted hint (every rule passes over it, or it is empty and says why),
+    never a one-sided cut, beside the θJA that would do."""
     m = ctx.model
     for h in m.switch_heat:
         part = h.part
@@ -81,12 +86,29 @@ def check(ctx, options):
         yield ctx.finding(message + bound, path=path, element=h.package, key=h.case,
                           assumptions=h.assumptions,
                           headline="junction temperature",
-                          severity=severity, figures=figures, hint=_hint(h, budget, ceiling))
+                          severity=severity, figures=figures,
+                          hint=_fitted_hint(ctx, h, budget) or _hint(h, budget, ceiling))
+
+
+def _theta_hint(budget):
+    return (f"a package or copper area with θJA ≤ {fq(budget, 'K/W')}" if budget > 0
+            else "a cooler location (the ambient alone uses up the budget)")
+
+
+def _fitted_hint(ctx, h, budget):
+    """Where the protector senses across these switches, the on-resistance alternative is the
+    range every rule allows (:mod:`._rdsfit`), not a one-sided cut: less R_DS(on) also raises the
+    current the protection permits. None where no search runs."""
+    found = on_resistance_fit(ctx)
+    if found is None or h.package not in found.packages:
+        return None
+    pair = ", or a second pair in parallel" if parallel_fits(found) else ""
+    joined = "; or " if found.interval is not None else "; "
+    return f"{_theta_hint(budget)}{pair}{joined}{on_resistance_text(ctx, found)}"
 
 
 def _hint(h, budget, ceiling):
-    theta = (f"a package or copper area with θJA ≤ {fq(budget, 'K/W')}" if budget > 0
-             else "a cooler location (the ambient alone uses up the budget)")
+    theta = _theta_hint(budget)
     if h.case == "permitted":
         return (f"{theta}, or a protector with a lower over-current detection voltage (the "
                 f"dissipation at the trip scales with its square); lower R_DS(on) alone raises the "

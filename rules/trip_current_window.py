@@ -5,6 +5,7 @@ from packwarden import Example, Figure, Severity, format_quantity as fq, rule
 from packwarden.model.fit import STEP, scaled_resistors, value_inside
 
 from ._fit import Fit
+from ._rdsfit import loads_to_clear, on_resistance_fit, on_resistance_text, parallel_fits
 
 
 @rule(id="trip-current-window",
@@ -24,7 +25,17 @@ def check(ctx, options):
     discharge rating and each FET channel's id_max as the current divides.
     Its minimum must clear every load that lasts longer than the shortest over-current delay, else
     the product cuts out in normal use. A hard short must exceed the short-circuit trip maximum,
-    or it is caught only by the slower over-current path."""
+    or it is caught only by the slower over-current path.
+
+    The hint for a window the sense resistance sets is the range every rule allows, found by
+    linting the design again at each try. With a shunt, a factor on the shunt. Sensed across the
+    switch FETs, a factor on their R_DS(on) tables, every row alike (a part of the same family in
+    another die size), shown as the per-channel value at the trip minimum's corner and as the
+    factor, with the rule that fails just beyond each end; less on-resistance lifts the minimum
+    over the loads but also the current the trip maximum permits, and the FETs' heat, the cells'
+    pulse, the fuse and the copper at it. Where no factor lets every rule pass the hint says so,
+    names the rules that fail where the minimum reaches the load, and the structural changes the
+    format can describe (a shunt-sensed protector, another pair in parallel, another cell)."""
     m = ctx.model
     p, t, stack = m.protector, m.overcurrent_trip, m.stack
     if p is None or t is None or stack is None:
@@ -41,7 +52,8 @@ def check(ctx, options):
         return
     cell = stack.part
     cell_limit = stack.discharge_rating
-    fitted = cache(lambda: _fitted_shunt_hint(ctx, m, t, _loads(m, p.part.overcurrent)))
+    fitted = cache(lambda: (_fitted_shunt_hint(ctx, m, t, loads_to_clear(m, p.part.overcurrent))
+                            or _fitted_rds_hint(ctx)))
     permitted = m.event("permitted")
     ever = permitted.current if permitted is not None else None
     held = (f" (the permitted event, at {fq(permitted.ambient, '°C')} ambient)"
@@ -72,7 +84,7 @@ def check(ctx, options):
                 headline="channel current",
                 hint=f"use FETs with id_max ≥ {fq(ich, 'A')}, add a pair in parallel, or a protector "
                      f"with a lower over-current detection voltage")
-    for what, why, current, path in _loads(m, p.part.overcurrent):
+    for what, why, current, path in loads_to_clear(m, p.part.overcurrent):
         if t.min < current:
             yield ctx.finding(
                 f"over-current trip min {fq(t.min, 'A')} is below the {what} {fq(current, 'A')}{why}: "
@@ -93,17 +105,6 @@ def check(ctx, options):
             headline="prospective short circuit",
             figures=[Figure("prospective short circuit", psc, "A"), Figure("short-circuit trip max", sc.max, "A")],
             hint="lower the path resistance, or choose a protector with a lower short-circuit detection")
-
-
-def _loads(m, oc):
-    """The loads the trip minimum must clear: (what, why, current, path)."""
-    loads = [("continuous load", "", m.design.load.continuous, ("load", "continuous"))]
-    peak = m.design.load.peak
-    if peak is not None and peak.duration > oc.delay.low:
-        loads.append(("peak load", f", lasting {fq(peak.duration, 's')}, longer than the shortest "
-                      f"over-current delay {fq(oc.delay.low, 's')}", peak.current,
-                      ("load", "peak", "current")))
-    return loads
 
 
 def _sense_finding(identity):
@@ -145,6 +146,16 @@ def _fitted_shunt_hint(ctx, m, t, loads):
             f"{fq(now * interval.high, 'Ω', toward='down')} at its {parts[0].tol:g} % "
             f"tolerance; now {fq(now, 'Ω')}), or a protector with a "
             f"{'higher' if interval.high < 1 else 'lower'} over-current detection voltage")
+
+
+def _fitted_rds_hint(ctx):
+    """The switches' on-resistance every rule allows, where the protector senses across them
+    (:mod:`._rdsfit`), with the alternatives that stay inside it; None where no search runs."""
+    found = on_resistance_fit(ctx)
+    if found is None:
+        return None
+    pair = "; or a second pair in parallel (as a factor 0.5)" if parallel_fits(found) else ""
+    return on_resistance_text(ctx, found) + pair
 
 
 def _shunts(m):

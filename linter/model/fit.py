@@ -11,11 +11,17 @@ ratings the window must stay within bound it from below).
 from __future__ import annotations
 
 import math
+import typing
+from enum import Enum
 from typing import Any, Callable, Iterable
 
-from ..records import record
+from pydantic import BaseModel
 
-__all__ = ["Interval", "factor_interval", "value_inside", "scaled_resistors", "STEP"]
+from ..records import record
+from ..schema import Toleranced, quantity_of
+
+__all__ = ["Interval", "factor_interval", "value_inside", "scaled_resistors", "scaled_rds_on",
+           "STEP"]
 
 #: How finely an edge is found, as a ratio between the last failing and passing factor.
 EDGE_RATIO = 1.01
@@ -90,3 +96,86 @@ def scaled_resistors(netlist: Any, refdes: Iterable[str], factor: float) -> list
         written["pins"] = [c.pins[k] for k in sorted(c.pins)]
         changes.append((".".join(c.path), written))
     return changes
+
+
+def scaled_rds_on(netlist: Any, refdes: Iterable[str], factor: float) -> list[tuple[str, Any]]:
+    """The changes (dotted path, value) that write each FET of ``refdes`` inline with every row
+    of its R_DS(on) table times ``factor`` (typ and max alike, the gate voltages as they are: a
+    part of the same family in another die size), every other field and its pins as they are."""
+    changes = []
+    for ref in refdes:
+        c = netlist.components[ref]
+        written = written_part(c.part)
+        written["rds_on"] = [{k: (_scaled_text(v, factor) if k != "vgs" else v)
+                              for k, v in row.items()} for row in written["rds_on"]]
+        written["pins"] = dict(c.pins)
+        changes.append((".".join(c.path), written))
+    return changes
+
+
+def _scaled_text(text: str, factor: float) -> str:
+    number, unit = text.split(" ", 1)
+    return f"{float(number) * factor:.12g} {unit}"
+
+
+def written_part(part: BaseModel) -> dict[str, Any]:
+    """A validated part as the format writes it: each quantity as text in its field's unit, so
+    it validates again to the same values."""
+    return _written(part, type(part))
+
+
+def _written(value: Any, annotation: Any) -> Any:
+    if isinstance(value, Toleranced):
+        _, unit = _unit(annotation) or ("", "")
+        return {k: _quantity(v, unit) for k in ("min", "typ", "max")
+                for v in [getattr(value, k)] if v is not None}
+    if isinstance(value, BaseModel):
+        fields = type(value).model_fields
+        return {(f.alias or name): _written(getattr(value, name), _annotated(f))
+                for name, f in fields.items() if getattr(value, name) is not None}
+    if isinstance(value, Enum):
+        return value.value
+    if isinstance(value, (list, tuple)):
+        item = next(iter(_arguments(annotation, list)), Any)
+        return [_written(v, item) for v in value]
+    if isinstance(value, dict):
+        return {k: _written(v, Any) for k, v in value.items()}
+    if isinstance(value, float):
+        found = _unit(annotation)
+        return _quantity(value, found[1]) if found else value
+    return value
+
+
+def _annotated(field: Any) -> Any:
+    """A field's annotation with its markers (pydantic keeps them apart in ``metadata``)."""
+    if field.metadata:
+        return typing.Annotated[(field.annotation, *field.metadata)]
+    return field.annotation
+
+
+def _arguments(annotation: Any, origin: type) -> tuple:
+    """The arguments of ``annotation`` where it is (or holds, in a union) ``origin[...]``."""
+    if typing.get_origin(annotation) is origin:
+        return typing.get_args(annotation)
+    for arg in typing.get_args(annotation):
+        found = _arguments(arg, origin)
+        if found:
+            return found
+    return ()
+
+
+def _unit(annotation: Any) -> tuple[str, str] | None:
+    """The quantity marker of ``annotation``, looked for through Annotated and unions."""
+    if typing.get_origin(annotation) is typing.Annotated:
+        found = quantity_of(annotation.__metadata__)
+        if found:
+            return found
+    for arg in typing.get_args(annotation):
+        found = _unit(arg)
+        if found:
+            return found
+    return None
+
+
+def _quantity(value: float, unit: str) -> Any:
+    return f"{value!r} {unit}" if unit else value
