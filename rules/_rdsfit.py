@@ -26,9 +26,10 @@ from ._fit import Fit
 BEYOND = 1.02
 
 #: The changes the format can describe when no on-resistance fits.
-STRUCTURAL = ("a shunt-sensed protector (a window as narrow as the detection voltage's "
-              "tolerance), another pair in parallel, or another cell (higher ratings, or more "
-              "in parallel)")
+#: A second pair in parallel is not among them: it halves the on-resistance, a factor the
+#: search has already tried.
+STRUCTURAL = ("instead a shunt-sensed protector (a window as narrow as the detection voltage's "
+              "tolerance) or another cell (higher ratings, or more in parallel)")
 
 
 class RdsFit:
@@ -123,11 +124,11 @@ def on_resistance_text(ctx: Any, found: RdsFit) -> str:
         what, load = found.load
         failing = ", ".join(found.below) or "some rule"
         return (f"no on-resistance of {names} lets every rule pass: at a factor "
-                f"{found.start:.3g} on its R_DS(on) table (the over-current trip min over that "
-                f"factor is the {what} {fq(load, 'A')}), {failing} "
-                f"fail, the current the trip max permits rising as the on-resistance falls; more "
-                f"on-resistance brings the trip min below the load (trip-current-window), and "
-                f"none down to a factor {found.start / REACH:.3g} passes; {STRUCTURAL}")
+                f"{found.start:.3g} on its R_DS(on) table, where the over-current trip min "
+                f"reaches the {what} {fq(load, 'A')}, {failing} fail at the current the trip "
+                f"max then permits, which only rises as the on-resistance falls (tried down to "
+                f"a factor {found.start / REACH:.3g}); more on-resistance leaves the trip min "
+                f"below the load; {STRUCTURAL}")
     sides = []
     if found.below:
         sides.append(f"below it {', '.join(found.below)} fails")

@@ -35,7 +35,8 @@ def check(ctx, options):
     over the loads but also the current the trip maximum permits, and the FETs' heat, the cells'
     pulse, the fuse and the copper at it. Where no factor lets every rule pass the hint says so,
     names the rules that fail where the minimum reaches the load, and the structural changes the
-    format can describe (a shunt-sensed protector, another pair in parallel, another cell)."""
+    format can describe (a shunt-sensed protector, another cell; a second pair in parallel is
+    a factor the search has tried)."""
     m = ctx.model
     p, t, stack = m.protector, m.overcurrent_trip, m.stack
     if p is None or t is None or stack is None:

@@ -133,8 +133,8 @@ EMPTY = ["trip-below-load.yaml", "fet-cooks-below-trip.yaml", "high-threshold-fe
 def test_an_empty_range_fails_where_it_says(session, design) -> None:
     base, doc = _lint(session, design, [])
     hint = next(f.hint for f in base.findings if f.rule == "trip-current-window")
-    m = re.search(r"at a factor ([0-9.]+) on its R_DS\(on\) table \(.*?\), ([a-z, -]+) fail, ",
-                  hint)
+    m = re.search(r"at a factor ([0-9.]+) on its R_DS\(on\) table, where .*?, ([a-z, -]+) fail "
+                  r"at ", hint)
     assert m, hint
     after, _ = _lint(session, design, [_scaled_rds_on(doc, "Q1", float(m.group(1)))])
     failing = {f.rule for f in after.findings}
