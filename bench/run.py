@@ -82,6 +82,9 @@ TARGET_EDITOR = 1.0  # s from an edit to its diagnostics in the editor (issue 17
 TARGET_YAMLLINT_RATIO = 2.0  # cold lint of the single-cell example against yamllint's
 TARGET_FLOOR_RATIO_EVENTS = 8.0  # batch CPU per design against libyaml's compose of it
 TARGET_RELINT = {"single": 0.005, "large": 0.050}  # s, the editor's warm re-lint
+# s CPU of `packwarden check` of the 1000-component scaling pack, its hints' re-lint searches
+# included (issue 18: the search budget, pipeline.FIT_BUDGET, keeps a large design's check cheap)
+TARGET_FIT_PACK = {"components": 1000, "cpu_s": 1.0}
 
 FULL = dict(single=5000, pack4s2p=4900, large=100, scaling=[10, 20, 50, 100, 200, 500, 1000, 2000],
             cold_runs=9, scaling_runs=5, mc_samples=100_000, mc_runs=3, floor_runs=3,
@@ -661,6 +664,19 @@ def editor_round_trip(trips: int) -> dict:
     return asyncio.run(run())
 
 
+def fit_pack(files: list[Path], env: dict, runs: int) -> dict:
+    """CPU (and wall) time of ``packwarden check`` of the largest scaling pack up to
+    :data:`TARGET_FIT_PACK`'s size, hints fitted within the design's budget of re-lints, median
+    of ``runs`` processes."""
+    sized = {int(f.stem.split("-")[-1]): f for f in files}
+    size = max((n for n in sized if n <= TARGET_FIT_PACK["components"]), default=None)
+    if size is None:
+        return {"components": None}
+    times = [timed_cpu(packwarden_cmd() + ["check", str(sized[size])], env) for _ in range(runs)]
+    return {"components": size, "cpu_s": statistics.median(c for _, c in times),
+            "wall_s": statistics.median(w for w, _ in times), "runs": runs}
+
+
 def scaling(files: list[Path], runs: int) -> dict:
     """Per design of the series: in-process lint with the part library already read (as in a
     batch), median of ``runs``, and libyaml's compose of the same file."""
@@ -778,6 +794,17 @@ def targets(res: dict) -> list[tuple[str, str, str]]:
     pairs = ", ".join(f"{r['from']}->{r['to']}: {r['time_ratio']:.1f}x" for r in s["decade_ratios"])
     rows.append(("10x components <= 12x time", pairs or "no decade in the series",
                  verdict(None if worst is None else worst <= TARGET_SCALING)))
+    fp = res.get("fit_pack", {})
+    if fp.get("components") == TARGET_FIT_PACK["components"]:
+        rows.append((f"check of the {fp['components']}-component pack <= "
+                     f"{TARGET_FIT_PACK['cpu_s']:g} s CPU, hints fitted (issue 18)",
+                     f"{fp['cpu_s']:.3f} s CPU ({fp['wall_s']:.3f} s wall), median of {fp['runs']}",
+                     verdict(fp["cpu_s"] <= TARGET_FIT_PACK["cpu_s"])))
+    elif fp.get("components"):
+        rows.append((f"check of the {TARGET_FIT_PACK['components']}-component pack <= "
+                     f"{TARGET_FIT_PACK['cpu_s']:g} s CPU, hints fitted (issue 18)",
+                     f"not in this corpus; {fp['components']} components: {fp['cpu_s']:.3f} s CPU",
+                     "n/a"))
     mem = b.get("peak_tree_rss_mb", b["max_single_process_rss_mb"])
     rows.append((f"peak memory < 150 MB ({b['designs']} designs)",
                  f"{mem:.0f} MB RSS of the process tree"
@@ -1019,6 +1046,7 @@ def _run(args, cfg: dict, cores: int, tmp: Path, root: Path) -> int:
 
     print("scaling series ...", flush=True)
     res["scaling"] = scaling(files["scaling"], cfg["scaling_runs"])
+    res["fit_pack"] = fit_pack(files["scaling"], env, cfg["scaling_runs"])
 
     print(f"Monte Carlo yield, {cfg['mc_samples']:,} samples ...", flush=True)
     # The example with the shunt between B- and the FET sources, the layout most multi-cell

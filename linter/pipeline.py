@@ -290,29 +290,74 @@ def hints_unsearched() -> Iterator[None]:
         _FITTING.reset(token)
 
 
-#: The most components a design may have for a rule to fit its hint by linting it again: a
-#: search takes up to about eighty lints, which on a 1000-component pack took a check from 0.3 s
-#: to 13 s; a larger design keeps the hint computed from the window alone.
-FIT_MAX_COMPONENTS = 60
+#: Designs of at most this many components search their hints in full, as many re-lints as
+#: the searches take (about eighty each at most, ``model.fit.FULL_SEARCH_LINTS``; the flawed
+#: examples take at most 23, a re-lint of such a design some 10-25 ms).
+FIT_FULL_COMPONENTS = 60
+#: A larger design's budget of re-lints for its hints, in components re-linted: a design of n
+#: components gets ``FIT_BUDGET // (n + FIT_LINT_FIXED)`` re-lints (a re-lint costs about in
+#: proportion to n plus a fixed share: measured some 12 ms plus 0.27 ms per component, so the
+#: fixed share is worth about 50 components). Counted, never timed, so the report does not
+#: depend on the machine. A search cut short by it says so in its hint (a coarser range); one
+#: left no re-lint to try a value keeps the hint computed from the window alone. On the
+#: benchmark's 1000-component pack that is no search at all, on its 370-component pack a few
+#: re-lints (bench/run.py holds the pack's check to its target).
+FIT_BUDGET = 2000
+FIT_LINT_FIXED = 50
+
+
+def fit_budget(components: int) -> int | None:
+    """The re-lints a check of a design of ``components`` components may spend on its hints
+    (None: no bound); below two (the design as it is and one value) none."""
+    if components <= FIT_FULL_COMPONENTS:
+        return None
+    lints = FIT_BUDGET // (components + FIT_LINT_FIXED)
+    return lints if lints >= 2 else 0
+
+
+class _Relinter:
+    """The design linted again with changes, a list of (dotted path, value) each set there, or
+    added where the path starts with "+" (None where they do not apply, or where the check's
+    budget of re-lints is spent: ``left``, None for no bound); the design as it is (no
+    changes) is linted once."""
+
+    __slots__ = ("session", "path", "shown", "doc", "components", "budget", "left", "_as_is")
+
+    def __init__(self, session: Session, path: Path, shown: str, doc: Document,
+                 components: int) -> None:
+        self.session, self.path, self.shown, self.doc = session, path, shown, doc
+        self.components = components
+        self.budget = self.left = fit_budget(components)
+        self._as_is: list = []
+
+    def __call__(self, changes: list) -> DesignResult | None:
+        if not changes and self._as_is:
+            return self._as_is[0]
+        if self.left is not None and self.left < 1:
+            return None
+        from .overrides import Override, OverrideError, apply_overrides  # only when a hint searches
+        try:
+            changed = apply_overrides(self.doc, [Override("add", p[1:], v) if p.startswith("+")
+                                                 else Override("set", p, v) for p, v in changes])
+        except OverrideError:
+            return None
+        if self.left is not None:
+            self.left -= 1
+        with hints_unsearched():
+            result = lint_file(self.session, self.path, self.shown, document=changed)
+        if not changes:
+            self._as_is.append(result)
+        return result
 
 
 def _relinter(session: Session, path: Path, shown: str, doc: Document,
               components: int = 0) -> Callable[[list], DesignResult | None] | None:
-    """The design linted again with changes, a list of (dotted path, value) each set there
-    (None where they do not apply), for a rule that fits its hint to what every rule allows;
-    None inside such a lint, and for a design of more than :data:`FIT_MAX_COMPONENTS`."""
-    if _FITTING.get() or components > FIT_MAX_COMPONENTS:
+    """The design linted again with changes (:class:`_Relinter`), for a rule that fits its hint
+    to what every rule allows; None inside such a lint, and where the budget allows no re-lint
+    (:func:`fit_budget`)."""
+    if _FITTING.get() or fit_budget(components) == 0:
         return None
-
-    def relint(changes: list) -> DesignResult | None:
-        from .overrides import Override, OverrideError, apply_overrides  # only when a hint searches
-        try:
-            changed = apply_overrides(doc, [Override("set", p, v) for p, v in changes])
-        except OverrideError:
-            return None
-        with hints_unsearched():
-            return lint_file(session, path, shown, document=changed)
-    return relint
+    return _Relinter(session, path, shown, doc, components)
 
 
 def _nowhere(path: tuple) -> Any:

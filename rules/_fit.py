@@ -11,7 +11,7 @@ from __future__ import annotations
 
 from typing import Any, Callable
 
-from packwarden.model.fit import Interval, factor_interval
+from packwarden.model.fit import EDGE_RATIO, Interval, SearchSpent, factor_interval
 
 #: What a blocking rule asks of the structure, when no value of the searched part lets every
 #: rule pass: changes the design format can describe.
@@ -43,11 +43,17 @@ def _standing(result: Any) -> set[tuple] | None:
 class Fit:
     """A search for the factor on some design values that clears ``clears`` (a test on a
     finding's identity) and raises nothing new; None from :meth:`interval` when no search can run
-    (no re-lint here, or the design does not lint as it is)."""
+    (no re-lint here, or the design does not lint as it is).
+
+    A check's re-lints are budgeted (``relint.left``, :func:`packwarden.pipeline.fit_budget`):
+    a search takes at most what is left, and states a coarser resolution when that cut it
+    short (:meth:`resolution_note`); ``spent`` is set when the budget ran out before any
+    factor passed, and then nothing is known."""
 
     def __init__(self, relint: Callable[[list], Any] | None,
                  changes: Callable[[float], list], clears: Callable[[tuple], bool]):
         self.relint, self.changes, self.clears = relint, changes, clears
+        self.spent = False
         self.before = _standing(relint([])) if relint is not None else None
 
     def blockers(self, factor: float) -> set[tuple] | None:
@@ -65,7 +71,21 @@ class Fit:
     def interval(self, start: float) -> Interval | None:
         if self.before is None:
             return None
-        return factor_interval(self.passes, start)
+        try:
+            return factor_interval(self.passes, start, getattr(self.relint, "left", None))
+        except SearchSpent:
+            self.spent = True
+            return None
+
+    def resolution_note(self, found: Interval) -> str:
+        """What a budget-cut search leaves unsaid, for the hint ("" after a full search)."""
+        if found.resolution <= EDGE_RATIO * (1 + 1e-9):
+            return ""
+        size = getattr(self.relint, "components", 0)
+        edges = ("its edges not searched" if found.resolution == float("inf") else
+                 f"its edges known to within × {found.resolution:.3g}")
+        return (f"; the range is a passing part of the whole, {edges}: a design of {size} "
+                f"components gets a search of {getattr(self.relint, 'budget', 0)} lints")
 
     def structural(self, factor: float) -> str:
         """The structural changes that answer what blocks ``factor``, named by their rules."""

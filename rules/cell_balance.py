@@ -166,13 +166,16 @@ def _fitted_bleed(ctx, m, cb, need_bleed):
     # the bleed current falls as the resistance rises: no factor above the one that bleeds
     # just enough passes, so the search starts there and steps down
     found = fit.interval(cb.worst.bleed / need_bleed)
+    if fit.spent:
+        return ""
     names = ", ".join(bleeders)
     if found is None:
         return f"; no value of {names} alone lets every rule pass"
     if len(values) > 1:
         return (f"; or scale {names} by a factor {found.low:.3g}-{found.high:.3g} (every rule "
-                f"passes over that range)")
+                f"passes over that range{fit.resolution_note(found)})")
     now = values.pop()
     return (f"; or bleed resistors {names} of {fq(value_inside(now, found), 'Ω')} each (every "
             f"rule passes from {fq(now * found.low, 'Ω', toward='up')} to "
-            f"{fq(now * found.high, 'Ω', toward='down')}; now {fq(now, 'Ω')})")
+            f"{fq(now * found.high, 'Ω', toward='down')}; now {fq(now, 'Ω')}"
+            f"{fit.resolution_note(found)})")

@@ -114,12 +114,15 @@ def _fitted_fast_hint(ctx, p, fast, sc):
     # minimum at this typical value, and no higher one passes
     highest = fast.detect.max * sc.min / fast.max - tol
     found = fit.interval(highest / typ)
+    if fit.spent:
+        return None
     if found is None:
         return (f"no fast detection with a ± {fq(tol, 'V')} tolerance lets every rule pass"
                 f"{fit.structural(highest / typ / 1.05)}; or a fast level of a narrower tolerance")
     return (f"a fast detection typ of {fq(value_inside(typ, found), 'V')} (every rule passes from "
             f"{fq(typ * found.low, 'V', toward='up')} to {fq(typ * found.high, 'V', toward='down')}"
-            f" at its ± {fq(tol, 'V')} tolerance; now {fq(typ, 'V')}) separates the windows")
+            f" at its ± {fq(tol, 'V')} tolerance; now {fq(typ, 'V')}{fit.resolution_note(found)}) "
+            f"separates the windows")
 
 
 def _field(ctx, p, *keys):

@@ -130,6 +130,8 @@ def _fitted_shunt_hint(ctx, m, t, loads):
     # to the highest load passes, so the search starts there and steps down
     start = t.min / load if load > 0 else 1.0
     interval = fit.interval(start)
+    if fit.spent:
+        return None
     parts = [m.netlist.components[r].part for r in shunts]
     names = ", ".join(shunts)
     if interval is None:
@@ -140,12 +142,12 @@ def _fitted_shunt_hint(ctx, m, t, loads):
                 f"too much for the path{fit.structural(start / STEP)}")
     if len(shunts) > 1:
         return (f"scale {names} by a factor {interval.low:.3g}-{interval.high:.3g} (every rule "
-                f"passes over that range)")
+                f"passes over that range{fit.resolution_note(interval)})")
     now = parts[0].value
     return (f"use {shunts[0]} of {fq(value_inside(now, interval), 'Ω')} (every rule passes "
             f"from {fq(now * interval.low, 'Ω', toward='up')} to "
             f"{fq(now * interval.high, 'Ω', toward='down')} at its {parts[0].tol:g} % "
-            f"tolerance; now {fq(now, 'Ω')}), or a protector with a "
+            f"tolerance; now {fq(now, 'Ω')}{fit.resolution_note(interval)}), or a protector with a "
             f"{'higher' if interval.high < 1 else 'lower'} over-current detection voltage")
 
 

@@ -21,7 +21,7 @@ from ..records import record
 from ..schema import Toleranced, quantity_of
 
 __all__ = ["Interval", "factor_interval", "value_inside", "scaled_resistors", "scaled_rds_on",
-           "STEP"]
+           "STEP", "SearchSpent", "FULL_SEARCH_LINTS"]
 
 #: How finely an edge is found, as a ratio between the last failing and passing factor.
 EDGE_RATIO = 1.01
@@ -39,34 +39,95 @@ class Interval:
 
     low: float
     high: float
+    #: The ratio within which each edge is known: :data:`EDGE_RATIO` for a full search, more
+    #: where a budget of judgements cut the bisection short (the edges shown are still factors
+    #: that passed, so the range is narrower than the true one, never wider).
+    resolution: float = EDGE_RATIO
 
 
-def factor_interval(passes: Callable[[float], bool], start: float) -> Interval | None:
+class SearchSpent(Exception):
+    """The budget of judgements ran out before any factor passed: nothing is known, which is
+    not the same as no factor passing."""
+
+
+#: The most judgements a search takes: the first look's steps from ``start`` down to
+#: ``start / REACH`` (log 20 / log 1.05, 62) and each edge's bisection to :data:`EDGE_RATIO`
+#: (log2(log 20 / log 1.01), 9 each, and one look at the far end).
+FULL_SEARCH_LINTS = 82
+
+
+def factor_interval(passes: Callable[[float], bool], start: float,
+                    lints: int | None = None) -> Interval | None:
     """The interval of factors around the first passing one at or below ``start`` (looked for
     in steps of :data:`STEP` down to ``start / REACH``), its edges found by bisection to
-    :data:`EDGE_RATIO`; None when no factor in that reach passes."""
+    :data:`EDGE_RATIO`; None when no factor in that reach passes.
+
+    ``lints`` bounds the judgements (None: no bound; a bound of :data:`FULL_SEARCH_LINTS` or
+    more is the full search). Below that the first look takes longer steps (below) and what it
+    needs of the bound (raising :class:`SearchSpent` when it runs out, or finds nothing, before
+    a factor passes); the rest are shared by the two edges, whose bisection stops when its
+    share is spent, at the resolution the interval states."""
     if not (start > 0 and math.isfinite(start)):
         return None
-    inside = start
-    while not passes(inside):
-        inside /= STEP
-        if inside < start / REACH:
-            return None
-    return Interval(_edge(passes, inside, 1.0 / REACH), _edge(passes, inside, REACH))
+    left = [math.inf if lints is None else lints]
+
+    def judged(factor: float) -> bool:
+        if left[0] < 1:
+            raise SearchSpent
+        left[0] -= 1
+        return passes(factor)
+
+    if lints is None or lints >= FULL_SEARCH_LINTS:
+        inside = start
+        while not judged(inside):
+            inside /= STEP
+            if inside < start / REACH:
+                return None
+        low, low_ratio = _edge(judged, inside, 1.0 / REACH)
+        high, high_ratio = _edge(judged, inside, REACH)
+        return Interval(low, high, max(low_ratio, high_ratio, EDGE_RATIO))
+    # A budget too small for the full search: the first look steps away from ``start`` in
+    # steps that double (× STEP, STEP², STEP⁴, ...), fine where a range usually begins (the
+    # rules start at the edge the model computes) and reaching ``start / REACH`` in six; a look
+    # that finds none may have stepped over a narrow range, so it says nothing (SearchSpent).
+    # The upper edge is then bisected from the last failing factor of the look.
+    inside, above, jump = start, None, STEP
+    while not judged(inside):
+        if inside / jump < start / REACH:
+            raise SearchSpent
+        above, inside, jump = inside, inside / jump, jump * jump
+    low, low_ratio = _edge(judged, inside, 1.0 / REACH, math.ceil(left[0] / 2))
+    if above is None:
+        high, high_ratio = _edge(judged, inside, REACH, left[0])
+    else:
+        high, high_ratio = _bisect(judged, inside, above, left[0])
+    return Interval(low, high, max(low_ratio, high_ratio, EDGE_RATIO))
 
 
-def _edge(passes: Callable[[float], bool], inside: float, span: float) -> float:
-    """The last passing factor from ``inside`` towards ``inside × span``."""
+def _edge(passes: Callable[[float], bool], inside: float, span: float,
+          steps: float = math.inf) -> tuple[float, float]:
+    """The last passing factor from ``inside`` towards ``inside × span``, in at most ``steps``
+    judgements, and the ratio within which it is known (infinite where none was spent)."""
+    if steps < 1:
+        return inside, math.inf
     outside = inside * span
     if passes(outside):
-        return outside
-    while max(inside, outside) / min(inside, outside) > EDGE_RATIO:
+        return outside, EDGE_RATIO
+    return _bisect(passes, inside, outside, steps - 1)
+
+
+def _bisect(passes: Callable[[float], bool], inside: float, outside: float,
+            steps: float) -> tuple[float, float]:
+    """Bisection between a passing ``inside`` and a failing ``outside`` to :data:`EDGE_RATIO`
+    or ``steps`` judgements: the last passing factor and the ratio it is known within."""
+    while max(inside, outside) / min(inside, outside) > EDGE_RATIO and steps >= 1:
         middle = math.sqrt(inside * outside)
+        steps -= 1
         if passes(middle):
             inside = middle
         else:
             outside = middle
-    return inside
+    return inside, max(max(inside, outside) / min(inside, outside), EDGE_RATIO)
 
 
 def value_inside(now: float, interval: Interval) -> float:
