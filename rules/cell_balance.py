@@ -131,6 +131,11 @@ def check(ctx, options):
     more = (f"bleed at least {fq(need_bleed, 'A')} (bleed resistor and switch at most "
             f"{fq(cb.bleed_voltage / need_bleed, 'Ω')} in all) or balance longer each charge"
             f"{_fitted_bleed(ctx, m, cb, need_bleed)}")
+    if not worst.bleed > 0.0:  # no resistor value can bleed a level no switch serves
+        more = (f"no bleed resistor value helps: no bleed switch serves level {worst.level}; a "
+                f"protector or balancer with a bleed switch for every level, bleeding at least "
+                f"{fq(need_bleed, 'A')} there (bleed resistor and switch at most "
+                f"{fq(cb.bleed_voltage / need_bleed, 'Ω')} in all)")
     if cb.holds and cb.imbalance_to_detection is not None:
         more = (f"charge more often, so that one cycle's drift stays below "
                 f"{fq(cb.imbalance_to_detection, 'Ah')}")

@@ -1,3 +1,5 @@
+import math
+
 from packwarden import Example, Figure, NoOptions, Severity, format_quantity as fq, rule
 
 
@@ -68,7 +70,8 @@ def check(ctx, options):
                 "no state of charge lasts that long at this drain")
     largest = max(first.drains, key=lambda d: d.current)
     hint = (f"{soc_hint}; or cut the largest drain ({largest.text()}); or recharge every "
-            f"{fq(first.months, 'months')} in storage")
+            f"{fq(first.months, 'months')} in storage (storage.duration ≤ "
+            f"{_down(first.months)} months)")
     if b.duration > to_limit:
         tail = (f"{fq(after.months, 'months')} later it falls below the cell's lower limit "
                 f"{fq(b.lower_limit, 'V')} (drains after the cut-off: "
@@ -94,3 +97,10 @@ def check(ctx, options):
         headline="months to cut-off", lower_is_worse=True,
         assumptions=b.assumptions,
         severity=Severity.warning, hint=hint)
+
+
+def _down(months: float) -> str:
+    """``months`` to three significant figures, rounded down (a storage period that must be at
+    most ``months`` still is as written)."""
+    step = 10.0 ** (math.floor(math.log10(months)) - 2)
+    return f"{math.floor(months / step * (1 + 1e-12)) * step:.3g}"

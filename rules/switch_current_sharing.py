@@ -54,6 +54,6 @@ def check(ctx, options):
             headline="worst share",
             figures=[Figure("worst share", s.worst, "A"), Figure("equal share", s.equal, "A"),
                      Figure(rating, limit, "A"), Figure("share factor", sp.factor, "")],
-            hint=f"use FETs with {rating} ≥ {fq(s.worst, 'A')}, or with a tighter on-resistance "
+            hint=f"use FETs with {rating} ≥ {fq(s.worst, 'A', toward='up')}, or with a tighter on-resistance "
                  f"spread, or add a package in parallel")
 

@@ -1,7 +1,11 @@
+import math
+
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import inrush
 from packwarden.model.events import precharge_paths
 from pydantic import Field
+
+from ._fit import Fit
 
 
 class Options(RuleOptions):
@@ -69,7 +73,7 @@ def check(ctx, options):
                      Figure(f"{t.detection} trip", limit, "A"),
                      Figure("time above trip", above, "s"),
                      Figure("delay minimum", t.delay_min, "s")],
-            hint=_trip_hint(ev, t, at))
+            hint=_trip_hint(ctx, ev, t, at))
     if pre is None:
         return
     c = m.netlist.components[pre.refdes]
@@ -108,7 +112,7 @@ def _location(m, ev):
     return m.netlist.components[where].path, where
 
 
-def _trip_hint(ev, t, at):
+def _trip_hint(ctx, ev, t, at):
     pre = ev.precharge
     if pre is not None:
         # The main switches may close once the step they make stays below the trip minimum:
@@ -116,9 +120,123 @@ def _trip_hint(ev, t, at):
         d = inrush.time_to_fall(ev.voltage, pre.time_constant, at.loop_resistance * at.trip_min)
         return (f"close the main switches ≥ {fq(d, 's')} after the pre-charge switch (its "
                 f"shortest delay), or use a lower pre-charge resistance")
+    return _precharge_hint(ctx, ev, t)
+
+
+#: The pre-charge resistor's tolerance the hint proposes, % (wire-wound and ceramic pulse
+#: resistors are commonly ± 5 % [practice]).
+PRECHARGE_TOL = 5.0
+#: The hint keeps the pre-charge peak at this share of the over-current trip minimum: a choice,
+#: not a limit (any resistance whose peak stays below the minimum passes the trip); an order of
+#: magnitude below keeps the pulse clear of the window and the resistor's peak power in the
+#: hundreds of watts rather than kilowatts [practice].
+PRECHARGE_PEAK_SHARE = 0.1
+
+
+def _up(value: float, digits: int = 2) -> float:
+    """``value`` rounded up to ``digits`` significant figures (a rating or a delay that must be
+    at least ``value`` still is when shown)."""
+    step = 10.0 ** (math.floor(math.log10(value)) - digits + 1)
+    return math.ceil(value / step * (1 - 1e-12)) * step
+
+
+def _e12_above(value: float) -> float:
+    """The smallest E12 resistance (IEC 60063) at or above ``value``."""
+    decade = 10.0 ** math.floor(math.log10(value))
+    for m in (1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2, 10.0):
+        if m * decade >= value * (1 - 1e-12):
+            return m * decade
+    return 10.0 * decade
+
+
+def precharge_proposal(m, ev, floor: float, factor: float = 1.0) -> tuple[dict, float]:
+    """The pre-charge path the hint proposes, as the design format writes it: a resistance
+    whose peak stays at :data:`PRECHARGE_PEAK_SHARE` of the over-current trip minimum ``floor``
+    (times ``factor``, the search's), the shortest delay after which closing the main switches
+    stays below the trip minimum at the highest loop resistance, and the resistor's pulse
+    ratings for ½CV² and the peak power V²/R at its lowest resistance; and that lowest
+    resistance."""
+    ohms = _e12_above(ev.voltage / (floor * PRECHARGE_PEAK_SHARE)) * factor
+    r_min, r_max = ohms * (1 - PRECHARGE_TOL / 100.0), ohms * (1 + PRECHARGE_TOL / 100.0)
+    hot = max((c for x in ev.trips for c in x.corners), key=lambda c: c.loop_resistance)
+    tau = (r_max + hot.loop_resistance) * ev.capacitance
+    delay = _up(max(inrush.time_to_fall(ev.voltage, tau, hot.loop_resistance * min(
+        c.trip_min for x in ev.trips for c in x.corners)), tau))
+    return {"kind": "precharge",
+            "resistance": {"typ": f"{ohms:.4g} Ω", "tol": f"{PRECHARGE_TOL:g} %"},
+            "delay": f"{delay * 1e3:.4g} ms",
+            "pulse_energy": f"{_up(ev.energy):.4g} J",
+            "pulse_power": f"{_up(ev.voltage ** 2 / r_min):.4g} W",
+            "pins": _bridge(m)}, r_min
+
+
+def _bridge(m) -> list[str] | None:
+    """Two nets of the design a pre-charge path bridges the discharge switches between: the
+    discharge channel's end away from the charge switches, and its other end, or, where that is
+    inside a package (a common-drain pair's drain), the far end of the charge channel; None
+    where the design has no such nets."""
+    discharge = m.channels_of("discharge")
+    if not discharge:
+        return None
+    d, charge = discharge[0], m.channels_of("charge")
+    charge_ends = {n for ch in charge for n in (ch.drain, ch.source)}
+    outer, inner = (d.drain, d.source) if d.source in charge_ends else (d.source, d.drain)
+    if inner not in m.netlist.nets:
+        inner = next((n for ch in charge for n in (ch.source, ch.drain)
+                      if n not in (d.drain, d.source) and n in m.netlist.nets), None)
+    if outer not in m.netlist.nets or inner is None:
+        return None
+    return [outer, inner]
+
+
+def _free_refdes(m) -> str:
+    n = 1
+    while f"PR{n}" in m.netlist.components:
+        n += 1
+    return f"PR{n}"
+
+
+def _precharge_hint(ctx, ev, t):
+    """A pre-charge path, in the format's words, whose values every rule allows: proposed from
+    the trip window and the bank, then linted again with the path added (where a re-lint can
+    run); a search over its resistance when the first proposal does not pass."""
+    m = ctx.model
     oc = next((x for x in ev.trips if x.detection == "over-current"), None)
     floor = min(c.trip_min for c in (oc or t).corners)
-    return (f"add a pre-charge path around the discharge switches (kind: precharge): a resistor "
-            f"≥ {fq(ev.voltage / floor, 'Ω')} keeps its current below the over-current trip "
-            f"minimum (tens of ohms are usual [practice]), rated for a ½CV² = "
-            f"{fq(ev.energy, 'J')} pulse, with the main switches closing some 5·R·C later")
+    refdes = _free_refdes(m)
+    if not (floor > 0 and math.isfinite(floor) and ev.energy > 0):
+        return (f"add a pre-charge path around the discharge switches (kind: precharge), rated "
+                f"for a ½CV² = {fq(ev.energy, 'J')} pulse")
+    if _bridge(m) is None:
+        return (f"add a pre-charge path around the discharge switches (kind: precharge): a "
+                f"resistor ≥ {fq(ev.voltage / floor, 'Ω')} keeps its current below the "
+                f"over-current trip minimum (tens of ohms are usual [practice]), rated for a "
+                f"½CV² = {fq(ev.energy, 'J')} pulse")
+    factor, tail = 1.0, "; every rule passes with it added"
+    if ctx.relint is not None:
+        fit = Fit(ctx.relint, lambda k: [(f"+components.{refdes}", precharge_proposal(m, ev, floor, k)[0])],
+                  lambda i: i[0] == "switch-on-inrush" and i[2].startswith("trip-"))
+        if fit.before is None:
+            tail = ""
+        elif not fit.passes(1.0):
+            found = fit.interval(1.0)
+            if fit.spent:
+                tail = ""
+            elif found is None:
+                return (f"no pre-charge path around the discharge switches lets every rule "
+                        f"pass{fit.structural(1.0)}")
+            else:
+                factor = math.sqrt(found.low * found.high)
+    else:
+        tail = ""
+    p, r_min = precharge_proposal(m, ev, floor, factor)
+    return (f"add a pre-charge path around the discharge switches: {refdes}: {{kind: precharge, "
+            f"resistance: {{typ: {p['resistance']['typ']}, tol: {p['resistance']['tol']}}}, "
+            f"delay: {p['delay']}, pulse_energy: {p['pulse_energy']}, pulse_power: "
+            f"{p['pulse_power']}, pins: [{', '.join(p['pins'])}]}} (any resistor ≥ "
+            f"{fq(ev.voltage / floor, 'Ω')} keeps its current below the over-current trip "
+            f"minimum {fq(floor, 'A')}; this one keeps it to {fq(ev.voltage / r_min, 'A')}"
+            f"; its ratings cover a ½CV² = "
+            f"{fq(ev.energy, 'J')} pulse and V²/R at its lowest resistance; the delay is the "
+            f"shortest after which the main switches close below the "
+            f"trip minimum){tail}")

@@ -91,6 +91,8 @@ def check(ctx, options):
 
 
 def _theta_hint(budget):
+    if 0 < budget < THETA_JA_FLOOR:
+        return _below_floor(budget)
     return (f"a package or copper area with θJA ≤ {fq(budget, 'K/W')}" if budget > 0
             else "a cooler location (the ambient alone uses up the budget)")
 
@@ -108,6 +110,8 @@ def _fitted_hint(ctx, h, budget):
 
 
 def _hint(h, budget, ceiling):
+    if 0 < budget < THETA_JA_FLOOR:
+        return _no_package(h, budget)
     theta = _theta_hint(budget)
     if h.case == "permitted":
         return (f"{theta}, or a protector with a lower over-current detection voltage (the "
@@ -120,3 +124,27 @@ def _hint(h, budget, ceiling):
     cut = max(0.0, 1.0 - (ceiling - h.ambient) / (h.tj - h.ambient)) * 100
     return (f"{theta}, or FETs with R_DS(on) at least {cut:.0f} % lower, or a second pair in "
             f"parallel")
+
+
+#: The lowest junction-to-ambient thermal resistance a single power package reaches, K/W: bolted
+#: to a large heatsink with forced air, θJC (about 0.5 K/W) + the mounting interface (about
+#: 0.5 K/W) + the heatsink (about 1.5 K/W) [memory: power FET data sheets' thermal tables and
+#: heatsink makers' curves; on board copper alone it is tens of K/W]. A hint asking for less names
+#: no package at all (docs/references.md).
+THETA_JA_FLOOR = 2.5
+
+
+def _below_floor(budget):
+    return (f"no package fixes it: θJA ≤ {fq(budget, 'K/W')} is below the about "
+            f"{fq(THETA_JA_FLOOR, 'K/W')} a power package reaches even bolted to a heatsink with "
+            f"forced air [memory]")
+
+
+def _no_package(h, budget):
+    """The hint when the θJA the junction needs is below what any package reaches: the structure
+    must change (issue 18 item 2: an empty range names the structural change)."""
+    need = _below_floor(budget)
+    if h.case == "permitted":
+        return (f"{need}; a protector with a lower over-current detection voltage (the "
+                f"dissipation at the trip scales with its square), or FET packages in parallel")
+    return f"{need}; FET packages in parallel, or FETs with much lower R_DS(on)"
