@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from .pulse import ZthValue, avalanche_energy, curve_zth, foster_zth
-from .values import corner_value
+from .values import corner_value, memo_key
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -53,14 +53,23 @@ def current_spread(m: "DesignModel") -> dict[str, Spread]:
     the channel at its lowest, both at 25 °C: at one junction temperature the ratio does not
     depend on it. The part that carries more heats more and its resistance rises, which evens
     the division out in a steady state; that is left out, so the worst share errs high.
-    Interchangeable channels are solved once (:class:`ClassShares`).
+    Interchangeable channels are solved once (:class:`ClassShares`), and the whole is a function
+    of the netlist and the drive, kept with the path's memo (``PowerPath.remembered``): a re-lint
+    whose edit left the netlist alone, and the designs of an equal netlist, solve it once.
     """
     gd = m.gate_drive
     if gd is None or not m.channels or m.stack is None:
         return {}
+    drives = tuple(sorted({gd.min, gd.max}))
+    key = ("current spread",) + tuple(memo_key(v) for v in drives)
+    return dict(m.path.remembered(key, lambda: spread_at_drives(m, drives)))
+
+
+def spread_at_drives(m: "DesignModel", drives: tuple[float, ...]) -> dict[str, Spread]:
+    """:func:`current_spread` solved at each gate drive of ``drives``."""
     cell_r = corner_value(m.stack.part.internal_resistance, "min")
     out: dict[str, Spread] = {}
-    for vgs in sorted({gd.min, gd.max}):
+    for vgs in drives:
         high = {ch.name: m.channel_rds(ch, vgs, 25.0, "max")[0] for ch in m.channels}
         sol, _, _ = m.solve_path(high, 25.0, "min", cell_r)
         if sol is None:
