@@ -216,13 +216,15 @@ def test_a_part_name_or_a_pin_order_makes_another_netlist():
 
 def test_a_relint_that_left_the_netlist_alone_solves_no_drain_or_spread_again(registry,
                                                                               monkeypatch):
-    from packwarden.model import storage, survival
+    from packwarden.model import balance, storage, survival
     design = EXAMPLES / "ridgeline-tool-4s2p.yaml"
     text = design.read_text(encoding="utf-8")
     first = lint(registry, design)
-    assert {"level drains", "current spread"} <= {k[0] for k in first.model.path._memo}
+    assert {"level drains", "current spread", "bleed currents"} <= {
+        k[0] for k in first.model.path._memo}
     solved = []
-    for module, name in ((storage, "solve_level_drains"), (survival, "spread_at_drives")):
+    for module, name in ((storage, "solve_level_drains"), (survival, "spread_at_drives"),
+                         (balance, "solve_bleed_currents")):
         real = getattr(module, name)
         monkeypatch.setattr(module, name, lambda *a, _real=real, _name=name: (
             solved.append(_name), _real(*a))[1])
@@ -231,5 +233,5 @@ def test_a_relint_that_left_the_netlist_alone_solves_no_drain_or_spread_again(re
     assert outcome(again) == outcome(first)
     forget()
     alone = lint(registry, design, text + "# alone\n")
-    assert set(solved) == {"solve_level_drains", "spread_at_drives"}
+    assert set(solved) == {"solve_level_drains", "spread_at_drives", "solve_bleed_currents"}
     assert outcome(alone) == outcome(first)
