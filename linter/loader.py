@@ -359,9 +359,10 @@ def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
 
 #: Positions are immutable and every design repeats the same lines and columns (a re-lint of the
 #: same file all of them): each is made once and shared, a tenth of a large design's load
-#: [measured: bench/run.py's large pack, issue 19]. Bounded, as a batch's files differ.
+#: [measured: bench/run.py's large pack, issue 19]. Bounded (a few megabytes at most), as a
+#: batch's files differ; the benchmark's 2 000-component pack has about 20 000 places.
 _POSITIONS: dict[tuple[int, int], Position] = {}
-POSITIONS_MAX = 100_000
+POSITIONS_MAX = 32_768
 
 
 def _position(line: int, col: int) -> Position:
