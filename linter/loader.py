@@ -217,6 +217,7 @@ def _read(text: str, shown: str) -> tuple[object, dict, dict] | None:
 
 def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
     resolve = _resolve
+    made = _POSITIONS
     stack: list[list] = []  # per open collection: [is a mapping, next node is a key, build frame]
     count = 0
     documents = 0
@@ -326,7 +327,10 @@ def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
                                                            f"line {first_line[key]})")
                     first_line[key] = line
                     frame[4] = path + (key,)
-                    key_positions[frame[4]] = Position(line, col)
+                    pos = made.get((line, col))
+                    if pos is None:
+                        pos = _position(line, col)
+                    key_positions[frame[4]] = pos
                     continue
                 child = frame[4]
                 value = _value(event, kind, tag, explicit_str, resolve, shown)
@@ -335,7 +339,10 @@ def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
                 child = path + (len(container),)
                 value = _value(event, kind, tag, explicit_str, resolve, shown)
                 container.append(value)
-            positions[child] = Position(line, col)
+            pos = made.get((line, col))
+            if pos is None:
+                pos = _position(line, col)
+            positions[child] = pos
             if kind is not yaml.ScalarEvent:
                 stack[-1][2] = _frame(value, child, depth + 1)
         except InputError as exc:
@@ -350,6 +357,21 @@ def _events(parser, shown: str) -> tuple[object, dict, dict] | None:
     return root[0], positions, key_positions
 
 
+#: Positions are immutable and every design repeats the same lines and columns (a re-lint of the
+#: same file all of them): each is made once and shared, a tenth of a large design's load
+#: [measured: bench/run.py's large pack, issue 19]. Bounded (a few megabytes at most), as a
+#: batch's files differ; the benchmark's 2 000-component pack has about 20 000 places.
+_POSITIONS: dict[tuple[int, int], Position] = {}
+POSITIONS_MAX = 32_768
+
+
+def _position(line: int, col: int) -> Position:
+    if len(_POSITIONS) >= POSITIONS_MAX:
+        _POSITIONS.clear()
+    pos = _POSITIONS[(line, col)] = Position(line, col)
+    return pos
+
+
 def _frame(container: object, path: tuple, depth: int) -> list:
     # [container, its path, its depth, first line of each key (mappings), path of the pending key]
     return [container, path, depth, {}, None]
@@ -358,6 +380,29 @@ def _frame(container: object, path: tuple, depth: int) -> list:
 def _value(event: yaml.NodeEvent, kind: type, tag: str | None, explicit_str: bool, resolve,
            shown: str) -> object:
     """The value of a node event: a new, empty list or dict for a collection."""
+    if tag is None and kind is yaml.ScalarEvent and not event.style:
+        # A plain scalar's value is a function of its text alone (its tag is resolved from it).
+        known = _PLAIN.get(event.value, _PLAIN)
+        if known is not _PLAIN:
+            return known
+        value = _plain_value(event, kind, resolve, shown)
+        if len(_PLAIN) >= PLAIN_MAX:
+            _PLAIN.clear()
+        _PLAIN[event.value] = value
+        return value
+    return _plain_value(event, kind, resolve, shown, tag, explicit_str)
+
+
+#: The values of plain scalars by their text: a design repeats its part names, nets, pins and
+#: numbers, and a re-lint all of them; each is an immutable str, int, float, bool or None
+#: [measured: a fifth of the load of bench/run.py's large pack, issue 19]. Bounded, as
+#: _RESOLVED is; a text that is refused raises before it is kept.
+_PLAIN: dict = {}
+PLAIN_MAX = 50_000
+
+
+def _plain_value(event: yaml.NodeEvent, kind: type, resolve, shown: str, tag: str | None = None,
+                 explicit_str: bool = False) -> object:
     mark = event.start_mark
     if tag is None or tag == "!":
         node_kind = yaml.ScalarNode if kind is yaml.ScalarEvent else \

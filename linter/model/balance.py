@@ -41,7 +41,7 @@ from .ocv import HOURS_PER_MONTH, OcvTable, ocv_table, soc_at_voltage, voltage_a
 from ..records import record
 from .storage import DEFAULT_SELF_DISCHARGE, Drain, level_drains
 from .support import balance_switches, supply_filter
-from .values import ModelProblem
+from .values import ModelProblem, memo_key
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -152,7 +152,18 @@ def _imbalance_to(table: OcvTable, per_cell: float, series: int, detect: float) 
 def bleed_currents(m: "DesignModel", volts: float) -> dict[int, tuple[float, tuple[str, ...]]]:
     """Level -> (current through its bleed switch, the resistors on its balance pin), every cell
     at ``volts`` and every bleed switch closed, the resistors at their highest (the lowest bleed)
-    and the switches at the part's highest on-resistance."""
+    and the switches at the part's highest on-resistance.
+
+    A function of the netlist and ``volts``, kept with the path's memo
+    (``PowerPath.remembered``), so a re-lint that left the netlist alone does not solve it again.
+    """
+    key = ("bleed currents", memo_key(volts))
+    return dict(m.path.remembered(key, lambda: solve_bleed_currents(m, volts)))
+
+
+def solve_bleed_currents(m: "DesignModel",
+                         volts: float) -> dict[int, tuple[float, tuple[str, ...]]]:
+    """:func:`bleed_currents`, solved."""
     switches = balance_switches(m)
     if not switches:
         return {}

@@ -561,7 +561,9 @@ def kept_memo(netlist: Any) -> dict:
     if netlist is None:
         return {}
     components = tuple(netlist.components.values())
-    nets = {net: tuple(refs) for net, refs in netlist.nets.items()}
+    # Each pin as its (component, pin) pair: compared whole at every lint of a large pack,
+    # plain tuples compare without a call per pin.
+    nets = {net: tuple([(r.component, r.pin) for r in refs]) for net, refs in netlist.nets.items()}
     key = (netlist.terminals, tuple((c.refdes, c.kind) for c in components))
     kept = _MEMOS.get(key)
     if (kept is not None and len(kept[2]) < MEMO_ENTRIES_MAX
@@ -584,11 +586,17 @@ def _same_netlist(kept: tuple, components: tuple) -> bool:
     by value and by its text, since -0.0 equals 0.0 yet prints apart."""
     if len(kept) != len(components):
         return False
+    names: dict[type, tuple[str, ...]] = {}
     for old, new in zip(kept, components):
         if old is new:
             continue
-        for f in fields(new):
-            a, b = getattr(old, f.name), getattr(new, f.name)
-            if a is not b and not (a == b and repr(a) == repr(b)):
+        held = names.get(type(new))
+        if held is None:
+            held = names[type(new)] = tuple([f.name for f in fields(new)])
+        for name in held:
+            a, b = getattr(old, name), getattr(new, name)
+            if a is b or (type(a) is str and type(b) is str and a == b):
+                continue  # equal texts print alike
+            if not (a == b and repr(a) == repr(b)):
                 return False
     return True

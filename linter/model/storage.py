@@ -32,7 +32,7 @@ from .network import Network, NetworkError
 from .ocv import HOURS_PER_MONTH, OcvTable, ocv_table, self_discharge_at, shelf_life, \
     soc_at_voltage, voltage_at_soc
 from ..records import record
-from .values import ModelProblem
+from .values import ModelProblem, memo_key
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -224,7 +224,20 @@ def level_drains(m: "DesignModel", cell_voltage: float,
     The cells at ``cell_voltage`` each, the pack terminals open, switches of the roles in ``off``
     off and the rest on. An LED the cells can light counts at its declared ``current`` where
     it gives one (the design's own figure for it), else at what the solve gives.
+
+    A function of the netlist and its arguments, kept with the path's memo
+    (``PowerPath.remembered``): the storage phases and the balance ask for it, and so does every
+    re-lint of a large pack whose edit left the netlist alone (its solve and the sum over the
+    cells were about a tenth of the 400-component pack's re-lint).
     """
+    key = ("level drains", memo_key(cell_voltage), off)
+    kept = m.path.remembered(key, lambda: solve_level_drains(m, cell_voltage, off))
+    return {level: list(drains) for level, drains in kept.items()}
+
+
+def solve_level_drains(m: "DesignModel", cell_voltage: float,
+                       off: frozenset[str]) -> dict[int, list[Drain]]:
+    """:func:`level_drains`, solved."""
     stack = m.stack
     leds = [c for c in m.netlist.of_kind("diode")
             if c.part.led and "anode" in c.pins and "cathode" in c.pins]

@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..records import record
 from .pulse import ZthValue, avalanche_energy, curve_zth, foster_zth
-from .values import corner_value
+from .values import corner_value, memo_key
 
 if TYPE_CHECKING:  # pragma: no cover
     from .design import DesignModel
@@ -53,33 +53,73 @@ def current_spread(m: "DesignModel") -> dict[str, Spread]:
     the channel at its lowest, both at 25 °C: at one junction temperature the ratio does not
     depend on it. The part that carries more heats more and its resistance rises, which evens
     the division out in a steady state; that is left out, so the worst share errs high.
+    Interchangeable channels are solved once (:class:`ClassShares`), and the whole is a function
+    of the netlist and the drive, kept with the path's memo (``PowerPath.remembered``): a re-lint
+    whose edit left the netlist alone, and the designs of an equal netlist, solve it once.
     """
     gd = m.gate_drive
     if gd is None or not m.channels or m.stack is None:
         return {}
+    drives = tuple(sorted({gd.min, gd.max}))
+    key = ("current spread",) + tuple(memo_key(v) for v in drives)
+    return dict(m.path.remembered(key, lambda: spread_at_drives(m, drives)))
+
+
+def spread_at_drives(m: "DesignModel", drives: tuple[float, ...]) -> dict[str, Spread]:
+    """:func:`current_spread` solved at each gate drive of ``drives``."""
     cell_r = corner_value(m.stack.part.internal_resistance, "min")
     out: dict[str, Spread] = {}
-    for vgs in sorted({gd.min, gd.max}):
+    for vgs in drives:
         high = {ch.name: m.channel_rds(ch, vgs, 25.0, "max")[0] for ch in m.channels}
         sol, _, _ = m.solve_path(high, 25.0, "min", cell_r)
         if sol is None:
             continue
         i_load = abs(sol.current("(load)"))
+        worst_of = ClassShares(m, high, cell_r)
         for ch in m.channels:
             equal = abs(sol.current(ch.name)) / i_load if i_load else 0.0
             if equal <= 0.0 or equal >= _ALONE:
                 continue
             low_r, notes = m.channel_rds(ch, vgs, 25.0, "min")
-            low = dict(high, **{ch.name: low_r})
-            sol_low, _, _ = m.solve_path(low, 25.0, "min", cell_r)
-            if sol_low is None:
+            worst = worst_of(ch, low_r)
+            if worst is None:
                 continue
-            worst = abs(sol_low.current(ch.name)) / abs(sol_low.current("(load)"))
             old = out.get(ch.name)
             if old is None or worst / equal > old.factor:
                 out[ch.name] = Spread(ch.name, worst / equal, vgs, (low_r, high[ch.name]),
                                       tuple(n for n in notes if n.startswith("min:")))
     return out
+
+
+def solved_worst_share(m: "DesignModel", high: dict[str, float], name: str, low_r: float,
+                       cell_r: float) -> float | None:
+    """The share of the pack current channel ``name`` carries at ``low_r`` beside the others at
+    ``high``, from a solve of the whole path at 25 °C; None when it cannot be solved."""
+    sol_low, _, _ = m.solve_path(dict(high, **{name: low_r}), 25.0, "min", cell_r)
+    if sol_low is None:
+        return None
+    return abs(sol_low.current(name)) / abs(sol_low.current("(load)"))
+
+
+class ClassShares:
+    """:func:`solved_worst_share` of each channel, solved once per class of interchangeable
+    channels: the same drain and source nets, the same channel type (so the same body diode)
+    and the same on-resistances high and low. The path sees a channel only as a switch branch
+    made of those (``PowerPath._switch``), so exchanging two channels of a class maps the
+    network with one of them low onto the network with the other low, and each carries the
+    same share [derived: relabelling two parallel branches leaves the nodal equations as they
+    were]. Ten packages in parallel per switch then cost two solves, not twenty, and a pack's
+    solves grow with its kinds of channel rather than its count of them."""
+
+    def __init__(self, m: "DesignModel", high: dict[str, float], cell_r: float) -> None:
+        self.m, self.high, self.cell_r = m, high, cell_r
+        self._solved: dict[tuple, float | None] = {}
+
+    def __call__(self, ch: "SwitchChannel", low_r: float) -> float | None:
+        key = (ch.drain, ch.source, ch.channel, self.high[ch.name], low_r)
+        if key not in self._solved:
+            self._solved[key] = solved_worst_share(self.m, self.high, ch.name, low_r, self.cell_r)
+        return self._solved[key]
 
 
 @record(frozen=True)

@@ -203,3 +203,35 @@ def test_a_conduction_path_is_found_once_per_netlist(registry):
     assert model.path.conducts("discharge", "discharge") is None
     # the search itself, made again, finds the same way through the same parts
     assert model.path.find_conduction("discharge", "charge") == first
+
+
+def test_a_part_name_or_a_pin_order_makes_another_netlist():
+    same = cell(0.5)
+    renamed = Component("BT1", "cell", "RL-OTHER", 0.5, {"pos": "B+", "neg": "B-"},
+                        ("components", "BT1"))
+    assert not path._same_netlist((same,), (renamed,))
+    swapped = Component("BT1", "cell", None, 0.5, {"neg": "B-", "pos": "B+"}, ("components", "BT1"))
+    assert not path._same_netlist((same,), (swapped,))  # equal, yet it prints apart
+
+
+def test_a_relint_that_left_the_netlist_alone_solves_no_drain_or_spread_again(registry,
+                                                                              monkeypatch):
+    from packwarden.model import balance, storage, survival
+    design = EXAMPLES / "ridgeline-tool-4s2p.yaml"
+    text = design.read_text(encoding="utf-8")
+    first = lint(registry, design)
+    assert {"level drains", "current spread", "bleed currents"} <= {
+        k[0] for k in first.model.path._memo}
+    solved = []
+    for module, name in ((storage, "solve_level_drains"), (survival, "spread_at_drives"),
+                         (balance, "solve_bleed_currents")):
+        real = getattr(module, name)
+        monkeypatch.setattr(module, name, lambda *a, _real=real, _name=name: (
+            solved.append(_name), _real(*a))[1])
+    again = lint(registry, design, text + "# an edit that leaves the netlist alone\n")
+    assert again.model.path._memo is first.model.path._memo and solved == []
+    assert outcome(again) == outcome(first)
+    forget()
+    alone = lint(registry, design, text + "# alone\n")
+    assert set(solved) == {"solve_level_drains", "spread_at_drives", "solve_bleed_currents"}
+    assert outcome(alone) == outcome(first)

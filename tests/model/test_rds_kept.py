@@ -17,9 +17,13 @@ TABLE = ((4.5, 0.018, None), (10.0, 0.013, None))
 
 @pytest.fixture(autouse=True)
 def forgotten():
+    # The paths' memos too: a memo kept from an earlier test's lint of the same netlist would
+    # answer every on-resistance before the store is asked.
     path._RDS_KEPT.clear()
+    path._MEMOS.clear()
     yield
     path._RDS_KEPT.clear()
+    path._MEMOS.clear()
 
 
 def fresh(points, *args):
