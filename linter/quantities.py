@@ -279,7 +279,7 @@ def _fmt_number(value: float) -> str:
     return f"{value:g}"
 
 
-def _rounded_toward(value: float, digits: int, toward: str) -> float:
+def rounded_toward(value: float, digits: int, toward: str) -> float:
     """``value`` at ``digits`` significant figures, rounded up or down (away from the nearest
     only when the nearest would not meet the bound)."""
     nearest = float(f"{value:.{digits}g}")
@@ -303,7 +303,7 @@ def format_quantity(value: float, unit: str, digits: int = 3, toward: str | None
     if not math.isfinite(value):
         return f"{value} {unit}"
     if toward is not None and value != 0:
-        value = _rounded_toward(value, digits, toward)
+        value = rounded_toward(value, digits, toward)
     if unit == "months" and 0 < value < 1:
         return _short_duration(value, digits)
     if spec is not None and not spec.prefixes or value == 0:

@@ -1,6 +1,5 @@
-import math
-
 from packwarden import Example, Figure, NoOptions, Severity, format_quantity as fq, rule
+from packwarden.quantities import rounded_toward
 
 
 @rule(id="storage-drain",
@@ -71,7 +70,7 @@ def check(ctx, options):
     largest = max(first.drains, key=lambda d: d.current)
     hint = (f"{soc_hint}; or cut the largest drain ({largest.text()}); or recharge every "
             f"{fq(first.months, 'months')} in storage (storage.duration ≤ "
-            f"{_down(first.months)} months)")
+            f"{rounded_toward(first.months, 3, 'down'):.3g} months)")
     if b.duration > to_limit:
         tail = (f"{fq(after.months, 'months')} later it falls below the cell's lower limit "
                 f"{fq(b.lower_limit, 'V')} (drains after the cut-off: "
@@ -97,10 +96,3 @@ def check(ctx, options):
         headline="months to cut-off", lower_is_worse=True,
         assumptions=b.assumptions,
         severity=Severity.warning, hint=hint)
-
-
-def _down(months: float) -> str:
-    """``months`` to three significant figures, rounded down (a storage period that must be at
-    most ``months`` still is as written)."""
-    step = 10.0 ** (math.floor(math.log10(months)) - 2)
-    return f"{math.floor(months / step * (1 + 1e-12)) * step:.3g}"

@@ -3,6 +3,7 @@ import math
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import inrush
 from packwarden.model.events import precharge_paths
+from packwarden.quantities import rounded_toward
 from pydantic import Field
 
 from ._fit import Fit
@@ -133,13 +134,6 @@ PRECHARGE_TOL = 5.0
 PRECHARGE_PEAK_SHARE = 0.1
 
 
-def _up(value: float, digits: int = 2) -> float:
-    """``value`` rounded up to ``digits`` significant figures (a rating or a delay that must be
-    at least ``value`` still is when shown)."""
-    step = 10.0 ** (math.floor(math.log10(value)) - digits + 1)
-    return math.ceil(value / step * (1 - 1e-12)) * step
-
-
 def _e12_above(value: float) -> float:
     """The smallest E12 resistance (IEC 60063) at or above ``value``."""
     decade = 10.0 ** math.floor(math.log10(value))
@@ -159,14 +153,17 @@ def precharge_proposal(m, ev, floor: float, factor: float = 1.0) -> tuple[dict, 
     ohms = _e12_above(ev.voltage / (floor * PRECHARGE_PEAK_SHARE)) * factor
     r_min, r_max = ohms * (1 - PRECHARGE_TOL / 100.0), ohms * (1 + PRECHARGE_TOL / 100.0)
     hot = max((c for x in ev.trips for c in x.corners), key=lambda c: c.loop_resistance)
-    tau = (r_max + hot.loop_resistance) * ev.capacitance
-    delay = _up(max(inrush.time_to_fall(ev.voltage, tau, hot.loop_resistance * min(
-        c.trip_min for x in ev.trips for c in x.corners)), tau))
+    tau = inrush.RcPulse(ev.voltage, r_max + hot.loop_resistance, ev.capacitance).time_constant
+    # rounded up, as the ratings below: a delay or rating that must be at least a figure still
+    # is as written
+    fall = inrush.time_to_fall(ev.voltage, tau, hot.loop_resistance * min(
+        c.trip_min for x in ev.trips for c in x.corners))
+    delay = rounded_toward(max(fall, tau), 2, "up")
     return {"kind": "precharge",
             "resistance": {"typ": f"{ohms:.4g} Ω", "tol": f"{PRECHARGE_TOL:g} %"},
             "delay": f"{delay * 1e3:.4g} ms",
-            "pulse_energy": f"{_up(ev.energy):.4g} J",
-            "pulse_power": f"{_up(ev.voltage ** 2 / r_min):.4g} W",
+            "pulse_energy": f"{rounded_toward(ev.energy, 2, 'up'):.4g} J",
+            "pulse_power": f"{rounded_toward(ev.voltage ** 2 / r_min, 2, 'up'):.4g} W",
             "pins": _bridge(m)}, r_min
 
 
