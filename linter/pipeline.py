@@ -320,9 +320,11 @@ class _Relinter:
     """The design linted again with changes, a list of (dotted path, value) each set there, or
     added where the path starts with "+" (None where they do not apply, or where the check's
     budget of re-lints is spent: ``left``, None for no bound); the design as it is (no
-    changes) is linted once."""
+    changes) is linted once. One serves every rule of a lint: ``kept`` holds, by name, a search
+    that several rules' hints share (``rules/_rdsfit.py``)."""
 
-    __slots__ = ("session", "path", "shown", "doc", "components", "budget", "left", "_as_is")
+    __slots__ = ("session", "path", "shown", "doc", "components", "budget", "left", "_as_is",
+                 "kept")
 
     def __init__(self, session: Session, path: Path, shown: str, doc: Document,
                  components: int) -> None:
@@ -330,6 +332,7 @@ class _Relinter:
         self.components = components
         self.budget = self.left = fit_budget(components)
         self._as_is: list = []
+        self.kept: dict[str, Any] = {}
 
     def __call__(self, changes: list) -> DesignResult | None:
         if not changes and self._as_is:

@@ -74,19 +74,16 @@ def _set_by_on_resistance(identity: tuple, packages: tuple[str, ...]) -> bool:
     return rule == "short-circuit-reach" and key == "weakest-short-uncleared"
 
 
-#: The last search, with the model it was for: the rules of one lint share it.
-_LAST: list = [None, None]
-
-
 def on_resistance_fit(ctx: Any) -> RdsFit | None:
     """The search for the design of ``ctx``; None where none can run (shunt sensing, no
-    over-current window, no re-lint here, or a design that does not lint again as it is)."""
-    m = ctx.model
-    if _LAST[0] is m:
-        return _LAST[1]
-    found = _search(ctx, m)
-    _LAST[:] = [m, found]
-    return found
+    over-current window, no re-lint here, or a design that does not lint again as it is).
+    The rules of one lint share it: it is kept with the lint's re-linter."""
+    kept = getattr(ctx.relint, "kept", None)
+    if kept is None:
+        return _search(ctx, ctx.model)
+    if "on-resistance" not in kept:
+        kept["on-resistance"] = _search(ctx, ctx.model)
+    return kept["on-resistance"]
 
 
 def _search(ctx: Any, m: Any) -> RdsFit | None:
