@@ -17,7 +17,7 @@ from __future__ import annotations
 from typing import Any
 
 from packwarden import format_quantity as fq
-from packwarden.model.fit import REACH, STEP, Interval, scaled_rds_on
+from packwarden.model.fit import REACH, Interval, scaled_rds_on
 
 from ._fit import Fit
 

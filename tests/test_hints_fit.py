@@ -237,7 +237,7 @@ EMPTY = [
     # 4.35 V: a typical value above 4.325 V and at most 4.325 V, none
     ("ridgeline-backup-below-primary.yaml", "backup-overvoltage", "no typical detection fits",
      "narrower detection tolerance"),
-    # FET-sensed windows spanning × 5 to × 170 from min to max: every factor on the FETs'
+    # FET-sensed windows spanning × 5 to × 30 from min to max: every factor on the FETs'
     # R_DS(on) table that lifts the trip min over the peak lets the trip max permit more than the
     # cells' pulse rating, the fuse or the FETs' own heat allow (tests/test_hints_rdsfit.py checks
     # the rules the hint names at the factor it names)
