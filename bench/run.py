@@ -509,15 +509,17 @@ def peer_batch(cmd: list[str], files: list[Path], env: dict, cores: int) -> dict
 
 #: What every ``packwarden check`` process must do before it reads a design, each step including
 #: the ones before: start the interpreter; import the libraries the design card asks for
-#: (pydantic, typer, pyyaml); build the validators of the design and part-library schema (with
-#: pydantic's plugin hook off, as the command runs).
+#: (pydantic, typer, pyyaml); make the validators of the design and part-library schema as a
+#: check makes them (with pydantic's plugin hook off, from the core schemas kept by the warm-up
+#: run: ``packwarden.schemacache``).
 STARTUP_STEPS = {
     "interpreter": "pass",
     "libraries": "import gc; gc.disable(); import typer, yaml; from pydantic import BaseModel",
     "schema": "import gc, os; gc.disable(); os.environ['PYDANTIC_DISABLE_PLUGINS'] = '__all__'; "
               "import typer, yaml; from pydantic import BaseModel; "
               "from packwarden.schema import Design, PartLibrary; "
-              "Design.model_rebuild(); PartLibrary.model_rebuild()",
+              "from packwarden.schemacache import validator; "
+              "validator(Design); validator(PartLibrary)",
 }
 
 

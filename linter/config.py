@@ -17,7 +17,6 @@ Example::
 
 from __future__ import annotations
 
-import difflib
 import re
 import sys
 from dataclasses import field
@@ -31,10 +30,15 @@ from .files import Refused, check_path, read_limited
 from .loader import InputError
 from .records import record
 
-if sys.version_info >= (3, 11):
-    import tomllib
-else:  # pragma: no cover
-    import tomli as tomllib
+
+def _toml() -> Any:
+    """The TOML reader, imported when a config is read: a check of designs with no
+    pyproject.toml near them never needs it (about 3 ms of a cold check)."""
+    if sys.version_info >= (3, 11):
+        import tomllib
+    else:  # pragma: no cover
+        import tomli as tomllib
+    return tomllib
 
 #: No project config is anywhere near this; a larger file is refused unread.
 MAX_CONFIG_BYTES = 1024 * 1024
@@ -110,6 +114,7 @@ _TABLE_IN_TEXT: dict[str, bool] = {}
 
 
 def _names_packwarden_table(text: str) -> bool:
+    tomllib = _toml()
     try:
         tool = tomllib.loads(text).get("tool")
     except tomllib.TOMLDecodeError:
@@ -178,6 +183,7 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
     if path is None:
         return Config()
     shown = shown or str(path)
+    tomllib = _toml()
     try:
         text = read_limited(path, MAX_CONFIG_BYTES).decode("utf-8")
         data = tomllib.loads(text)
@@ -204,6 +210,7 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
         raise fail("packwarden", "[tool.packwarden] must be a table")
     for key in table:
         if key not in KNOWN_KEYS:
+            import difflib  # only for a mistake (start-up time)
             close = difflib.get_close_matches(key, KNOWN_KEYS, n=1)
             raise fail(key, f"unknown config key '{key}'" +
                        (f" (did you mean '{close[0]}'?)" if close else ""))
@@ -261,6 +268,7 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
 
     def known(rid: str, where: str, tables: tuple[str, ...] = ("",)) -> None:
         if rid != "all" and rid not in rules:
+            import difflib
             close = difflib.get_close_matches(rid, list(rules), n=1)
             raise fail(rid, f"unknown rule '{rid}' in {where}" +
                        (f" (did you mean '{close[0]}'?)" if close else ""), tables)
@@ -282,6 +290,7 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
             name = ".".join(str(p) for p in err["loc"])
             if err["type"] == "extra_forbidden":
                 fields = list(r.options.model_fields)
+                import difflib
                 close = difflib.get_close_matches(name, fields, n=1)
                 raise fail(name, f"unknown option '{name}' for rule '{rid}'" +
                            (f" (did you mean '{close[0]}'?)" if close else

@@ -206,13 +206,17 @@ def _parse(text: str, state: str) -> Optional[dict[str, list[list]]]:
 
 
 def _write(path: Path, text: Optional[str]) -> None:
-    # written beside and renamed over: a reader never sees half a file
-    if text is None:
-        return
+    if text is not None:
+        write_cache_file(path, text.encode("utf-8"))
+
+
+def write_cache_file(path: Path, data: bytes) -> None:
+    """Write a cache file beside ``path`` and rename it over, so a reader never sees half a file;
+    a file that cannot be written is skipped silently."""
     tmp = path.with_name(f"{path.name}.{os.getpid()}.tmp")
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
-        tmp.write_text(text, encoding="utf-8")
+        tmp.write_bytes(data)
         os.replace(tmp, path)
     except OSError:
         try:

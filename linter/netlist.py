@@ -7,7 +7,6 @@ typo does not hide every other finding.
 
 from __future__ import annotations
 
-import difflib
 from dataclasses import field
 from typing import Any
 
@@ -93,6 +92,7 @@ def build_netlist(design: Design, parts: dict[str, Any]) -> Netlist:
         if isinstance(comp, PartRef):
             part = parts.get(comp.part)
             if part is None:
+                import difflib  # only for a mistake (start-up time)
                 close = difflib.get_close_matches(comp.part, list(parts), n=1, cutoff=0.6)
                 problems.append(Problem(
                     "unknown-part", refdes, path + ("part",),
@@ -164,6 +164,7 @@ def _map_pins(refdes: str, kind: str, given: Any, required: tuple, optional: tup
         if pin in known:
             pins[pin] = net
             continue
+        import difflib
         close = difflib.get_close_matches(pin, known, n=1, cutoff=0.5)
         problems.append(Problem(
             "unknown-pin", refdes, ppath + (pin,),

@@ -15,6 +15,7 @@ import functools
 import re
 from enum import Enum
 from pathlib import Path
+from types import SimpleNamespace
 from typing import Annotated, Any, Literal, Union
 
 from pydantic import (AfterValidator, BaseModel, ConfigDict, Discriminator,
@@ -250,19 +251,44 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
     """A toleranced field in ``unit``: ``{typ, min, max}`` any subset, ``{typ, tol}`` or a bare
     value; every limit, also those worked out from ``tol``, within the bounds given."""
     bounds = Bounds(gt, ge, lt, le) if (gt, ge, lt, le) != (None,) * 4 else None
+    parse = _parser(unit, bounds)  # what the Given model parses its typ, min and max with
 
     def build(value: Any) -> Any:
         if isinstance(value, Toleranced):
             return value
         if not isinstance(value, dict):
             value = {"typ": value}
-        # the model is made when a design first gives a value for such a field, not at import:
-        # most of the ~20 kinds of toleranced field never appear in a given run (start-up time)
-        given = given_model(unit, gt, ge, lt, le).model_validate(value)
+        given = _plain_limits(value, parse)
+        if given is None:
+            # the model is made when a design first gives such a value, not at import: most of
+            # the ~20 kinds of toleranced field never appear in a given run (start-up time)
+            given = given_model(unit, gt, ge, lt, le).model_validate(value)
         return _resolve(given, unit, bounds)
 
     # The JSON Schema is the same for any bounds (a pattern cannot say them): one model per unit.
     return Annotated[Toleranced, Before(build), TolJsonSchema(unit, bounds)]
+
+
+_LIMITS = frozenset({"typ", "min", "max"})
+
+
+def _plain_limits(value: dict, parse: Any) -> Any:
+    """What the ``Given`` model makes of a mapping of ``typ``, ``min``, ``max`` and ``tol``
+    whose limits are each nothing or a value ``parse`` reads, and whose ``tol`` is nothing or
+    text with no space around it (the model strips text; what Python's ``strip`` leaves alone,
+    pydantic-core's leaves too): the same values, without making that model and its validator
+    (a few ms of a cold check). None for any other mapping, which the model validates and words
+    the mistake in as ever."""
+    tol = value.get("tol")
+    if not (_LIMITS | {"tol"}).issuperset(value) or not (
+            tol is None or type(tol) is str and tol == tol.strip()):
+        return None
+    try:
+        limits = {k: None if v is None else parse(v) for k, v in value.items() if k != "tol"}
+    except Exception:  # noqa: BLE001 - the model says what is wrong
+        return None
+    return SimpleNamespace(typ=limits.get("typ"), min=limits.get("min"), max=limits.get("max"),
+                           tol=tol)
 
 
 class TolJsonSchema:
@@ -341,7 +367,9 @@ def _resolve(given: Any, unit: str, bounds: Bounds | None = None) -> Toleranced:
     ordered = [v for v in (low, typ, high) if v is not None]
     if ordered != sorted(ordered):
         raise ValueError("limits out of order: need min <= typ <= max")
-    return Toleranced(typ=typ, min=low, max=high)
+    # numbers (floats) or None, as the model's fields take them unchanged: made without building
+    # its validator, the same object (start-up time)
+    return Toleranced.model_construct(typ=typ, min=low, max=high)
 
 
 def inconsistent(at: str, message: str) -> PydanticCustomError:

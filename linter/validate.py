@@ -8,7 +8,6 @@ people who write data sheets, not Python: "expected a mapping", "got the number 
 
 from __future__ import annotations
 
-import difflib
 import math
 import re
 import types
@@ -18,6 +17,7 @@ from pydantic import BaseModel, ValidationError
 
 from .loader import Document, InputError
 from .records import record
+from .schemacache import validator
 
 
 def _vocabulary() -> list[str]:
@@ -43,7 +43,8 @@ class _Problem:
 def validate(doc: Document, model: type[BaseModel]) -> tuple[Any, list[InputError]]:
     """Validate ``doc.data`` against ``model``; return the model or all errors, located."""
     try:
-        return model.model_validate(doc.data), []
+        # the model's validator, compiled from its kept core schema (schemacache.py)
+        return validator(model).validate_python(doc.data), []
     except ValidationError as exc:
         raw = exc.errors(include_url=False)
     except TypeError:
@@ -263,6 +264,7 @@ def _locate(doc: Document, model: type[BaseModel], err: dict, loc: tuple,
         allowed = _fields(parent_model)
         if _VOCAB is None:
             _VOCAB = _vocabulary()
+        import difflib  # only for a mistake (start-up time)
         candidates = allowed if allowed is not None else _VOCAB
         close = difflib.get_close_matches(key, [c for c in candidates if c != key], n=1,
                                           cutoff=0.75)
@@ -387,6 +389,7 @@ def _closest(value: Any, options: list[str]) -> str | None:
     starts = [o for o in options if o.startswith(value) and len(value) >= 3]
     if len(starts) == 1:  # `fet_pair` for `fet_pair_common_drain`
         return starts[0]
+    import difflib
     close = difflib.get_close_matches(value, options, n=1, cutoff=0.6)
     return close[0] if close else None
 

@@ -11,7 +11,7 @@ def check(ctx, options):
     contact the charger reads (``charger.thermistor``) and the internal common drain of a FET
     pair are exempt."""
     terminals = set(ctx.netlist.terminals)
-    similar = _Similar(ctx.netlist.nets)
+    similar = None  # made for the first dangling net: a clean netlist needs no difflib
     for net, refs in sorted(ctx.netlist.nets.items()):
         if len(refs) != 1 or net in terminals:
             continue
@@ -23,6 +23,8 @@ def check(ctx, options):
             continue  # an unknown part may well have an internal node there; unknown-part says so
         if comp.kind == "ntc" and comp.refdes == _charger_ntc(ctx):
             continue  # the pack's thermistor contact: the charger connects there off-board
+        if similar is None:
+            similar = _Similar(ctx.netlist.nets)
         others = similar.to(net)
         hint = (f"did you mean '{others[0]}'?" if others else
                 f"connect net '{net}' to its other end, or remove it")

@@ -9,7 +9,6 @@ registry.
 
 from __future__ import annotations
 
-import difflib
 from typing import Any, Callable
 
 from ..records import record
@@ -45,6 +44,7 @@ class FormatRegistry:
     def load(self, name: str) -> Callable:
         """The ``render`` function of format ``name``; :class:`FormatUnavailable` if there is none."""
         if name not in self.entries:
+            import difflib  # only for a mistake (start-up time)
             close = difflib.get_close_matches(name, self.names(), n=1)
             raise FormatUnavailable(f"unknown output format '{name}'" + (
                 f" (did you mean '{close[0]}'?)" if close else "")
