@@ -124,3 +124,45 @@ def test_the_command_line_report_is_the_same_with_workers(repo: Path) -> None:
     one, two = report("--jobs", "1"), report("--jobs", "2")
     assert one.returncode == two.returncode == 2  # the designs with errors
     assert one.stdout == two.stdout and '"designs"' in one.stdout
+
+
+def test_a_worker_that_dies_loses_no_design(repo: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # A worker killed mid-batch (out of memory, a signal): its chunks are linted in this process
+    # and the run reports what one process reports.
+    import os
+
+    from packwarden import batch
+    parent = os.getpid()
+    real = batch._lint_one
+
+    def dies_in_a_worker(session, path, shown):
+        if os.getpid() != parent and path.name == "probe-03.yaml":
+            os._exit(9)
+        return real(session, path, shown)
+
+    folder = [str(repo / "designs")]
+    one = lint(folder, jobs=1)
+    monkeypatch.setattr(batch, "_lint_one", dies_in_a_worker)
+    assert _view(lint(folder, jobs=2)) == _view(one)
+
+
+def test_a_chunk_that_cannot_be_read_back_is_linted_here(repo: Path,
+                                                         monkeypatch: pytest.MonkeyPatch) -> None:
+    # The workers' results are kept pickled until the pool is done; one that cannot be read
+    # back then is linted again in this process.
+    import pickle
+
+    real = pickle.loads
+    damaged = []
+
+    def first_fails(data, *args, **kwargs):
+        if not damaged:
+            damaged.append(data)
+            raise pickle.UnpicklingError("damaged")
+        return real(data, *args, **kwargs)
+
+    folder = [str(repo / "designs")]
+    one = lint(folder, jobs=1)
+    monkeypatch.setattr(pickle, "loads", first_fails)
+    assert _view(lint(folder, jobs=2)) == _view(one)
+    assert damaged and isinstance(damaged[0], bytes)
