@@ -8,10 +8,12 @@ environment, beside a fingerprint of everything the answer is read from:
 
 * the interpreter (``sys.prefix``, ``sys.executable``), ``sys.path`` in order, and the finders on
   ``sys.meta_path`` (a finder may list distributions of its own);
-* for each folder on ``sys.path``, its modification time (installing or removing a package adds
-  or removes a ``*.dist-info`` folder there) and, for each ``*.dist-info`` / ``*.egg-info`` in it,
-  the modification times and sizes of that folder and of its ``entry_points.txt`` (a file
-  rewritten in place); for a file on ``sys.path`` (a zip), its own.
+* for each folder on ``sys.path``, the names of the ``*.dist-info`` / ``*.egg-info`` in it
+  (installing or removing a package adds or removes one) and the modification times and sizes
+  of each and of its ``entry_points.txt`` (a file rewritten in place); for a file on
+  ``sys.path`` (a zip), its own. Not a folder's own modification time: it changes with any file
+  written there, and ``python -m packwarden`` puts the working folder, where designs are edited,
+  on ``sys.path``.
 
 When the fingerprint differs, or the file is missing, unreadable, corrupt or of another layout,
 the entry points are read from ``importlib.metadata`` as before and the file is written again;
@@ -66,7 +68,10 @@ def environment_state() -> list:
             for name in names:
                 metas.append([name, _stamp(os.path.join(folder, name)),
                               _stamp(os.path.join(folder, name, "entry_points.txt"))])
-        state.append([entry, stat.st_mtime_ns, metas])
+            # the names and stamps are all that importlib.metadata reads of a folder
+            state.append([entry, "folder", metas])
+            continue
+        state.append([entry, stat.st_mtime_ns, stat.st_size])
     return state
 
 

@@ -78,6 +78,25 @@ def test_installing_changing_and_removing_a_plugin_is_seen(
     assert answer() == read_installed() != first
 
 
+def test_a_file_written_into_a_path_folder_keeps_the_cache(
+        tmp_path: Path, cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # `python -m packwarden` puts the working folder on sys.path: saving a design there changes
+    # nothing importlib.metadata reads, so the kept answer stands; a distribution put there is
+    # seen at once
+    work = tmp_path / "work"
+    work.mkdir()
+    monkeypatch.syspath_prepend(str(work))
+    first = answer()
+    reads = []
+    real = entrycache.read_installed
+    monkeypatch.setattr(entrycache, "read_installed", lambda: reads.append(1) or real())
+    (work / "design.yaml").write_text("design: {}\n", encoding="utf-8")
+    os.utime(work, ns=(1, 1))  # the folder's own time moved too, as any save moves it
+    assert answer() == first and reads == []
+    install(work)
+    assert answer() == read_installed() != first and reads == [1]
+
+
 def test_a_new_path_entry_is_another_environment_state(
         tmp_path: Path, cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     answer()
