@@ -112,20 +112,28 @@ def _read(path: Path, most: int) -> bytes:
 def outside(path: Path, root: Path, resolved_root: Path | None = None) -> bool:
     """Whether ``path``, links resolved, lies outside ``root`` (a link loop counts as outside:
     there is nothing to read there). ``resolved_root``: ``root`` already resolved."""
+    return resolved_inside(path, root, resolved_root) is None
+
+
+def resolved_inside(path: Path, root: Path, resolved_root: Path | None = None) -> Path | None:
+    """``path`` with its links resolved when that lies inside ``root``, else None (outside, or a
+    link loop). ``resolved_root``: ``root`` already resolved."""
     try:
-        path.resolve().relative_to(resolved_root or root.resolve())
+        resolved = path.resolve()
+        resolved.relative_to(resolved_root or root.resolve())
     except (ValueError, OSError, RuntimeError):
-        return True
-    return False
+        return None
+    return resolved
 
 
-def head(path: Path, root: Path, size: int = 4096) -> str | None:
+def head(path: Path, root: Path, size: int = 4096, resolved_root: Path | None = None) -> str | None:
     """The first ``size`` bytes of a regular file inside ``root``, as text, for telling designs
     from other YAML; None when it is not read (not a regular file, or a link out of ``root``):
-    the caller passes it on to the lint, which reports why."""
+    the caller passes it on to the lint, which reports why. ``resolved_root``: ``root``
+    already resolved (discovery resolves each root once, not once per file)."""
     try:
         check_path(path)
-        if outside(path, root):
+        if outside(path, root, resolved_root):
             return None
         regular(path)
         return _read(path, size).decode("utf-8", errors="replace")

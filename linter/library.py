@@ -28,9 +28,10 @@ def repository_root(start: Path) -> Path:
 def shown_path(path: Path) -> str:
     """A path as the user should see it: relative to the working folder when inside it."""
     try:
-        return os.path.relpath(path) if not os.path.relpath(path).startswith("..") else str(path)
+        relative = os.path.relpath(path)
     except ValueError:  # pragma: no cover - other drive on Windows
         return str(path)
+    return relative if not relative.startswith("..") else str(path)
 
 
 def named_root(start: Path) -> Path:

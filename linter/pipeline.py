@@ -51,14 +51,21 @@ def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> li
     pass as "nothing to report".
     """
     out: list[tuple[Path, str]] = []
-    roots: dict[Path, Path] = {}
+    roots: dict[Path, tuple[Path, Path | None]] = {}
     for raw in paths:
         p = Path(raw)
         if p.is_dir():
             before = len(out)
             for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
-                root = roots.get(f.parent) or roots.setdefault(f.parent, named_root(f.parent))
-                head = files.head(f, root)
+                kept = roots.get(f.parent)
+                if kept is None:
+                    root = named_root(f.parent)
+                    try:
+                        kept = roots[f.parent] = (root, root.resolve())
+                    except (OSError, RuntimeError):
+                        kept = roots[f.parent] = (root, None)
+                root, resolved_root = kept
+                head = files.head(f, root, resolved_root=resolved_root)
                 if head is None:
                     # Not read (a pipe, a device, a link out of the repository): linted, so the
                     # run says why, unless it is only a folder with a YAML-like name.
@@ -180,8 +187,8 @@ def lint_file(session: Session, path: Path, shown: str,
     disk (the language server); its libraries and config are read from disk, as saved."""
     clock = _StageClock(timings)
     result = DesignResult(file=shown)
-    refused = (_refused(path, shown, session.named_roots) if document is None and text is None
-               else None)
+    refused, resolved_path = (_refused(path, shown, session.named_roots)
+                              if document is None and text is None else (None, None))
     if refused is not None:
         result.errors.append(refused)
         return result
@@ -234,23 +241,25 @@ def lint_file(session: Session, path: Path, shown: str,
         result.temperature_cutoffs = _from_model(result, doc, model.cutoffs_report, [])
     clock.lap("model")
     run_rules(session, cfg, options, doc, design, netlist, model, result,
-              design_id=design_identity(path, root, root_resolved=True),
+              design_id=design_identity(path, root, root_resolved=True,
+                                        resolved_path=resolved_path),
               elsewhere=(lambda p: sources.locate(doc, p)) if sources is not None else _nowhere,
               relint=_relinter(session, path, shown, doc, len(netlist.components)))
     clock.lap("rules")
     return result
 
 
-def _refused(path: Path, shown: str,
-             named_roots: dict[Path, tuple[Path, Path]] | None = None) -> InputError | None:
+def _refused(path: Path, shown: str, named_roots: dict[Path, tuple[Path, Path]] | None = None
+             ) -> tuple[InputError | None, Path | None]:
     """Why a design path is not read, before anything is opened: a path no file system holds, or
     a link out of the design's repository (whose target is then never read, so no message can
-    show a byte of it); None when it may be read. ``named_roots`` keeps each folder's root
-    (``Session.named_roots``); the design's own links are resolved every time."""
+    show a byte of it); None when it may be read, with the path resolved (for the design's
+    identity). ``named_roots`` keeps each folder's root (``Session.named_roots``); the design's
+    own links are resolved at every lint."""
     try:
         files.check_path(path)
     except files.Refused as exc:
-        return InputError(shown, 1, 1, exc.message)
+        return InputError(shown, 1, 1, exc.message), None
     kept = named_roots.get(path.parent) if named_roots is not None else None
     if kept is None:
         root = named_root(path.parent)
@@ -261,10 +270,11 @@ def _refused(path: Path, shown: str,
         if named_roots is not None:
             named_roots[path.parent] = kept
     root, resolved = kept
-    if files.outside(path, root, resolved):
+    inside = files.resolved_inside(path, root, resolved)
+    if inside is None:
         return InputError(shown, 1, 1, f"the design links outside its repository "
-                                       f"({shown_path(root) or '.'}); it is not read")
-    return None
+                                       f"({shown_path(root) or '.'}); it is not read"), None
+    return None, inside
 
 
 def _written_out(design: Design, doc: Document) -> bool:
@@ -385,17 +395,20 @@ class _StageClock:
             self.last = now
 
 
-def design_identity(path: Path, root: Path, root_resolved: bool = False) -> str:
+def design_identity(path: Path, root: Path, root_resolved: bool = False,
+                    resolved_path: Path | None = None) -> str:
     """The design's name in fingerprints: its path inside the repository, in POSIX form.
 
     Not the path as shown, which is relative to the working folder: a baseline written by CI at
     the repository root must still match when someone lints from a subfolder.
-    ``root_resolved``: ``root`` has no links to resolve (``Session.root_for`` gives such).
+    ``root_resolved``: ``root`` has no links to resolve (``Session.root_for`` gives such);
+    ``resolved_path``: ``path`` already resolved in this lint.
     """
+    resolved = resolved_path if resolved_path is not None else path.resolve()
     try:
-        return path.resolve().relative_to(root if root_resolved else root.resolve()).as_posix()
+        return resolved.relative_to(root if root_resolved else root.resolve()).as_posix()
     except ValueError:
-        return path.resolve().as_posix()
+        return resolved.as_posix()
 
 
 def make_model(design: Design, netlist: Netlist, options: dict | None = None) -> Any:
