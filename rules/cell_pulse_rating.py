@@ -60,6 +60,18 @@ def check(ctx, options):
             path=path, element=first.refdes, key=f"pulse-{e.name}", figures=figures,
             headline="current per cell",
             assumptions=e.assumptions,
-            hint=f"use cells rated for ≥ {fq(i, 'A', toward='up')} for "
-                 f"{fq(e.duration, 's', toward='up')}, more cells in "
-                 f"parallel, or a protector with a lower detection voltage or shorter delay")
+            hint=_fix(e.name, f"cells rated for ≥ {fq(i, 'A', toward='up')} for "
+                              f"{fq(e.duration, 's', toward='up')}"))
+
+
+def _fix(event: str, cells: str) -> str:
+    """What ends the pulse, by the event that makes it: the protector's detection and delay
+    end an overload, the load sets its own peak, and a pre-charge path keeps the switch-on
+    inrush off the cells."""
+    if event == "switch-on-inrush":
+        return (f"add a pre-charge path around the discharge switches, which keeps the inrush "
+                f"off the cells, or use {cells} or more cells in parallel")
+    if event == "peak-load":
+        return f"use {cells}, more cells in parallel, or a lower or shorter load.peak"
+    return (f"use {cells}, more cells in parallel, or a protector with a lower detection voltage "
+            f"or shorter delay")
