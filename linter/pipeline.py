@@ -57,14 +57,7 @@ def discover(paths: Iterable[str], errors: list[InputError] | None = None) -> li
         if p.is_dir():
             before = len(out)
             for f in sorted(list(p.rglob("*.yaml")) + list(p.rglob("*.yml"))):
-                kept = roots.get(f.parent)
-                if kept is None:
-                    root = named_root(f.parent)
-                    try:
-                        kept = roots[f.parent] = (root, root.resolve())
-                    except (OSError, RuntimeError):
-                        kept = roots[f.parent] = (root, None)
-                root, resolved_root = kept
+                root, resolved_root = _root_of(f.parent, roots)
                 head = files.head(f, root, resolved_root=resolved_root)
                 if head is None:
                     # Not read (a pipe, a device, a link out of the repository): linted, so the
@@ -100,7 +93,7 @@ class Session:
     #: Per folder of designs: the repository its designs are confined to as the path names it
     #: (``library.named_root``) and that root with its links resolved, looked up once a run as
     #: ``discover`` does: a walk up the folders took a tenth of a small design's lint.
-    named_roots: dict[Path, tuple[Path, Path]] = field(default_factory=dict)
+    named_roots: dict[Path, tuple[Path, Path | None]] = field(default_factory=dict)
     #: Schematic netlists read this run, by resolved path (or the error reading one gave).
     netlists: dict[Path, Any] = field(default_factory=dict)
     #: Whether each result carries the model's events (the JSON report writes them).
@@ -249,7 +242,7 @@ def lint_file(session: Session, path: Path, shown: str,
     return result
 
 
-def _refused(path: Path, shown: str, named_roots: dict[Path, tuple[Path, Path]] | None = None
+def _refused(path: Path, shown: str, named_roots: dict[Path, tuple[Path, Path | None]] | None = None
              ) -> tuple[InputError | None, Path | None]:
     """Why a design path is not read, before anything is opened: a path no file system holds, or
     a link out of the design's repository (whose target is then never read, so no message can
@@ -260,21 +253,28 @@ def _refused(path: Path, shown: str, named_roots: dict[Path, tuple[Path, Path]] 
         files.check_path(path)
     except files.Refused as exc:
         return InputError(shown, 1, 1, exc.message), None
-    kept = named_roots.get(path.parent) if named_roots is not None else None
-    if kept is None:
-        root = named_root(path.parent)
-        try:
-            kept = (root, root.resolve())
-        except (OSError, RuntimeError):
-            kept = (root, None)
-        if named_roots is not None:
-            named_roots[path.parent] = kept
-    root, resolved = kept
+    root, resolved = _root_of(path.parent, named_roots)
     inside = files.resolved_inside(path, root, resolved)
     if inside is None:
         return InputError(shown, 1, 1, f"the design links outside its repository "
                                        f"({shown_path(root) or '.'}); it is not read"), None
     return None, inside
+
+
+def _root_of(folder: Path, kept: dict[Path, tuple[Path, Path | None]] | None
+             ) -> tuple[Path, Path | None]:
+    """The repository holding ``folder`` as its path names it (``named_root``) and that root
+    resolved (None when it cannot be), worked out once per folder and kept in ``kept``."""
+    found = kept.get(folder) if kept is not None else None
+    if found is None:
+        root = named_root(folder)
+        try:
+            found = (root, root.resolve())
+        except (OSError, RuntimeError):
+            found = (root, None)
+        if kept is not None:
+            kept[folder] = found
+    return found
 
 
 def _written_out(design: Design, doc: Document) -> bool:
