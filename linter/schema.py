@@ -269,7 +269,8 @@ def Tol(unit: str, *, gt: float | None = None, ge: float | None = None,  # noqa:
     return Annotated[Toleranced, Before(build), TolJsonSchema(unit, bounds)]
 
 
-_LIMITS = frozenset({"typ", "min", "max"})
+#: The keys of a toleranced mapping the direct read takes (schema.Tol).
+_GIVEN_KEYS = frozenset({"typ", "min", "max", "tol"})
 
 
 def _plain_limits(value: dict, parse: Any) -> Any:
@@ -280,7 +281,7 @@ def _plain_limits(value: dict, parse: Any) -> Any:
     (a few ms of a cold check). None for any other mapping, which the model validates and words
     the mistake in as ever."""
     tol = value.get("tol")
-    if not (_LIMITS | {"tol"}).issuperset(value) or not (
+    if not _GIVEN_KEYS.issuperset(value) or not (
             tol is None or type(tol) is str and tol == tol.strip()):
         return None
     try:
