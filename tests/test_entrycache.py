@@ -33,6 +33,13 @@ def install(site: Path, version: str = "1.0", rules: str = "team-rule = team_rul
     return info
 
 
+def folder_on_path(folder: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
+    """A new, empty folder put first on ``sys.path`` for the test."""
+    folder.mkdir()
+    monkeypatch.syspath_prepend(str(folder))
+    return folder
+
+
 def remove(info: Path) -> None:
     for f in info.iterdir():
         f.unlink()
@@ -48,9 +55,7 @@ def cache(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
 
 def test_installing_changing_and_removing_a_plugin_is_seen(
         tmp_path: Path, cache: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    site = tmp_path / "site"
-    site.mkdir()
-    monkeypatch.syspath_prepend(str(site))
+    site = folder_on_path(tmp_path / "site", monkeypatch)
     first = answer()
     assert first == read_installed()
     assert list(cache.glob("entry-points-*.txt"))  # written
@@ -83,9 +88,7 @@ def test_a_file_written_into_a_path_folder_keeps_the_cache(
     # `python -m packwarden` puts the working folder on sys.path: saving a design there changes
     # nothing importlib.metadata reads, so the kept answer stands; a distribution put there is
     # seen at once
-    work = tmp_path / "work"
-    work.mkdir()
-    monkeypatch.syspath_prepend(str(work))
+    work = folder_on_path(tmp_path / "work", monkeypatch)
     first = answer()
     reads = []
     real = entrycache.read_installed
