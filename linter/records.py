@@ -29,6 +29,8 @@ import reprlib
 from types import CodeType, FunctionType
 from typing import Any, TypeVar
 
+MISSING = dataclasses.MISSING
+
 __all__ = ["record"]
 
 T = TypeVar("T", bound=type)
@@ -39,18 +41,12 @@ def record(cls: T | None = None, /, *, frozen: bool = False) -> Any:
 
     def wrap(c: T) -> T:
         own = c.__dict__
-        if _plain(c, frozen):
-            had_doc = bool(c.__doc__)
-            if not had_doc:
-                # dataclass would write the docstring from the signature of a class that has no
-                # __init__ yet (an inspection of object's, about 0.5 ms): written below instead
-                c.__doc__ = "(record)"
-            c = dataclasses.dataclass(c, init=False, eq=False, repr=False)
-            c.__dataclass_params__.init = True
-            c.__dataclass_params__.frozen = frozen
-            _install_init(c, frozen)
-            if not had_doc:
-                c.__doc__ = _doc(c)
+        fields = _plain_fields(c, frozen)
+        if fields is not None:
+            _make_fields(c, fields, frozen)
+            _install_init(c, fields, frozen)
+            if not c.__doc__:
+                c.__doc__ = _doc(c, fields)
         else:
             c = dataclasses.dataclass(c, frozen=frozen, eq=False, repr=False)
         fields = dataclasses.fields(c)
@@ -96,57 +92,142 @@ def _repr(self: Any) -> str:
 _TEMPLATES: dict[tuple[int, bool, bool], CodeType] = {}
 
 
-def _plain(c: type, frozen: bool) -> bool:
-    """True when the class is one :func:`_install_init` makes exactly as ``dataclass`` would."""
+def _plain_fields(c: type, frozen: bool) -> list[dataclasses.Field] | None:
+    """The fields of a class :func:`_make_fields` and :func:`_install_init` make exactly as
+    ``dataclass`` would, in order (each a ``dataclasses.Field`` as ``dataclass`` makes it), else
+    None, leaving the class untouched."""
     own = c.__dict__
-    if "__slots__" in own or "__init__" in own:
-        return False
+    if "__slots__" in own or "__init__" in own or "__annotate__" in own:
+        return None
     if frozen and ("__setattr__" in own or "__delattr__" in own):
-        return False  # dataclass refuses these: let it say so
+        return None  # dataclass refuses these: let it say so
     if any(hasattr(b, "__dataclass_fields__") for b in c.__mro__[1:]):
-        return False
+        return None
+    annotations = own.get("__annotations__", {})
+    given = []
     seen_default = False
-    for name, kind in own.get("__annotations__", {}).items():
-        value = own.get(name, dataclasses.MISSING)
+    for name, kind in annotations.items():
+        value = own.get(name, MISSING)
         if isinstance(value, dataclasses.Field):
-            if not value.init or value.kw_only is True or value.default is not dataclasses.MISSING \
-                    and value.default_factory is not dataclasses.MISSING:
-                return False
-            has_default = (value.default is not dataclasses.MISSING
-                           or value.default_factory is not dataclasses.MISSING)
+            if not value.init or value.kw_only is True or value.default is not MISSING \
+                    and value.default_factory is not MISSING:
+                return None
+            has_default = value.default is not MISSING or value.default_factory is not MISSING
+            if value.default.__class__.__hash__ is None:
+                return None  # dataclass's "mutable default" error
         else:
-            has_default = value is not dataclasses.MISSING
+            has_default = value is not MISSING
+            if has_default and (value.__class__.__hash__ is None
+                                or hasattr(type(value), "__get__")):
+                return None  # the mutable default's error, or a descriptor dataclass reads
         text = kind if isinstance(kind, str) else getattr(kind, "__name__", "")
         if (name == "self" or name.startswith("_rec_") or "ClassVar" in text or "InitVar" in text
                 or "KW_ONLY" in text or kind is dataclasses.KW_ONLY):
-            return False
+            return None
         if seen_default and not has_default:
-            return False  # dataclass's own error
+            return None  # dataclass's own error
         seen_default = seen_default or has_default
-    return True
+        given.append((name, kind, value))
+    if any(isinstance(v, dataclasses.Field) and k not in annotations for k, v in own.items()):
+        return None  # dataclass's "a field but has no type annotation"
+    fields = []
+    for name, kind, value in given:
+        f = value if isinstance(value, dataclasses.Field) else dataclasses.field(default=value)
+        f.name = name
+        f.type = kind
+        f._field_type = dataclasses._FIELD  # type: ignore[attr-defined]
+        if f.kw_only is MISSING:
+            f.kw_only = False
+        fields.append(f)
+    return fields
+
+
+#: ``__dataclass_params__`` of a record, frozen and not: the same for every record, so one object
+#: each, made by ``dataclass`` (its fields differ between Python versions).
+_PARAMS: dict[bool, Any] = {}
+
+
+def _make_fields(c: Any, fields: list[dataclasses.Field], frozen: bool) -> None:
+    """What ``dataclass(c, init=False, eq=False, repr=False)`` does to a plain class, without
+    its per-field inspection: the field table, the parameters, the class attributes a ``field()``
+    stood in, ``__match_args__``."""
+    params = _PARAMS.get(frozen)
+    if params is None:
+        # made with nothing to generate, then set as the record is
+        made = dataclasses.dataclass(type("_", (), {"__doc__": "-"}), init=False, eq=False,
+                                     repr=False)
+        params = _PARAMS[frozen] = made.__dataclass_params__
+        params.init = True
+        params.frozen = frozen
+    c.__dataclass_params__ = params
+    c.__dataclass_fields__ = {f.name: f for f in fields}
+    own = c.__dict__
+    for f in fields:
+        if isinstance(own.get(f.name), dataclasses.Field):
+            if f.default is MISSING:
+                delattr(c, f.name)
+            else:
+                setattr(c, f.name, f.default)
+    if "__match_args__" not in own:
+        c.__match_args__ = tuple(f.name for f in fields)
+    if getattr(c, "__abstractmethods__", None):
+        import abc
+        abc.update_abstractmethods(c)
+
+
+def _template_source(n: int, frozen: bool, post_init: bool) -> str:
+    """The source of the ``__init__`` template of a record of ``n`` fields."""
+    lines = []
+    for i in range(n):
+        value = f"_rec_f{i}() if _rec_a{i} is _rec_factory else _rec_a{i}"
+        lines.append(f"    _rec_set(self, '_rec_n{i}', {value})" if frozen
+                     else f"    self._rec_n{i} = {value}")
+    if post_init:
+        lines.append("    self.__post_init__()")
+    params = "".join(f", _rec_a{i}" for i in range(n))
+    name = template_name(n, frozen, post_init)
+    return f"def {name}(self{params}):\n" + ("\n".join(lines) or "    pass") + "\n"
+
+
+def template_name(n: int, frozen: bool, post_init: bool) -> str:
+    return f"init_{n}" + ("_frozen" if frozen else "") + ("_post" if post_init else "")
+
+
+#: Shapes whose templates ``record_inits`` holds, compiled with the package (its bytecode is
+#: cached as any module's); a larger record's template is compiled when first needed.
+KEPT_FIELDS = 24
+
+
+def kept_templates_source() -> str:
+    """The text of ``record_inits.py``; ``tests/test_records.py`` holds the file to it."""
+    head = ('"""Record ``__init__`` templates, one per shape (number of fields, frozen, '
+            '``__post_init__``).\n\n'
+            "Written by ``records.kept_templates_source()``: compiling them when a command starts "
+            "was\nabout 3 ms of a cold check; kept as a module, their bytecode is cached. "
+            "Do not edit.\n\"\"\"\n")
+    body = "\n\n".join(_template_source(n, frozen, post)
+                        for n in range(KEPT_FIELDS + 1)
+                        for frozen in (False, True) for post in (False, True))
+    return head + "\n\n" + body
 
 
 def _template(n: int, frozen: bool, post_init: bool) -> CodeType:
     key = (n, frozen, post_init)
     code = _TEMPLATES.get(key)
     if code is None:
-        lines = []
-        for i in range(n):
-            value = f"_rec_f{i}() if _rec_a{i} is _rec_factory else _rec_a{i}"
-            lines.append(f"    _rec_set(self, '_rec_n{i}', {value})" if frozen
-                         else f"    self._rec_n{i} = {value}")
-        if post_init:
-            lines.append("    self.__post_init__()")
-        params = "".join(f", _rec_a{i}" for i in range(n))
-        source = f"def __init__(self{params}):\n" + ("\n".join(lines) or "    pass") + "\n"
-        space: dict = {}
-        exec(compile(source, "<record __init__>", "exec"), {}, space)
-        code = _TEMPLATES[key] = space["__init__"].__code__
+        if n <= KEPT_FIELDS:
+            from . import record_inits
+            code = getattr(record_inits, template_name(n, frozen, post_init)).__code__
+        else:
+            space: dict = {}
+            exec(compile(_template_source(n, frozen, post_init), "<record __init__>", "exec"),
+                 {}, space)
+            code = space[template_name(n, frozen, post_init)].__code__
+        code = _TEMPLATES[key] = code.replace(co_filename="<record __init__>", co_name="__init__")
     return code
 
 
-def _install_init(c: Any, frozen: bool) -> None:
-    fields = [f for f in dataclasses.fields(c)]
+def _install_init(c: Any, fields: list[dataclasses.Field], frozen: bool) -> None:
     names = [f.name for f in fields]
     rename = {}
     for i, name in enumerate(names):
@@ -193,11 +274,16 @@ def _frozen_delattr(self: Any, name: str) -> None:
     super(cls, self).__delattr__(name)
 
 
-def _doc(c: type) -> str:
-    # as dataclass writes a missing docstring: the class's name and its signature
-    import inspect
-    try:
-        text = str(inspect.signature(c)).replace(" -> None", "")
-    except (TypeError, ValueError):
-        text = ""
-    return c.__name__ + text
+def _doc(c: type, fields: list[dataclasses.Field]) -> str:
+    """As dataclass writes a missing docstring: the class's name and its signature (the
+    parameters as ``inspect.signature`` shows them, written from the fields without it)."""
+    from inspect import formatannotation
+    params = []
+    for f in fields:
+        text = f"{f.name}: {formatannotation(f.type)}"
+        if f.default_factory is not MISSING:
+            text += f" = {dataclasses._HAS_DEFAULT_FACTORY!r}"
+        elif f.default is not MISSING:
+            text += f" = {f.default!r}"
+        params.append(text)
+    return f"{c.__name__}({', '.join(params)})"

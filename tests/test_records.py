@@ -222,3 +222,46 @@ def test_every_record_of_the_engine_is_made_from_a_template() -> None:
     templated = [c for c in made if c.__init__.__code__.co_filename == "<record __init__>"]
     assert len(made) > 50 and len(templated) >= len(made) - 5
     assert len(records._TEMPLATES) < len(templated) / 2
+
+
+@pytest.mark.parametrize("frozen", [True, False])
+@pytest.mark.parametrize("shape", range(len(SHAPES)))
+def test_the_field_table_is_the_dataclass_table(frozen: bool, shape: int) -> None:
+    # the field table, the parameters and the class attributes, made without dataclass's
+    # processing, against the standard library's dataclass of the same body
+    annotations, values = SHAPES[shape]
+    ref, mine = twins(frozen, annotations, values)
+    slots = ("name", "type", "default", "default_factory", "init", "repr", "hash", "compare",
+             "metadata", "kw_only", "_field_type")
+    assert list(mine.__dataclass_fields__) == list(ref.__dataclass_fields__)
+    for name, f in ref.__dataclass_fields__.items():
+        g = mine.__dataclass_fields__[name]
+        assert [getattr(g, s) for s in slots] == [getattr(f, s) for s in slots], name
+        assert (name in mine.__dict__) == (name in ref.__dict__)
+        assert getattr(mine, name, "absent") == getattr(ref, name, "absent")
+    params = ("init", "repr", "eq", "order", "unsafe_hash", "frozen")
+    assert [getattr(mine.__dataclass_params__, p) for p in params] == \
+        [True, False, False, False, False, frozen]
+    assert dataclasses.is_dataclass(mine) and mine.__match_args__ == ref.__match_args__
+
+
+def test_what_dataclass_refuses_it_still_refuses() -> None:
+    # a mutable default, a field() without an annotation: dataclass's own errors
+    with pytest.raises(ValueError, match="mutable default"):
+        @record
+        class Listed:
+            a: list = []  # noqa: RUF012
+    with pytest.raises(TypeError, match="is a field but has no type annotation"):
+        @record
+        class Loose:
+            a: int
+            b = field(default=1)
+
+
+def test_the_kept_templates_are_the_generated_ones() -> None:
+    # record_inits.py is written by records.kept_templates_source(): the two must not drift
+    from pathlib import Path
+
+    from packwarden import record_inits, records
+    assert Path(record_inits.__file__).read_text(encoding="utf-8") == \
+        records.kept_templates_source()
