@@ -40,6 +40,17 @@ def _toml() -> Any:
         import tomli as tomllib
     return tomllib
 
+def _loads(text: str) -> dict:
+    """``tomllib.loads(text)``; a text of only blank lines and comments (a ``packwarden.toml`` that
+    only marks a repository's root) is ``{}`` without importing the reader."""
+    for line in text.split("\n"):
+        line = line[:-1] if line.endswith("\r") else line
+        rest = line.lstrip(" \t")
+        if rest and (rest[0] != "#" or any(c < " " and c != "\t" or c == "\x7f" for c in rest)):
+            return _toml().loads(text)
+    return {}
+
+
 #: No project config is anywhere near this; a larger file is refused unread.
 MAX_CONFIG_BYTES = 1024 * 1024
 
@@ -114,10 +125,9 @@ _TABLE_IN_TEXT: dict[str, bool] = {}
 
 
 def _names_packwarden_table(text: str) -> bool:
-    tomllib = _toml()
     try:
-        tool = tomllib.loads(text).get("tool")
-    except tomllib.TOMLDecodeError:
+        tool = _loads(text).get("tool")
+    except _toml().TOMLDecodeError:
         return "packwarden" in text
     return isinstance(tool, dict) and "packwarden" in tool
 
@@ -183,11 +193,10 @@ def load_config(path: Path | None, shown: str | None = None) -> Config:
     if path is None:
         return Config()
     shown = shown or str(path)
-    tomllib = _toml()
     try:
         text = read_limited(path, MAX_CONFIG_BYTES).decode("utf-8")
-        data = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
+        data = _loads(text)
+    except _toml().TOMLDecodeError as exc:
         line = getattr(exc, "lineno", None) or 1
         col = getattr(exc, "colno", None) or 1
         raise InputError(shown, line, col, f"TOML syntax error: {exc.args[0].split(' (at')[0]}") from None

@@ -9,6 +9,7 @@ from __future__ import annotations
 import os
 
 import pytest
+from hypothesis import given, settings, strategies as st
 
 from packwarden import config
 from packwarden.config import find_config
@@ -56,3 +57,30 @@ def test_the_answers_kept_are_bounded(tmp_path):
         (folder / "pyproject.toml").write_text(f"[project]\nname = \"p{k}\"\n", encoding="utf-8")
         find_config(folder)
     assert len(config._TABLE_IN_TEXT) <= 64
+
+
+# A config of only comments and blank lines (a packwarden.toml that marks a repository's root) is
+# read without importing the TOML reader; what it reads must be what tomllib reads, errors
+# included: control characters in a comment, a lone carriage return, a byte-order mark
+# [published: TOML v1.0.0, "Comment": control characters other than tab are not permitted].
+_COMMENT_CHARS = st.sampled_from(["a", " ", "\t", "#", "é", "\x00", "\x01", "\x1f", "\x7f", "\r",
+                                  "=", "[", "\ufeff", "x = 1"])
+_LINES = st.lists(st.tuples(st.sampled_from(["", " ", "\t", "  \t", "\ufeff"]),
+                            st.sampled_from(["", "#", "# ", "x", "[t]"]),
+                            st.lists(_COMMENT_CHARS, max_size=4).map("".join),
+                            st.sampled_from(["\n", "\r\n"])),
+                  max_size=5)
+
+
+@settings(max_examples=400, deadline=None)
+@given(_LINES)
+def test_a_comment_only_config_reads_as_tomllib_reads_it(lines):
+    tomllib = config._toml()
+    text = "".join(a + b + c + end for a, b, c, end in lines)
+
+    def outcome(read):
+        try:
+            return "ok", read(text)
+        except tomllib.TOMLDecodeError:
+            return "error", None
+    assert outcome(config._loads) == outcome(tomllib.loads), repr(text)
