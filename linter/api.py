@@ -135,7 +135,24 @@ class Finding:
 class RuleOptions(BaseModel):
     """Base for a rule's options; set per project under ``[tool.packwarden.rules.<id>]``."""
 
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    # defer_build: a model's validator is built when a project first sets its options; a rule
+    # without them gets its defaults from :func:`default_options` (start-up time). A plugin's
+    # options are built when the plugin loads (``registry``), so a mistake in them is reported
+    # there, as it was when every model was built on import.
+    model_config = ConfigDict(extra="forbid", frozen=True, defer_build=True)
+
+
+def default_options(options: type[RuleOptions]) -> RuleOptions:
+    """``options()``: the rule's options when the project sets none. Made without building the
+    model's validator where validating could not change anything (every field has a default,
+    none is validated, the model has no validator of its own), as ``model_construct`` makes
+    them; ``tests/test_default_options.py`` holds the two ways equal for every rule."""
+    found = options.__pydantic_decorators__
+    if (found.validators or found.field_validators or found.root_validators
+            or found.model_validators or options.model_config.get("validate_default")
+            or any(f.is_required() or f.validate_default for f in options.model_fields.values())):
+        return options()
+    return options.model_construct()
 
 
 class NoOptions(RuleOptions):

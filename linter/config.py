@@ -25,7 +25,7 @@ from typing import Any
 
 from pydantic import ValidationError
 
-from .api import Rule, RuleOptions, Severity
+from .api import Rule, RuleOptions, Severity, default_options
 from .files import Refused, check_path, read_limited
 from .loader import InputError
 from .records import record
@@ -269,7 +269,7 @@ def _severity(value: Any, fail) -> Severity:
 def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOptions]:
     """Check rule ids and options named in ``cfg``; return each rule's validated options."""
     if cfg.file is None:
-        return {rid: r.options() for rid, r in rules.items()}
+        return {rid: default_options(r.options) for rid, r in rules.items()}
 
     def fail(key: str, message: str, tables: tuple[str, ...] = ("",)) -> InputError:
         line, col = line_of(cfg.text, key, tables, cfg.prefix)
@@ -291,7 +291,10 @@ def check_against_rules(cfg: Config, rules: dict[str, Rule]) -> dict[str, RuleOp
         known(rid, "severity", ("severity", ""))
     out: dict[str, RuleOptions] = {}
     for rid, r in rules.items():
-        given = cfg.rule_options.get(rid, {})
+        given = cfg.rule_options.get(rid)
+        if not given:
+            out[rid] = default_options(r.options)
+            continue
         try:
             out[rid] = r.options.model_validate(given)
         except ValidationError as exc:

@@ -64,6 +64,8 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
         origin = f"{plugin}:{ep.name}"
         try:
             obj = ep.load()
+            if dist != "packwarden":
+                _build_options(obj)
         except (Exception, SystemExit) as exc:  # a broken plugin must not stop the others
             reg.broken.append((origin, f"plugin {origin} failed to load: "
                                        f"{type(exc).__name__}: {exc}"))
@@ -73,6 +75,17 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     for folder in rule_paths:
         load_folder(reg, folder)
     return reg
+
+
+def _build_options(found: Any) -> None:
+    """Build the validators of a plugin's or a team folder's rule options now: the models are
+    made with ``defer_build`` (``api.RuleOptions``), and a mistake in one must be reported as
+    the plugin's, when it loads, not met later in a check."""
+    for item in found if isinstance(found, (list, tuple)) else (found,):
+        options = getattr(item, "options", None) if isinstance(item, Rule) else None
+        rebuild = getattr(options, "model_rebuild", None)
+        if isinstance(options, type) and rebuild is not None:
+            rebuild(force=True)
 
 
 def load_folder(reg: Registry, folder: Path) -> None:
@@ -94,6 +107,7 @@ def load_folder(reg: Registry, folder: Path) -> None:
             rules = getattr(module, "RULES", None)
             if rules is None:
                 rules = [v for v in vars(module).values() if isinstance(v, Rule)]
+            _build_options(rules)
         except (Exception, SystemExit) as exc:
             reg.broken.append((origin, f"rule module {origin} failed to load: "
                                        f"{type(exc).__name__}: {exc}"))
