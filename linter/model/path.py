@@ -595,33 +595,8 @@ def _same_netlist(kept: tuple, components: tuple) -> bool:
             held = names[type(new)] = tuple([f.name for f in fields(new)])
         for name in held:
             a, b = getattr(old, name), getattr(new, name)
-            if not _alike(a, b):
+            if a is b or (type(a) is str and type(b) is str and a == b):
+                continue  # equal texts print alike
+            if not (a == b and repr(a) == repr(b)):
                 return False
     return True
-
-
-_EXACT = (str, int, bool, type(None))
-
-
-def _alike(a: Any, b: Any) -> bool:
-    """``a == b and repr(a) == repr(b)``, without printing: values of the same types, floats
-    equal and of the same sign (-0.0 is not 0.0), containers alike item by item and in the same
-    order, models (the parts) alike field by field."""
-    if a is b:
-        return True
-    kind = type(a)
-    if kind is not type(b):
-        return False
-    if kind is float:
-        return a == b and (a != 0.0 or math.copysign(1.0, a) == math.copysign(1.0, b))
-    if kind in _EXACT:
-        return a == b
-    if kind is tuple or kind is list:
-        return len(a) == len(b) and all(map(_alike, a, b))
-    if kind is dict:
-        return list(a) == list(b) and all(_alike(a[k], b[k]) for k in a)
-    own = getattr(a, "__pydantic_fields__", None)
-    if own is not None and getattr(a, "__pydantic_extra__", None) is None \
-            and getattr(b, "__pydantic_extra__", None) is None:
-        return _alike(a.__dict__, b.__dict__)
-    return a == b and repr(a) == repr(b)
