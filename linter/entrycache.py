@@ -215,9 +215,17 @@ def _write(path: Path, text: Optional[str]) -> None:
         write_cache_file(path, text.encode("utf-8"))
 
 
+#: Cache files of one kind (``entry-points-*``, ``core-schemas-*``) kept in the folder: one per
+#: environment or installed copy, and every virtual environment, upgrade or benchmark install
+#: made one more. When a write makes more, the least recently written go (an environment whose
+#: file went pays one cache miss and writes it again).
+KEPT_PER_KIND = 16
+
+
 def write_cache_file(path: Path, data: bytes) -> None:
     """Write a cache file beside ``path`` and rename it over, so a reader never sees half a file;
-    a file that cannot be written is skipped silently."""
+    a file that cannot be written is skipped silently. Then the oldest files of its kind beyond
+    :data:`KEPT_PER_KIND` are removed."""
     tmp = path.with_name(f"{path.name}.{os.getpid()}.tmp")
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
@@ -226,5 +234,29 @@ def write_cache_file(path: Path, data: bytes) -> None:
     except OSError:
         try:
             tmp.unlink()
+        except OSError:
+            pass
+        return
+    _prune(path)
+
+
+def _prune(path: Path) -> None:
+    kind, _, _ = path.name.rpartition("-")
+    if not kind:
+        return
+    found = []
+    try:
+        with os.scandir(path.parent) as entries:
+            for entry in entries:
+                name = entry.name
+                if name.startswith(kind + "-") and name.rpartition("-")[0] == kind \
+                        and not name.endswith(".tmp") and name != path.name:
+                    found.append((entry.stat().st_mtime_ns, name))
+    except OSError:
+        return
+    found.sort()
+    for _, name in found[:max(0, len(found) - (KEPT_PER_KIND - 1))]:
+        try:
+            os.unlink(path.parent / name)
         except OSError:
             pass

@@ -173,3 +173,25 @@ def test_the_state_reads_no_file_outside_the_path(tmp_path: Path,
     state = entrycache.environment_state()
     assert [str(tmp_path / "missing"), None] in state
     assert os.fspath(tmp_path / "missing") not in os.listdir(tmp_path)
+
+
+def test_the_folder_keeps_the_newest_files_of_each_kind(tmp_path: Path) -> None:
+    # every environment and installed copy writes a file of its own; the folder must not grow
+    # without end: past KEPT_PER_KIND files of one kind the least recently written go, and the
+    # files of another kind, or of no kind, stay
+    keep = entrycache.KEPT_PER_KIND
+    other = tmp_path / "core-schemas-0000.pickle"
+    other.write_bytes(b"x")
+    stray = tmp_path / "notes.txt"
+    stray.write_text("mine", encoding="utf-8")
+    names = [f"entry-points-{i:04d}.txt" for i in range(keep + 5)]
+    for i, name in enumerate(names):
+        entrycache.write_cache_file(tmp_path / name, b"data")
+        os.utime(tmp_path / name, ns=(i * 10**9, i * 10**9))  # written one second apart
+    left = sorted(p.name for p in tmp_path.glob("entry-points-*"))
+    assert left == names[-keep:]
+    assert other.exists() and stray.exists()
+    # a file written again (here one that had gone) is kept, the folder still at KEPT_PER_KIND
+    entrycache.write_cache_file(tmp_path / names[0], b"again")
+    assert (tmp_path / names[0]).read_bytes() == b"again"
+    assert len(list(tmp_path.glob("entry-points-*"))) == keep
