@@ -11,6 +11,7 @@ refused file holds is never read, so no message can show any of it.
 from __future__ import annotations
 
 import os
+import re
 import stat
 from pathlib import Path
 
@@ -34,6 +35,9 @@ def _not_regular(mode: int) -> str:
     return f"is {kind}, not a regular file; only regular files are read"
 
 
+#: A control byte below U+0020, or DEL, anywhere in a path.
+_CONTROL = re.compile("[\x00-\x1f\x7f]")
+
 #: Longest file name, and longest path, the common file systems and Linux hold (NAME_MAX, PATH_MAX).
 NAME_MAX, PATH_MAX = 255, 4096
 
@@ -43,13 +47,14 @@ def check_path(path: Path) -> None:
     below U+0020 is not something a person names a file with, and the OS refuses NUL; a name
     longer than NAME_MAX bytes makes the OS refuse the path)."""
     text = str(path)
-    bad = next((c for c in text if ord(c) < 0x20 or ord(c) == 0x7F), None)
+    bad = _CONTROL.search(text)
     if bad is not None:
-        raise Refused(f"the path holds the control character U+{ord(bad):04X}; name the file "
-                      f"with printable characters")
+        raise Refused(f"the path holds the control character U+{ord(bad.group()):04X}; name the "
+                      f"file with printable characters")
     size = len(text.encode("utf-8", errors="surrogateescape"))
-    longest = max((len(p.encode("utf-8", errors="surrogateescape")) for p in path.parts),
-                  default=0)
+    # no name is longer than the whole path: its names are measured only when that is long
+    longest = size if size <= NAME_MAX else max(
+        (len(p.encode("utf-8", errors="surrogateescape")) for p in path.parts), default=0)
     if size > PATH_MAX or longest > NAME_MAX:
         raise Refused(f"the path is longer than a file system holds ({longest} bytes in one name, "
                       f"{size} in all; at most {NAME_MAX} and {PATH_MAX})")
