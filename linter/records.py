@@ -10,15 +10,19 @@ class's field list, not compiled per class: half the cost. They behave as the ge
 equal when of the same class with equal compared fields, hashed on those fields when frozen,
 unhashable otherwise, shown as ``Name(field=value, ...)``.
 
-Nor is ``__init__`` compiled per class: a record's ``__init__`` is a copy of a template compiled
-once per shape (number of fields, frozen, ``__post_init__``) with its parameter and attribute
-names replaced (``CodeType.replace``), its defaults those of the fields, a default factory called
-when its field is not given; a frozen record's ``__setattr__`` and ``__delattr__`` are shared
-functions. Together that spared about 40 ms of a single-file check (96 classes, 466 generated
-functions, three in four of them no longer compiled). A class of an unusual kind (a record base,
-``__slots__``, fields that are not plain ``__init__`` parameters, its own ``__init__``) is made by
-``dataclass`` as before. ``tests/test_records.py`` holds both against the standard library's
-dataclass.
+Nor is ``__init__`` compiled per class: a record's ``__init__`` is a copy of a template per shape
+(number of fields, frozen, ``__post_init__``) with its parameter and attribute names replaced
+(``CodeType.replace``), its defaults those of the fields, a default factory called when its field
+is not given; a frozen record's ``__setattr__`` and ``__delattr__`` are shared functions. The
+templates of up to :data:`KEPT_FIELDS` fields are the functions of ``record_inits.py`` (written by
+:func:`kept_templates_source`), whose bytecode is cached like any module's; a larger shape's is
+compiled when first needed. Nor does a record pass through ``dataclass`` itself: its field table,
+parameters, class attributes, ``__match_args__`` and docstring are made as ``dataclass`` makes
+them, without its inspection of each field (:func:`_plain_fields`, :func:`_make_fields`).
+Together: 98 classes in about 6 ms, where ``dataclass`` took 38 ms. A class of an unusual kind
+(a record base, ``__slots__``, fields that are not plain ``__init__`` parameters, its own
+``__init__``, a mutable default) is made by ``dataclass`` as before. ``tests/test_records.py``
+holds both against the standard library's dataclass.
 """
 
 from __future__ import annotations
