@@ -48,7 +48,7 @@ from typing import Any, Iterable
 from pydantic import ValidationError
 
 from .api import Finding, Severity
-from .config import Config
+from .config import Config, check_against_rules
 from .engine import Registry, RunResult, Session, lint, lint_file, load_registry
 from .library import shown_path
 from .loader import Document, InputError, load_file
@@ -300,7 +300,7 @@ def run_case(case: Case, registry: Registry | None = None) -> list[Finding]:
     except ValidationError as exc:
         raise CaseError(f"{case.source}: options of rule '{case.rule}': "
                         f"{exc.errors(include_url=False)[0]['msg']}") from None
-    options = {rid: r.options() for rid, r in reg.rules.items()}
+    options = check_against_rules(Config(), reg.rules)  # the defaults, as a check makes them
     options[case.rule] = own_options
     if not case.design.is_file():
         raise CaseError(f"{case.source}: design file {shown_path(case.design)} does not exist")
