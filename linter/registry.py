@@ -30,8 +30,7 @@ class Registry:
     distributions: set[str] = field(default_factory=set)
 
     def add(self, obj: Any, origin: str, plugin: str) -> None:
-        items = obj if isinstance(obj, (list, tuple)) else [obj]
-        for item in items:
+        for item in _items(obj):
             if not isinstance(item, Rule):
                 self.broken.append((origin, f"{origin} is not a packwarden Rule "
                                             f"(got {type(item).__name__})"))
@@ -77,11 +76,16 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
     return reg
 
 
+def _items(obj: Any) -> list | tuple:
+    """What a plugin or a rule module registers: one rule, or a list or tuple of them."""
+    return obj if isinstance(obj, (list, tuple)) else [obj]
+
+
 def _build_options(found: Any) -> None:
     """Build the validators of a plugin's or a team folder's rule options now: the models are
     made with ``defer_build`` (``api.RuleOptions``), and a mistake in one must be reported as
     the plugin's, when it loads, not met later in a check."""
-    for item in found if isinstance(found, (list, tuple)) else (found,):
+    for item in _items(found):
         options = getattr(item, "options", None) if isinstance(item, Rule) else None
         rebuild = getattr(options, "model_rebuild", None)
         if isinstance(options, type) and rebuild is not None:
