@@ -40,6 +40,7 @@ def _toml() -> Any:
         import tomli as tomllib
     return tomllib
 
+
 def _loads(text: str) -> dict:
     """``tomllib.loads(text)``; a text of only blank lines and comments (a ``packwarden.toml`` that
     only marks a repository's root) is ``{}`` without importing the reader."""

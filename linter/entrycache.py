@@ -249,8 +249,8 @@ def _prune(path: Path) -> None:
         with os.scandir(path.parent) as entries:
             for entry in entries:
                 name = entry.name
-                if name.startswith(kind + "-") and name.rpartition("-")[0] == kind \
-                        and not name.endswith(".tmp") and name != path.name:
+                if name.rpartition("-")[0] == kind and not name.endswith(".tmp") \
+                        and name != path.name:
                     found.append((entry.stat().st_mtime_ns, name))
     except OSError:
         return

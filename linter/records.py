@@ -221,13 +221,13 @@ def _template(n: int, frozen: bool, post_init: bool) -> CodeType:
     if code is None:
         if n <= KEPT_FIELDS:
             from . import record_inits
-            code = getattr(record_inits, template_name(n, frozen, post_init)).__code__
+            space = vars(record_inits)
         else:
-            space: dict = {}
+            space = {}
             exec(compile(_template_source(n, frozen, post_init), "<record __init__>", "exec"),
-                 {}, space)
-            code = space[template_name(n, frozen, post_init)].__code__
-        code = _TEMPLATES[key] = code.replace(co_filename="<record __init__>", co_name="__init__")
+                 space)
+        made = space[template_name(n, frozen, post_init)].__code__
+        code = _TEMPLATES[key] = made.replace(co_filename="<record __init__>", co_name="__init__")
     return code
 
 
@@ -248,10 +248,10 @@ def _install_init(c: Any, fields: list[dataclasses.Field], frozen: bool) -> None
                              "_rec_factory": dataclasses._HAS_DEFAULT_FACTORY}
     defaults = []
     for i, f in enumerate(fields):
-        if f.default_factory is not dataclasses.MISSING:
+        if f.default_factory is not MISSING:
             space[f"_rec_f{i}"] = f.default_factory
             defaults.append(dataclasses._HAS_DEFAULT_FACTORY)
-        elif f.default is not dataclasses.MISSING:
+        elif f.default is not MISSING:
             defaults.append(f.default)
     init = FunctionType(code.replace(**changes), space, "__init__", tuple(defaults) or None)
     init.__qualname__ = f"{c.__qualname__}.__init__"
