@@ -10,9 +10,15 @@ from dataclasses import field, replace
 from enum import Enum
 from typing import TYPE_CHECKING, Any, Callable, Iterable
 
-from pydantic import BaseModel, ConfigDict
-
+from . import quick
 from .records import record
+
+# ``Field`` declares a rule's options (``packwarden.Field``): pydantic's, or on a plain check's
+# quick way (quick.py) its stand-in, as the options' models are then made without pydantic.
+if quick.ON:
+    from .quick import BaseModel, ConfigDict, Field
+else:
+    from pydantic import BaseModel, ConfigDict, Field  # noqa: F401 - Field: see above
 
 if TYPE_CHECKING:  # pragma: no cover
     from .model.design import DesignModel
@@ -147,6 +153,8 @@ def default_options(options: type[RuleOptions]) -> RuleOptions:
     model's validator where validating could not change anything (every field has a default,
     none is validated, the model has no validator of its own), as ``model_construct`` makes
     them; ``tests/test_default_options.py`` holds the two ways equal for every rule."""
+    if quick.ON:  # the quick way loads packwarden's own rules only, none with a validator
+        return options.model_construct()
     found = options.__pydantic_decorators__
     if (found.validators or found.field_validators or found.root_validators
             or found.model_validators or options.model_config.get("validate_default")

@@ -23,7 +23,7 @@ from dataclasses import field
 from pathlib import Path
 from typing import Any
 
-from pydantic import ValidationError
+from pydantic_core import ValidationError
 
 from .api import Rule, RuleOptions, Severity, default_options
 from .files import Refused, check_path, read_limited

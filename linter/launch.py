@@ -110,6 +110,10 @@ def main() -> None:
         return
     from .checking import run_check, start
     start()
+    from . import quick
+    if quick.wanted(opts):  # pydantic's models are not made for a plain check (quick.py)
+        from .schemacache import go_quick
+        go_quick()
     try:
         code = run_check(**opts)
     except KeyboardInterrupt:  # pragma: no cover

@@ -14,7 +14,7 @@ from dataclasses import field, replace
 from pathlib import Path
 from typing import Any, Callable, Iterable, Iterator
 
-from . import files
+from . import files, quick
 from .api import Finding, RuleContext
 from .config import Config, check_against_rules, find_config, line_of, load_config
 from .guards import netlist_errors
@@ -136,6 +136,8 @@ class Session:
             return None
         key = cfg.policy.resolve()
         if key not in self.policies:
+            if quick.ON:  # a policy is read with pydantic's models
+                quick.fall_back("a team policy")
             from .policy import read_policy
             shown = shown_path(cfg.policy)
             root = repository_root(cfg.folder or cfg.policy.parent)

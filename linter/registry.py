@@ -10,6 +10,7 @@ from dataclasses import field, replace
 from pathlib import Path
 from typing import Any, Iterable
 
+from . import quick
 from .api import Rule
 from .config import Config, line_of
 from .library import shown_path
@@ -61,6 +62,8 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
         if dist is not None:
             reg.distributions.add(normalize_name(dist))
         origin = f"{plugin}:{ep.name}"
+        if dist != "packwarden" and quick.ON:  # a plugin's options are pydantic's own models
+            quick.fall_back("a rule plugin is installed")
         try:
             obj = ep.load()
             if dist != "packwarden":
@@ -72,6 +75,8 @@ def load_registry(rule_paths: Iterable[Path] = ()) -> Registry:
             continue
         reg.add(obj, origin, plugin)
     for folder in rule_paths:
+        if quick.ON:
+            quick.fall_back("a team rule folder")
         load_folder(reg, folder)
     return reg
 

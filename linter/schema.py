@@ -18,9 +18,16 @@ from pathlib import Path
 from types import SimpleNamespace
 from typing import Annotated, Any, Literal, Union
 
-from pydantic import (AfterValidator, BaseModel, ConfigDict, Discriminator,
-                      Field, Tag, model_validator)
 from pydantic_core import PydanticCustomError, core_schema
+
+from . import quick
+
+if quick.ON:  # a plain check's quick way: the same classes without pydantic (quick.py)
+    from .quick import (AfterValidator, BaseModel, ConfigDict, Discriminator, Field, Tag,
+                        model_validator)
+else:
+    from pydantic import (AfterValidator, BaseModel, ConfigDict, Discriminator, Field, Tag,
+                          model_validator)
 
 from .files import Refused, check_path
 from .quantities import UNITS, QuantityError, format_quantity, parse_quantity
@@ -228,6 +235,10 @@ def given_model(unit: str, gt: float | None = None, ge: float | None = None,
                 lt: float | None = None, le: float | None = None) -> type[Strict]:
     """The mapping a toleranced field is written as, each value within the field's bounds; made
     the first time it is asked for (a value given as such a mapping, or the JSON Schema)."""
+    if quick.ON and __name__ == "packwarden.schema":
+        # the quick way's models are not pydantic's: the mapping is read by pydantic's own
+        # model, made from schema.py again (quick.full_schema), into the same values
+        return quick.full_schema().given_model(unit, gt, ge, lt, le)
     spec = UNITS[unit]
     q = Q(unit, gt=gt, ge=ge, lt=lt, le=le)
 

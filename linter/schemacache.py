@@ -37,6 +37,7 @@ from enum import Enum
 from pathlib import Path
 from typing import Any, Optional, get_args
 
+from . import quick
 from .entrycache import cache_dir, write_cache_file
 from .plugins_off import plugins_off
 
@@ -44,7 +45,7 @@ from .plugins_off import plugins_off
 KEPT = ("Design", "PartLibrary")
 #: The cache file's first line: its layout. A pickle follows (the fingerprint and the recipes,
 #: plain data), then a second one (the schemas, each object in them a recipe's number).
-LAYOUT = b"packwarden core schemas 1\n"
+LAYOUT = b"packwarden core schemas 2\n"
 #: Keys of a core schema that only the JSON Schema and the serializer read.
 SKIPPED = frozenset({"metadata", "serialization"})
 SCHEMA_MODULE = "packwarden.schema"
@@ -72,6 +73,8 @@ def _compiled(model: type) -> Any:
     if _kept is None:
         path = cache_file()
         _kept = read(path) or {}
+        if not _kept and quick.ON:
+            quick.fall_back("the kept core schemas could not be read")
         if not _kept and path is not None:
             # pydantic builds every kept model's validator: this run pays, the next read the file
             write(path, model_schemas())
@@ -133,34 +136,74 @@ def fingerprint() -> list:
 
 # --- reading and writing ----------------------------------------------------------------------
 
+_blob: Optional[bytes] = None
+
+
+def _plain_data(stream: Any) -> Any:
+    """An unpickler of plain data and recipes' numbers only: no class or function of any module
+    is looked up by the unpickler itself."""
+    import pickle
+
+    class PlainData(pickle.Unpickler):
+        def find_class(self, module: str, name: str) -> Any:
+            raise pickle.UnpicklingError(f"{module}.{name} in a file of plain data")
+
+    return PlainData(stream)
+
+
+def current() -> bool:
+    """Whether the kept file is there, of this layout and of this fingerprint (read once; its
+    recipes are followed later, by :func:`read`)."""
+    global _blob
+    path = cache_file()
+    if path is None:
+        return False
+    try:
+        blob = path.read_bytes()
+    except OSError:
+        return False
+    if not blob.startswith(LAYOUT):
+        return False
+    import io
+    try:
+        head = _plain_data(io.BytesIO(blob[len(LAYOUT):])).load()
+    except Exception:  # noqa: BLE001 - a damaged file is only a missed cache
+        return False
+    if not isinstance(head, dict) or head.get("fingerprint") != fingerprint():
+        return False
+    _blob = blob
+    return True
+
+
+def go_quick() -> bool:
+    """Turn the quick way on (``quick.py``) when the kept schemas are current; whether it is."""
+    # the models are made once per process: by pydantic already, or by nothing yet; with
+    # pydantic's plugins on, pydantic wraps every validator, so its own models are used
+    made = ("pydantic.main", "packwarden.schema", "packwarden.api")
+    quick.ON = not any(name in sys.modules for name in made) and plugins_off() and current()
+    return quick.ON
+
+
 def read(path: Optional[Path]) -> Optional[dict[str, tuple[dict, dict]]]:
     """The kept schemas of a file of this layout and fingerprint whose every recipe leads to an
     object, else None."""
     if path is None:
         return None
     import io
-    import pickle
     try:
-        blob = path.read_bytes()
+        blob = _blob if _blob is not None else path.read_bytes()
     except OSError:
         return None
     if not blob.startswith(LAYOUT):
         return None
-
-    class PlainData(pickle.Unpickler):
-        # the file holds plain data and recipes' numbers only: no class or function of any
-        # module is looked up by the unpickler itself
-        def find_class(self, module: str, name: str) -> Any:
-            raise pickle.UnpicklingError(f"{module}.{name} in a file of plain data")
-
     stream = io.BytesIO(blob)
     stream.seek(len(LAYOUT))
     try:
-        head = PlainData(stream).load()
+        head = _plain_data(stream).load()
         if not isinstance(head, dict) or head.get("fingerprint") != fingerprint():
             return None
         objects = [follow(r) for r in head["recipes"]]
-        body = PlainData(stream)
+        body = _plain_data(stream)
         body.persistent_load = objects.__getitem__
         kept = body.load()
     except Exception:  # noqa: BLE001 - a damaged or foreign file is only a missed cache
@@ -209,13 +252,17 @@ class _NoRecipe(Exception):
 #: The modules a recipe may start from, and the one name of the form ``__x__`` it may pass:
 #: a recipe leads only to packwarden's and pydantic's own objects.
 HOMES = ("packwarden", "pydantic")
-OPEN_DUNDER = "__pydantic_fields__"
+OPEN_DUNDER = "__annotations__"
+#: Built-in types a recipe may name (a field's default factory).
+BUILTINS = {t.__name__: t for t in (list, dict, set, frozenset, tuple)}
 
 
 def follow(recipe: tuple) -> Any:
     """The object a recipe leads to: ``("path", module, steps)``, each step an attribute
-    (``"a"``), an item (``"i"``) or an argument of a typing construct (``"g"``), or
-    ``("partial", recipe, args, keywords)``."""
+    (``"a"``), an item (``"i"``) or an argument of a typing construct (``"g"``);
+    ``("partial", recipe, args, keywords)``; or ``("builtin", name)`` of :data:`BUILTINS`."""
+    if recipe[0] == "builtin":
+        return BUILTINS[recipe[1]]
     if recipe[0] == "partial":
         _, func, args, keywords = recipe
         return functools.partial(follow(func), *args, **keywords)
@@ -250,6 +297,8 @@ class _Finder:
             if not all(isinstance(v, _PLAIN) for v in (*obj.args, *obj.keywords.values())):
                 raise _NoRecipe(repr(obj))
             return ("partial", self.recipe(obj.func), obj.args, dict(obj.keywords))
+        if isinstance(obj, type) and BUILTINS.get(obj.__name__) is obj:
+            return ("builtin", obj.__name__)
         if isinstance(obj, Enum):
             _, module, steps = self.recipe(type(obj))
             return self._checked(("path", module, steps + (("a", obj.name),)), obj)
@@ -309,8 +358,10 @@ def _children(obj: Any, root: Any) -> list[tuple[tuple, Any]]:
         if obj.__module__ != SCHEMA_MODULE:
             return []
         own = [(("a", k), v) for k, v in vars(obj).items() if not k.startswith("__")]
-        fields = vars(obj).get("__pydantic_fields__")
-        return own + ([(("a", "__pydantic_fields__"), fields)] if fields is not None else [])
+        # the class body's own annotations, not pydantic's fields: a recipe must lead to the
+        # same object whether the class is pydantic's or the quick way's (quick.py)
+        annotations = vars(obj).get("__annotations__")
+        return own + ([(("a", OPEN_DUNDER), annotations)] if annotations else [])
     args = get_args(obj)
     if args:
         return [(("g", i), v) for i, v in enumerate(args)]

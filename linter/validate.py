@@ -11,25 +11,43 @@ from __future__ import annotations
 import math
 import re
 import types
-from typing import Annotated, Any, Union, get_args, get_origin
+from typing import TYPE_CHECKING, Annotated, Any, Union, get_args, get_origin
 
-from pydantic import BaseModel, ValidationError
+from pydantic_core import ValidationError
 
+from . import quick
 from .loader import Document, InputError
 from .records import record
 from .schemacache import validator
 
+if TYPE_CHECKING:  # pragma: no cover
+    from pydantic import BaseModel
+
 
 def _vocabulary() -> list[str]:
-    from . import schema
     words: set[str] = set()
-    for obj in vars(schema).values():
-        if isinstance(obj, type) and issubclass(obj, BaseModel):
+    for obj in vars(_wording_models()).values():
+        if _is_model(obj):
             words.update(obj.model_fields)
     return sorted(words)
 
 
 _VOCAB: list[str] | None = None
+
+
+def _wording_models() -> Any:
+    """The module whose models word an error: ``schema.py``, or on the quick way (where its
+    classes are not pydantic's) the same module made again by pydantic (``quick.full_schema``)."""
+    if quick.ON:
+        return quick.full_schema()
+    from . import schema
+    return schema
+
+
+def _is_model(obj: Any) -> bool:
+    """Whether ``obj`` is a pydantic model class (pydantic is imported only to word an error)."""
+    from pydantic import BaseModel
+    return isinstance(obj, type) and issubclass(obj, BaseModel)
 
 
 @record
@@ -47,6 +65,8 @@ def validate(doc: Document, model: type[BaseModel]) -> tuple[Any, list[InputErro
         return validator(model).validate_python(doc.data), []
     except ValidationError as exc:
         raw = exc.errors(include_url=False)
+        if quick.ON:  # the same model, pydantic's: the wording reads its fields and annotations
+            model = getattr(_wording_models(), model.__name__)
     except TypeError:
         # The component discriminator in schema.py looks `kind` up in a table, so a list or a
         # mapping written as a component's kind raises instead of failing validation.
@@ -69,7 +89,7 @@ def validate(doc: Document, model: type[BaseModel]) -> tuple[Any, list[InputErro
 
 
 def _unhashable_kinds(doc: Document) -> list[InputError]:
-    from .schema import PART_KINDS
+    PART_KINDS = _wording_models().PART_KINDS  # noqa: N806
     data = doc.data if isinstance(doc.data, dict) else {}
     components = data.get("components")
     out = []
@@ -163,7 +183,7 @@ def _child(ann: Any, part: Any) -> Any:
             if found is not None:
                 return found
         return None
-    if isinstance(ann, type) and issubclass(ann, BaseModel):
+    if _is_model(ann):
         f = ann.model_fields.get(part) if isinstance(part, str) else None
         return f.annotation if f is not None else None
     origin = get_origin(ann)
@@ -189,15 +209,14 @@ def _model_at(model: type[BaseModel], raw_loc: tuple) -> type[BaseModel] | None:
         if len(members) != 1:
             return None
         ann = _strip(members[0])
-    return ann if isinstance(ann, type) and issubclass(ann, BaseModel) else None
+    return ann if _is_model(ann) else None
 
 
 def _fields(model: type[BaseModel] | None) -> list[str] | None:
     if model is None:
         return None
-    from .schema import Toleranced
     names = list(model.model_fields)
-    if model is Toleranced:
+    if model is _wording_models().Toleranced:
         names.append("tol")  # given as {typ, tol}; resolved into min and max
     return names
 
@@ -272,8 +291,7 @@ def _locate(doc: Document, model: type[BaseModel], err: dict, loc: tuple,
         if close:
             msg += f" (did you mean '{close[0]}'?)"
         elif allowed is not None:
-            from .schema import PartRef
-            if parent_model is PartRef and key in _VOCAB:
+            if parent_model is _wording_models().PartRef and key in _VOCAB:
                 msg += ("; a component that names a library 'part' takes its data from the "
                         "library")
             msg += f"; allowed here: {_key_list(parent_model)}"
@@ -353,7 +371,7 @@ _BOUNDS = {"greater_than": ("above", "gt"), "greater_than_equal": ("at least", "
 
 
 def _part_kind(doc: Document, loc: tuple, value: Any, ctx: dict, component: bool) -> _Problem:
-    from .schema import PART_KINDS
+    PART_KINDS = _wording_models().PART_KINDS  # noqa: N806
     kinds = list(PART_KINDS)
     where = _where(loc) or "the file"
     what = "a component" if component else "a part"

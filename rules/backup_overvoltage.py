@@ -1,4 +1,4 @@
-from pydantic import Field
+from packwarden import Field
 
 from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 

@@ -1,7 +1,7 @@
 from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.limits import BALANCE_CYCLE, BALANCE_TIME, SELF_DISCHARGE_SPREAD, \
     SERVICE_CYCLES
-from pydantic import Field
+from packwarden import Field
 
 from packwarden.model.fit import scaled_resistors, value_inside
 

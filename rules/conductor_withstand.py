@@ -2,7 +2,7 @@ from packwarden import Example, Figure, RuleOptions, Severity, format_quantity a
 from packwarden.model import copper
 from packwarden.model.limits import CONDUCTOR_FINAL
 from packwarden import Q
-from pydantic import Field
+from packwarden import Field
 
 
 class Options(RuleOptions):

@@ -1,5 +1,5 @@
 from packwarden import Example, Figure, Q, RuleOptions, Severity, format_quantity as fq, rule
-from pydantic import Field
+from packwarden import Field
 
 
 class Options(RuleOptions):

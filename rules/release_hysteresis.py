@@ -1,7 +1,7 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model import stress
 from packwarden import Q
-from pydantic import Field
+from packwarden import Field
 
 
 class Options(RuleOptions):

@@ -1,5 +1,5 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
-from pydantic import Field
+from packwarden import Field
 from packwarden.model import FUSE_DERATING
 from packwarden.model.fuse import ADIABATIC_TIME, melt_limit, ptc_hold_current, pulse_i2t_fraction
 

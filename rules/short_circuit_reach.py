@@ -1,6 +1,6 @@
 from packwarden import Example, Figure, Q, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.limits import CELL_AGEING, FAULT_RESISTANCE
-from pydantic import Field
+from packwarden import Field
 
 from ._rdsfit import loads_to_clear, on_resistance_fit, on_resistance_text
 

@@ -1,7 +1,7 @@
 import math
 
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
-from pydantic import Field
+from packwarden import Field
 
 from ._spike import spike_within
 

@@ -1,7 +1,7 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.support import DEFAULT_SENSE_R, DEFAULT_SUPPLY_C, DEFAULT_SUPPLY_R
 from packwarden import Q
-from pydantic import Field
+from packwarden import Field
 
 
 class Options(RuleOptions):

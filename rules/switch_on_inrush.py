@@ -4,7 +4,7 @@ from packwarden import Example, Figure, RuleOptions, Severity, format_quantity a
 from packwarden.model import inrush
 from packwarden.model.events import precharge_paths
 from packwarden.quantities import rounded_toward
-from pydantic import Field
+from packwarden import Field
 
 from ._fit import Fit
 

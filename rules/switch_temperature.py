@@ -2,7 +2,7 @@ from packwarden import Example, Figure, RuleOptions, Severity, format_quantity a
 from packwarden.model import stress
 from packwarden.model import JUNCTION_LIMIT
 from packwarden import Q
-from pydantic import Field
+from packwarden import Field
 
 from ._rdsfit import on_resistance_fit, on_resistance_text, parallel_fits
 

@@ -1,7 +1,7 @@
 from packwarden import Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
 from packwarden.model.limits import VDS_DERATING
 from ._spike import spike_within
-from pydantic import Field
+from packwarden import Field
 
 
 class Options(RuleOptions):

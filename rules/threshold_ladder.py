@@ -1,5 +1,5 @@
 from packwarden import Q, Example, Figure, RuleOptions, Severity, format_quantity as fq, rule
-from pydantic import Field
+from packwarden import Field
 from packwarden.model import CHARGE_MARGIN
 
 from ._taps import wrong_taps

@@ -15,10 +15,8 @@ import typing
 from enum import Enum
 from typing import Any, Callable, Iterable
 
-from pydantic import BaseModel
-
 from ..records import record
-from ..schema import Toleranced, quantity_of
+from ..schema import Strict, Toleranced, quantity_of
 
 __all__ = ["Interval", "factor_interval", "value_inside", "scaled_resistors", "scaled_rds_on",
            "STEP", "SearchSpent", "FULL_SEARCH_LINTS"]
@@ -179,7 +177,7 @@ def _scaled_text(text: str, factor: float) -> str:
     return f"{float(number) * factor:.12g} {unit}"
 
 
-def written_part(part: BaseModel) -> dict[str, Any]:
+def written_part(part: Strict) -> dict[str, Any]:
     """A validated part as the format writes it: each quantity as text in its field's unit, so
     it validates again to the same values."""
     return _written(part, type(part))
@@ -190,7 +188,7 @@ def _written(value: Any, annotation: Any) -> Any:
         _, unit = _unit(annotation) or ("", "")
         return {k: _quantity(v, unit) for k in ("min", "typ", "max")
                 for v in [getattr(value, k)] if v is not None}
-    if isinstance(value, BaseModel):
+    if isinstance(value, Strict):
         fields = type(value).model_fields
         return {(f.alias or name): _written(getattr(value, name), _annotated(f))
                 for name, f in fields.items() if getattr(value, name) is not None}
