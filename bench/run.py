@@ -29,8 +29,9 @@ components. Then, in one run:
 * the plain YAML linter that often runs in the same pre-commit hook, ``yamllint`` with its
   default rules, one file per process, taking turns with the cold lint (issue 19);
 * the Monte Carlo yield run, 100 000 samples;
-* the start-up floor: processes that only start the interpreter, import the libraries the
-  linter is built on (pydantic, typer, pyyaml), and build the schema's validators;
+* the start-up floor: processes that only start the interpreter, import the libraries a plain
+  check is built on (pyyaml, pydantic-core), and build the schema's validators as a plain check
+  does (the quick way), and beside it as the other commands do (pydantic's models);
 * where the time goes: per kind of design, each stage of the lint (load, validate, libraries,
   netlist, model, rules) beside the floor, in process;
 * the editor (``packwarden lsp``): per kind of design, a warm re-lint of the editor's text after
@@ -510,15 +511,23 @@ def peer_batch(cmd: list[str], files: list[Path], env: dict, cores: int) -> dict
 # --- measuring in process --------------------------------------------------------------------
 
 #: What every ``packwarden check`` process must do before it reads a design, each step including
-#: the ones before: start the interpreter; import the libraries the design card asks for
-#: (pydantic, typer, pyyaml); make the validators of the design and part-library schema as a
-#: check makes them (with pydantic's plugin hook off, from the core schemas kept by the warm-up
-#: run: ``packwarden.schemacache``).
+#: the ones before: start the interpreter; import the libraries a plain check is built on (pyyaml,
+#: pydantic-core, pydantic's package without its models); make the validators of the design and
+#: part-library schema as a plain check makes them (the quick way, ``packwarden.quick``: the
+#: schema's classes without pydantic, compiled from the core schemas kept by the warm-up run).
+#: The last step, beside it, is the same with pydantic's own models, as every other command and a
+#: check that needs them (a team's rules) make them.
 STARTUP_STEPS = {
     "interpreter": "pass",
-    "libraries": "import gc; gc.disable(); import typer, yaml; from pydantic import BaseModel",
-    "schema": "import gc, os; gc.disable(); os.environ['PYDANTIC_DISABLE_PLUGINS'] = '__all__'; "
-              "import typer, yaml; from pydantic import BaseModel; "
+    "libraries": "import gc; gc.disable(); import yaml, pydantic_core, pydantic",
+    "schema": "import gc; gc.disable(); import yaml; "
+              "from packwarden.checking import start; start(); "
+              "from packwarden.schemacache import go_quick, validator; assert go_quick(); "
+              "from packwarden.schema import Design, PartLibrary; "
+              "validator(Design); validator(PartLibrary)",
+    "schema, pydantic's models": "import gc, os; gc.disable(); "
+              "os.environ['PYDANTIC_DISABLE_PLUGINS'] = '__all__'; "
+              "import yaml; from pydantic import BaseModel; "
               "from packwarden.schema import Design, PartLibrary; "
               "from packwarden.schemacache import validator; "
               "validator(Design); validator(PartLibrary)",
