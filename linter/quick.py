@@ -42,9 +42,10 @@ ENV = "PACKWARDEN_QUICK"
 #: The formats the quick way renders (the others read a design's model or import more).
 FORMATS = frozenset({"text", "json", "sarif", "junit", "markdown"})
 #: The options of a plain check the quick way takes (launch.plain_check's names).
-OPTIONS = frozenset({"paths", "format", "output", "fail_on", "quiet", "config"})
-#: At most this many files: a larger batch may go to worker processes.
-MAX_FILES = 4
+OPTIONS = frozenset({"paths", "format", "output", "fail_on", "quiet", "config", "designs_only"})
+#: At most this many files: below ``batch.PARALLEL_MIN_DESIGNS``, so every design is linted in
+#: this process (a worker must never run the command again).
+MAX_FILES = 47
 
 
 def wanted(opts: dict[str, Any]) -> bool:
