@@ -9,21 +9,23 @@ models' own methods, equality, hashing and ``repr``.
 
 So when ``launch.main`` sees a plain check of a few files (:func:`wanted`) and the kept schemas
 are current, it turns this mode on (``schemacache.go_quick``) before anything imports
-``schema.py``. ``schema.py`` and
-``api.py`` then take their model base and markers from here (:class:`BaseModel`, :func:`Field`,
+``schema.py``. ``schema.py`` and ``api.py`` then take their model base and markers from here (:class:`BaseModel`, :func:`Field`,
 :class:`AfterValidator`, :class:`Discriminator`, :class:`Tag`, :func:`model_validator`): the
 same class bodies make plain classes, pydantic-core builds their instances from the kept schemas
 exactly as it builds pydantic's, and the instances behave as pydantic's do where a check looks
 (equality, hashing and ``repr`` as ``pydantic.BaseModel`` makes them; ``model_fields``,
 ``model_construct`` and ``model_copy`` as far as a check uses them).
 
-Whatever needs pydantic's own models (wording a validation error, a project's rule options or
-team policy, a team's or a plugin's rules, a toleranced value written in a form the quick reader
-does not take) ends the quick way: :func:`fall_back` runs the same command again, in the same
-interpreter with the same arguments, with the mode off. That happens before anything has been
-written, so the output is the full way's, byte for byte. ``tests/test_quick.py`` holds the two
-ways to the same reports on every example and flawed example, in every format the quick way
-takes, and the stand-ins to pydantic's behaviour.
+What reads pydantic's own models gets them, made when first needed: a validation error is
+worded from ``schema.py`` made again by pydantic as a module of its own (:func:`full_schema`),
+which also reads a toleranced mapping the quick reader does not take; a project's options for a
+rule are validated by the options' model made by pydantic from the same fields
+(:func:`pydantic_model`). A rule plugin, a team's rule folder or policy (their models are
+pydantic's), or a use of a model the stand-ins do not offer, ends the quick way: :func:`fall_back`
+runs the same command again, in the same interpreter with the same arguments, with the mode off,
+before anything has been written, so the output is the full way's, byte for byte.
+``tests/test_quick.py`` holds the two ways to the same reports on every example and flawed
+example, in every format the quick way takes, and the stand-ins to pydantic's behaviour.
 
 ``PACKWARDEN_QUICK=0`` turns the mode off.
 """
@@ -79,7 +81,8 @@ _twin: Any = None
 def full_schema() -> Any:
     """``schema.py`` made again, by pydantic, as a module of its own
     (``packwarden._schema_full``): what words a validation error reads (the models' fields,
-    annotations and kinds). Made at most once per process, only when a file has a mistake; no
+    annotations and kinds), and what reads a toleranced mapping the quick reader does not take
+    (``schema.given_model``). Made at most once per process, only when a file needs it; no
     design or library is validated against it."""
     global ON, _twin
     if _twin is None:
@@ -300,6 +303,16 @@ class BaseModel:
 
     def __repr_str__(self, join: str) -> str:
         return join.join(f"{k}={v!r}" for k, v in self.__repr_args__())
+
+    def __getstate__(self) -> dict[str, Any]:
+        return {"__dict__": self.__dict__, "__pydantic_extra__": self.__pydantic_extra__,
+                "__pydantic_fields_set__": self.__pydantic_fields_set__,
+                "__pydantic_private__": getattr(self, "__pydantic_private__", None)}
+
+    def __setstate__(self, state: dict[str, Any]) -> None:
+        for name in ("__pydantic_fields_set__", "__pydantic_extra__", "__pydantic_private__",
+                     "__dict__"):
+            object.__setattr__(self, name, state.get(name, {} if name == "__dict__" else None))
 
     def __iter__(self) -> Any:
         yield from ((k, v) for k, v in self.__dict__.items() if not k.startswith("_"))

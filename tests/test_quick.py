@@ -317,6 +317,21 @@ def models(kit: Any) -> dict[str, type]:
     return {"Inner": Inner, "Outer": Outer, "Empty": Empty, "Made": Made}
 
 
+def _kept() -> type:
+    from packwarden import quick
+
+    class Kept(quick.BaseModel):  # a class pickle finds by its module and name
+        model_config = quick.ConfigDict(frozen=True)
+        a: float
+        b: Optional[float] = None
+
+    Kept.__qualname__ = "Kept"
+    return Kept
+
+
+Kept = _kept()
+
+
 def both() -> tuple[dict[str, type], dict[str, type]]:
     import pydantic
 
@@ -371,6 +386,19 @@ def test_model_copy_and_a_model_made_by_calling_its_class() -> None:
     assert qi.b is None  # the original is untouched
     assert q["Made"]().__dict__ == p["Made"]().__dict__
     assert q["Made"]().model_fields_set == p["Made"]().model_fields_set == set()
+
+
+def test_copied_and_pickled_as_pydantics_are() -> None:
+    import copy
+    import pickle
+    q, p = both()
+    qi = q["Inner"].model_construct(a=1.0, b=2.0)
+    for made in (copy.copy(qi), copy.deepcopy(qi)):
+        assert made == qi and made is not qi and made.model_fields_set == qi.model_fields_set
+    # the state as pydantic's own models keep it
+    assert qi.__getstate__().keys() == p["Inner"].model_construct(a=1.0).__getstate__().keys()
+    again = pickle.loads(pickle.dumps(Kept.model_construct(a=1.5)))
+    assert again == Kept.model_construct(a=1.5)
 
 
 def test_frozen_as_pydantic_is() -> None:
