@@ -87,7 +87,10 @@ def read_installed() -> dict[str, list[list]]:
     """The groups from ``importlib.metadata``: ``[name, value, distribution name or None]``."""
     from importlib.metadata import entry_points
 
-    names: dict[int, str] = {}  # a distribution's name is parsed from its metadata at each access
+    # a distribution's name is parsed from its metadata at each access: once per distribution
+    # object, kept here with the object itself, so that no id is reused by another distribution
+    # while this runs (the entry points of one group are freed before the next group's are read)
+    names: dict[int, tuple[Any, str]] = {}
     out: dict[str, list[list]] = {}
     for group in GROUPS:
         rows = []
@@ -95,8 +98,8 @@ def read_installed() -> dict[str, list[list]]:
             dist = None
             if ep.dist is not None:
                 if id(ep.dist) not in names:
-                    names[id(ep.dist)] = ep.dist.name
-                dist = names[id(ep.dist)]
+                    names[id(ep.dist)] = (ep.dist, ep.dist.name)
+                dist = names[id(ep.dist)][1]
             rows.append([ep.name, ep.value, dist])
         out[group] = rows
     return out

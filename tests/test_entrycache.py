@@ -195,3 +195,34 @@ def test_the_folder_keeps_the_newest_files_of_each_kind(tmp_path: Path) -> None:
     entrycache.write_cache_file(tmp_path / names[0], b"again")
     assert (tmp_path / names[0]).read_bytes() == b"again"
     assert len(list(tmp_path.glob("entry-points-*"))) == keep
+
+
+def test_each_entry_point_is_credited_to_its_own_distribution(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    # The reference: each entry point's own distribution name, read without any memo. Each group's
+    # distributions are made anew and dropped once the group is read, as importlib.metadata makes
+    # them; a distribution object made for a later group may then sit where one of an earlier
+    # group sat (the same id), and must not be credited with the earlier one's name.
+    import importlib.metadata as md
+
+    class Dist:
+        def __init__(self, name: str) -> None:
+            self.name = name
+
+    class EP:
+        def __init__(self, name: str, dist: Dist) -> None:
+            self.name, self.value, self.dist = name, f"{name}.mod:f", dist
+
+    made: list[list] = []
+
+    def entry_points(group: str) -> list:
+        owner = "acme-review" if group == entrycache.GROUPS[0] else "packwarden"
+        eps = [EP(f"{group}-{i}", Dist(owner)) for i in range(50)]
+        made.append([[ep.name, ep.value, ep.dist.name] for ep in eps])
+        return eps
+
+    monkeypatch.setattr(md, "entry_points", entry_points)
+    for _ in range(20):
+        made.clear()
+        found = entrycache.read_installed()
+        assert [found[g] for g in entrycache.GROUPS] == made
