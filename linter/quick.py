@@ -194,6 +194,11 @@ class FieldInfo:
 Field = FieldInfo
 
 
+def _class_var(annotation: Any) -> bool:
+    import typing
+    return annotation is typing.ClassVar or typing.get_origin(annotation) is typing.ClassVar
+
+
 def _field(annotation: Any, value: Any) -> FieldInfo:
     import typing
     if isinstance(value, FieldInfo):
@@ -229,7 +234,9 @@ class BaseModel:
         config.update(own.get("model_config", {}))
         cls.model_config = config
         for name, annotation in own.get("__annotations__", {}).items():
-            if name.startswith("_") or name == "model_config":
+            if isinstance(annotation, str):  # pydantic would evaluate it; schema.py has none
+                raise TypeError(f"{cls.__qualname__}.{name}: an annotation in a string")
+            if name.startswith("_") or name == "model_config" or _class_var(annotation):
                 continue
             value = own.get(name, _MISSING)
             fields[name] = _field(annotation, value)
@@ -240,7 +247,9 @@ class BaseModel:
         cls._getter = operator.itemgetter(*fields) if fields else (lambda d: 0)
         if not config.get("frozen"):
             cls.__hash__ = None  # type: ignore[assignment]
-        elif "__hash__" not in own:
+        elif "__hash__" not in own or (own["__hash__"] is None and "__eq__" in own):
+            # as pydantic: unless the class body says its own hash (an ``__eq__`` alone makes
+            # Python set None, which the class body did not say)
             cls.__hash__ = BaseModel.__hash__  # type: ignore[method-assign]
 
     # -- what pydantic's BaseModel offers, as pydantic does it ------------------------------------

@@ -10,14 +10,14 @@ hashing, ``repr``, ``model_construct``, ``model_copy``) is compared with pydanti
 ``repr`` and hash in a process of each way.
 """
 
-from __future__ import annotations
-
+# No ``from __future__ import annotations``: the model bodies below are pydantic's and the
+# quick way's alike, whose annotations are evaluated as the class is made, as in schema.py.
 import json
 import os
 import subprocess
 import sys
 from pathlib import Path
-from typing import Annotated, Any, Optional
+from typing import Annotated, Any, ClassVar, Optional
 
 import pytest
 
@@ -303,7 +303,13 @@ def models(kit: Any) -> dict[str, type]:
         alias_: str = kit.Field("x", alias="alias")
 
     class Empty(Base):
-        pass
+        kind: ClassVar[str] = "empty"  # a class variable, no field
+
+    class Compared(Base):
+        a: float = 0.0
+
+        def __eq__(self, other: Any) -> bool:  # its own equality, pydantic's hash
+            return isinstance(other, Compared) and other.a == self.a
 
     class Made(Base):
         tag: str = "t"
@@ -314,7 +320,7 @@ def models(kit: Any) -> dict[str, type]:
                 raise ValueError("tag")
             return self
 
-    return {"Inner": Inner, "Outer": Outer, "Empty": Empty, "Made": Made}
+    return {"Inner": Inner, "Outer": Outer, "Empty": Empty, "Made": Made, "Compared": Compared}
 
 
 def _kept() -> type:
@@ -360,6 +366,8 @@ def test_model_construct_repr_hash_and_equality_as_pydantic_makes_them() -> None
     by_alias = q["Outer"].model_construct(name="n", alias="y")
     assert by_alias.alias_ == p["Outer"].model_construct(name="n", alias="y").alias_ == "y"
     assert hash(q["Empty"].model_construct()) == hash(p["Empty"].model_construct())
+    assert q["Empty"].kind == p["Empty"].kind == "empty"
+    assert hash(q["Compared"].model_construct(a=2.0)) == hash(p["Compared"].model_construct(a=2.0))
     assert repr(q["Empty"].model_construct()) == repr(p["Empty"].model_construct())
 
 
