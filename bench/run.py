@@ -525,7 +525,7 @@ STARTUP_STEPS = {
               "from packwarden.schemacache import go_quick, validator; assert go_quick(); "
               "from packwarden.schema import Design, PartLibrary; "
               "validator(Design); validator(PartLibrary)",
-    "schema, pydantic's models": "import gc, os; gc.disable(); "
+    "schema, full way": "import gc, os; gc.disable(); "
               "os.environ['PYDANTIC_DISABLE_PLUGINS'] = '__all__'; "
               "import yaml; from pydantic import BaseModel; "
               "from packwarden.schema import Design, PartLibrary; "

@@ -118,7 +118,7 @@ def test_where_the_time_goes(results: dict) -> None:
 def test_the_start_up_floor(results: dict) -> None:
     # Each step of what every check process does before it reads a design was timed.
     floor = results["startup_floor"]
-    assert list(floor) == ["interpreter", "libraries", "schema", "schema, pydantic's models"]
+    assert list(floor) == ["interpreter", "libraries", "schema", "schema, full way"]
     assert all(_positive(step["median_s"]) and step["runs"] >= 1 for step in floor.values())
 
 
