@@ -71,7 +71,11 @@ def fall_back(why: str) -> NoReturn:
     env[ENV] = "0"
     # sys.orig_argv: the interpreter's own command line, its options and the script included
     argv = list(getattr(sys, "orig_argv", [])) or [sys.executable, *sys.argv]
-    os.execve(sys.executable, [sys.executable, *argv[1:]], env)
+    command = [sys.executable, *argv[1:]]
+    if os.name == "nt":  # no exec in place there: run it and leave with its exit code
+        import subprocess
+        os._exit(subprocess.call(command, env=env))
+    os.execve(sys.executable, command, env)
     raise AssertionError(why)  # pragma: no cover - execve does not return
 
 

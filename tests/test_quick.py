@@ -434,3 +434,39 @@ def test_which_commands_may_go_the_quick_way(tmp_path: Path,
     assert not quick.wanted({"paths": [str(design)]})
     from packwarden.batch import PARALLEL_MIN_DESIGNS
     assert quick.MAX_FILES < PARALLEL_MIN_DESIGNS  # no worker process on the quick way
+
+
+def test_running_again_keeps_the_interpreters_command_line(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    # where the process can be replaced (execve) and where it cannot (Windows: a child, whose
+    # exit code is the command's)
+    from packwarden import quick
+    calls: list = []
+
+    class Left(Exception):
+        pass
+
+    def leave(code: int) -> None:
+        calls.append(("exit", code))
+        raise Left
+
+    def execve(path: str, argv: list, env: dict) -> None:
+        calls.append(("exec", argv, env[quick.ENV]))
+        raise Left
+
+    monkeypatch.setattr(sys, "orig_argv", ["python3", "-X", "importtime", "bin/packwarden",
+                                           "check", "d.yaml"])
+    monkeypatch.setattr(os, "execve", execve)
+    monkeypatch.setattr(os, "_exit", leave)
+    with pytest.raises(Left):
+        quick.fall_back("a test")
+    assert calls == [("exec", [sys.executable, "-X", "importtime", "bin/packwarden", "check",
+                               "d.yaml"], "0")]
+    calls.clear()
+    import subprocess
+    monkeypatch.setattr(os, "name", "nt")
+    monkeypatch.setattr(subprocess, "call", lambda argv, env: calls.append(("run", argv)) or 1)
+    with pytest.raises(Left):
+        quick.fall_back("a test")
+    assert calls == [("run", [sys.executable, "-X", "importtime", "bin/packwarden", "check",
+                              "d.yaml"]), ("exit", 1)]
