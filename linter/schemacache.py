@@ -136,7 +136,8 @@ def fingerprint() -> list:
 
 # --- reading and writing ----------------------------------------------------------------------
 
-_blob: Optional[bytes] = None
+#: The kept file :func:`current` found: its path, and its head and stream as :func:`_open` gives.
+_opened: Optional[tuple[Path, tuple[dict, Any]]] = None
 
 
 def _plain_data(stream: Any) -> Any:
@@ -151,28 +152,41 @@ def _plain_data(stream: Any) -> Any:
     return PlainData(stream)
 
 
-def current() -> bool:
-    """Whether the kept file is there, of this layout and of this fingerprint (read once; its
-    recipes are followed later, by :func:`read`)."""
-    global _blob
-    path = cache_file()
-    if path is None:
-        return False
+def _open(path: Path) -> Optional[tuple[dict, Any]]:
+    """The head of the kept file at ``path`` (plain data: the fingerprint and the recipes) and the
+    file's stream at its body, when the file is of this layout and fingerprint; else None. A file
+    :func:`current` found is not read again by :func:`read`."""
+    global _opened
+    if _opened is not None and _opened[0] == path:
+        found, _opened = _opened[1], None
+        return found
+    import io
     try:
         blob = path.read_bytes()
     except OSError:
-        return False
+        return None
     if not blob.startswith(LAYOUT):
-        return False
-    import io
+        return None
+    stream = io.BytesIO(blob)
+    stream.seek(len(LAYOUT))
     try:
-        head = _plain_data(io.BytesIO(blob[len(LAYOUT):])).load()
+        head = _plain_data(stream).load()
     except Exception:  # noqa: BLE001 - a damaged file is only a missed cache
-        return False
+        return None
     if not isinstance(head, dict) or head.get("fingerprint") != fingerprint():
-        return False
-    _blob = blob
-    return True
+        return None
+    return head, stream
+
+
+def current() -> bool:
+    """Whether the kept file is there, of this layout and of this fingerprint (its recipes are
+    followed later, by :func:`read`, which takes the file as read here)."""
+    global _opened
+    path = cache_file()
+    found = _open(path) if path is not None else None
+    if found is not None:
+        _opened = (path, found)
+    return found is not None
 
 
 def go_quick() -> bool:
@@ -189,19 +203,11 @@ def read(path: Optional[Path]) -> Optional[dict[str, tuple[dict, dict]]]:
     object, else None."""
     if path is None:
         return None
-    import io
-    try:
-        blob = _blob if _blob is not None else path.read_bytes()
-    except OSError:
+    found = _open(path)
+    if found is None:
         return None
-    if not blob.startswith(LAYOUT):
-        return None
-    stream = io.BytesIO(blob)
-    stream.seek(len(LAYOUT))
+    head, stream = found
     try:
-        head = _plain_data(stream).load()
-        if not isinstance(head, dict) or head.get("fingerprint") != fingerprint():
-            return None
         objects = [follow(r) for r in head["recipes"]]
         body = _plain_data(stream)
         body.persistent_load = objects.__getitem__
