@@ -220,6 +220,24 @@ def _field(annotation: Any, value: Any) -> FieldInfo:
     return found.placed(annotation)
 
 
+def _checks(cls: type) -> dict[str, Callable]:
+    """A model class's own checks (``model_validator``), by name: a subclass's replaces its
+    base's of the same name, as pydantic does."""
+    found: dict[str, Callable] = {}
+    for klass in reversed(cls.__mro__):
+        found.update((n, f) for n, f in vars(klass).items() if hasattr(f, "__quick_mode__"))
+    return found
+
+
+def _fill(obj: Any, data: dict, fields_set: set, extra: Any = None, private: Any = None) -> Any:
+    """Set a model's state as pydantic-core does (past the frozen ``__setattr__``)."""
+    object.__setattr__(obj, "__dict__", data)
+    object.__setattr__(obj, "__pydantic_fields_set__", fields_set)
+    object.__setattr__(obj, "__pydantic_extra__", extra)
+    object.__setattr__(obj, "__pydantic_private__", private)
+    return obj
+
+
 class BaseModel:
     """The quick way's model base: what pydantic-core needs to build an instance (``__dict__``
     and pydantic's three instance slots) and what a check reads of one."""
@@ -264,13 +282,8 @@ class BaseModel:
         if data:
             fall_back("a model made from values")
         made = type(self).model_construct()
-        for name in ("__dict__", "__pydantic_fields_set__", "__pydantic_extra__",
-                     "__pydantic_private__"):
-            object.__setattr__(self, name, getattr(made, name))
-        checks: dict[str, Any] = {}  # by name: a subclass's check replaces its base's
-        for klass in reversed(type(self).__mro__):
-            checks.update((n, f) for n, f in vars(klass).items() if hasattr(f, "__quick_mode__"))
-        for func in checks.values():
+        _fill(self, made.__dict__, made.__pydantic_fields_set__)
+        for func in _checks(type(self)).values():
             if func.__quick_mode__ != "after":  # pragma: no cover - the schema has none other
                 fall_back("a before-check of a model")
             func(self)
@@ -288,7 +301,7 @@ class BaseModel:
         names = type(self).model_fields.keys()
         if self.__dict__.keys() <= names and other.__dict__.keys() <= names:
             return False
-        getter = operator.itemgetter(*names) if names else (lambda d: 0)
+        getter = type(self)._getter  # only the fields count, as pydantic compares them
         try:
             return getter(self.__dict__) == getter(other.__dict__)
         except KeyError:
@@ -323,9 +336,8 @@ class BaseModel:
                 "__pydantic_private__": getattr(self, "__pydantic_private__", None)}
 
     def __setstate__(self, state: dict[str, Any]) -> None:
-        for name in ("__pydantic_fields_set__", "__pydantic_extra__", "__pydantic_private__",
-                     "__dict__"):
-            object.__setattr__(self, name, state.get(name, {} if name == "__dict__" else None))
+        _fill(self, state.get("__dict__", {}), state.get("__pydantic_fields_set__"),
+              state.get("__pydantic_extra__"), state.get("__pydantic_private__"))
 
     def __iter__(self) -> Any:
         yield from ((k, v) for k, v in self.__dict__.items() if not k.startswith("_"))
@@ -350,13 +362,7 @@ class BaseModel:
             elif not field.is_required():
                 data[name] = field.value()
         data.update(values)  # as pydantic: keys that are no field are kept as given
-        if _fields_set is not None:
-            given = _fields_set
-        object.__setattr__(out, "__dict__", data)
-        object.__setattr__(out, "__pydantic_fields_set__", given)
-        object.__setattr__(out, "__pydantic_extra__", None)
-        object.__setattr__(out, "__pydantic_private__", None)
-        return out
+        return _fill(out, data, given if _fields_set is None else _fields_set)
 
     def model_copy(self, *, update: Optional[dict[str, Any]] = None, deep: bool = False) -> Any:
         """pydantic's ``model_copy`` (a shallow copy, ``update`` set without validation)."""
@@ -368,11 +374,7 @@ class BaseModel:
         if update:
             data.update(update)
             fields_set.update(update)
-        object.__setattr__(out, "__dict__", data)
-        object.__setattr__(out, "__pydantic_fields_set__", fields_set)
-        object.__setattr__(out, "__pydantic_extra__", self.__pydantic_extra__)
-        object.__setattr__(out, "__pydantic_private__", self.__pydantic_private__)
-        return out
+        return _fill(out, data, fields_set, self.__pydantic_extra__, self.__pydantic_private__)
 
     @classmethod
     def model_validate(cls, obj: Any, **kwargs: Any) -> Any:
@@ -395,9 +397,7 @@ def pydantic_model(cls: type) -> Any:
     import typing
 
     import pydantic
-    if any(hasattr(f, "__quick_mode__") for k in cls.__mro__ for f in vars(k).values()) or \
-            any(not issubclass(k, BaseModel) for k in cls.__mro__[:-1]
-                if k.__module__ != "builtins"):
+    if _checks(cls) or not all(issubclass(k, BaseModel) for k in cls.__mro__[:-1]):
         fall_back("a model with checks of its own, validated by itself")
 
     def pydantic_field(field: FieldInfo) -> Any:

@@ -351,6 +351,7 @@ def test_model_construct_repr_hash_and_equality_as_pydantic_makes_them() -> None
         qi, pi = q["Inner"].model_construct(**values), p["Inner"].model_construct(**values)
         assert repr(qi).replace("Inner", "X") == repr(pi).replace("Inner", "X")
         assert str(qi) == str(pi)
+        assert list(qi) == list(pi)
         assert hash(qi) == hash(pi)
         assert qi.__dict__ == pi.__dict__ and qi.model_fields_set == pi.model_fields_set
         assert qi == q["Inner"].model_construct(**values)
